@@ -1,0 +1,4 @@
+/**
+ * The bundle file: preprocessing and weights frozen together, with checksums.
+ */
+package dev.pressmark.core.bundle;

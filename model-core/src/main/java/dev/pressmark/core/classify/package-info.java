@@ -1,0 +1,4 @@
+/**
+ * Linear classifiers and their solvers.
+ */
+package dev.pressmark.core.classify;

@@ -1,0 +1,4 @@
+/**
+ * Resampling (stratified splits and folds) and classification metrics.
+ */
+package dev.pressmark.core.evaluate;

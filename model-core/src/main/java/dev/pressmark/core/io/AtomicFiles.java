@@ -1,0 +1,59 @@
+package dev.pressmark.core.io;
+
+import dev.pressmark.core.PressmarkException;
+import java.io.IOException;
+import java.io.OutputStream;
+import java.nio.file.AtomicMoveNotSupportedException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+
+/**
+ * Writes a file so that readers see either the old file or the complete new one: the content goes
+ * to a temporary file in the same directory, which is then moved over the target.
+ */
+public final class AtomicFiles {
+
+    /** Writes the content of a file to a stream. */
+    @FunctionalInterface
+    public interface Writer {
+        void write(OutputStream out) throws IOException;
+    }
+
+    private AtomicFiles() {
+    }
+
+    /** Writes {@code target} through {@code writer}; on any failure the target is untouched. */
+    public static void write(Path target, Writer writer) {
+        Path absolute = target.toAbsolutePath();
+        Path temporary = null;
+        try {
+            Files.createDirectories(absolute.getParent());
+            temporary = Files.createTempFile(absolute.getParent(), "." + absolute.getFileName() + ".", ".tmp");
+            try (OutputStream out = Files.newOutputStream(temporary)) {
+                writer.write(out);
+            }
+            move(temporary, absolute);
+        } catch (IOException | RuntimeException e) {
+            RuntimeException failure = e instanceof RuntimeException r
+                    ? r
+                    : new PressmarkException("file-unwritable", target + ": cannot write: " + e.getMessage(), e);
+            if (temporary != null) {
+                try {
+                    Files.deleteIfExists(temporary);
+                } catch (IOException cleanup) {
+                    failure.addSuppressed(cleanup);
+                }
+            }
+            throw failure;
+        }
+    }
+
+    private static void move(Path from, Path to) throws IOException {
+        try {
+            Files.move(from, to, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
+        } catch (AtomicMoveNotSupportedException e) {
+            Files.move(from, to, StandardCopyOption.REPLACE_EXISTING);
+        }
+    }
+}
