@@ -1,0 +1,71 @@
+package dev.pressmark.cli;
+
+import dev.pressmark.core.PressmarkException;
+import java.io.PrintWriter;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+
+/**
+ * The {@code pressmark} command. Exit codes: 0 ok, 1 a failure the user can fix (one line on
+ * stderr, a stack trace only with {@code --verbose}), 2 a usage error.
+ */
+@Command(
+        name = "pressmark",
+        mixinStandardHelpOptions = true,
+        versionProvider = Main.Version.class,
+        description = "Learn, evaluate, publish and serve short-text classifiers.",
+        subcommands = {VocabCommand.class, CommandLine.HelpCommand.class})
+public final class Main {
+
+    static final int EXIT_OK = 0;
+    static final int EXIT_FAILURE = 1;
+    static final int EXIT_USAGE = 2;
+
+    @Option(names = "--verbose", description = "Print stack traces of failures.", scope = CommandLine.ScopeType.INHERIT)
+    boolean verbose;
+
+    public static void main(String[] args) {
+        System.exit(run(args));
+    }
+
+    /** Runs the command line and returns the exit code; the seam the tests use. */
+    static int run(String... args) {
+        CommandLine commandLine = new CommandLine(new Main());
+        commandLine.setExecutionExceptionHandler(Main::handleFailure);
+        return commandLine.execute(args);
+    }
+
+    private static int handleFailure(Exception e, CommandLine commandLine, CommandLine.ParseResult parseResult) {
+        PrintWriter err = commandLine.getErr();
+        boolean verbose = hasVerbose(parseResult);
+        if (e instanceof PressmarkException || e instanceof IllegalArgumentException) {
+            err.println("pressmark: " + e.getMessage());
+        } else {
+            err.println("pressmark: unexpected failure: " + e + (verbose ? "" : " (run with --verbose for details)"));
+        }
+        if (verbose) {
+            e.printStackTrace(err);
+        }
+        err.flush();
+        return EXIT_FAILURE;
+    }
+
+    private static boolean hasVerbose(CommandLine.ParseResult result) {
+        for (CommandLine.ParseResult p = result; p != null; p = p.subcommand()) {
+            if (p.matchedOption("--verbose") != null) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    /** The version from the jar's manifest, or "development" when run from classes. */
+    static final class Version implements CommandLine.IVersionProvider {
+        @Override
+        public String[] getVersion() {
+            String version = Main.class.getPackage().getImplementationVersion();
+            return new String[] {"pressmark " + (version == null ? "development" : version)};
+        }
+    }
+}
