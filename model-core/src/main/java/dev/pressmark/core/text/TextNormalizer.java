@@ -30,6 +30,9 @@ public record TextNormalizer(
 
     /** The first code point that has a canonical decomposition (U+00C0, À). */
     private static final char FIRST_DECOMPOSABLE = '\u00C0';
+    /** Flags that {@link #clean} returns. */
+    private static final int NON_ASCII = 1;
+    private static final int DECOMPOSABLE = 2;
 
     /** Returns the normalised text; words are separated by spaces or by punctuation. */
     public String normalize(CharSequence text) {
@@ -44,29 +47,35 @@ public record TextNormalizer(
      */
     public void normalize(CharSequence text, StringBuilder out) {
         int start = out.length();
-        boolean decomposable = clean(text, out);
-        if (stripAccents && decomposable) {
+        int found = clean(text, out);
+        if (stripAccents && (found & DECOMPOSABLE) != 0) {
             stripAccents(out, start);
         }
-        if (lowercase) {
+        if (lowercase && (found & NON_ASCII) != 0) {
             lowercase(out, start);
         }
     }
 
-    /** Pass 1: cleaning, whitespace and CJK spacing. Returns whether any char is ≥ U+00C0. */
-    private boolean clean(CharSequence text, StringBuilder out) {
-        boolean decomposable = false;
+    /**
+     * Pass 1: cleaning, whitespace, CJK spacing, and lower-casing of ASCII letters, which commutes
+     * with the later steps. Returns which of {@link #NON_ASCII} and {@link #DECOMPOSABLE} occurred.
+     */
+    private int clean(CharSequence text, StringBuilder out) {
+        int found = 0;
         int n = text.length();
         for (int i = 0; i < n; i++) {
             char c = text.charAt(i);
             if (c < 0x80) {
-                if (c >= 0x20 && c != 0x7F) {
+                if (c >= 'A' && c <= 'Z') {
+                    out.append(lowercase ? (char) (c + ('a' - 'A')) : c);
+                } else if (c >= 0x20 && c != 0x7F) {
                     out.append(c);
                 } else if (c == '\t' || c == '\n' || c == '\r') {
                     out.append(' ');
                 }
                 continue;
             }
+            found |= NON_ASCII;
             int cp = c;
             if (Character.isHighSurrogate(c) && i + 1 < n && Character.isLowSurrogate(text.charAt(i + 1))) {
                 cp = Character.toCodePoint(c, text.charAt(++i));
@@ -78,13 +87,13 @@ public record TextNormalizer(
                 out.append(' ');
             } else if (cjk && isCjk(cp)) {
                 out.append(' ').appendCodePoint(cp).append(' ');
-                decomposable = true;
+                found |= DECOMPOSABLE;
             } else {
                 out.appendCodePoint(cp);
-                decomposable |= cp >= FIRST_DECOMPOSABLE;
+                found |= cp >= FIRST_DECOMPOSABLE ? DECOMPOSABLE : 0;
             }
         }
-        return decomposable;
+        return found;
     }
 
     private static void stripAccents(StringBuilder out, int start) {
@@ -100,26 +109,16 @@ public record TextNormalizer(
         }
     }
 
+    /** Lower-cases every character from {@code start}; only called when non-ASCII text is present. */
     private static void lowercase(StringBuilder out, int start) {
-        int n = out.length();
-        boolean ascii = true;
-        for (int i = start; i < n; i++) {
-            char c = out.charAt(i);
-            if (c >= 'A' && c <= 'Z') {
-                out.setCharAt(i, (char) (c + ('a' - 'A')));
-            } else if (c >= 0x80) {
-                ascii = false;
-            }
-        }
-        if (ascii) {
-            return;
-        }
         String mixed = out.substring(start);
         out.setLength(start);
         for (int i = 0; i < mixed.length(); ) {
             int cp = mixed.codePointAt(i);
             i += Character.charCount(cp);
-            if (cp == 0x130) {
+            if (cp < 0x80) {
+                out.append(cp >= 'A' && cp <= 'Z' ? (char) (cp + ('a' - 'A')) : (char) cp);
+            } else if (cp == 0x130) {
                 // The one unconditional full lower-case mapping (Unicode SpecialCasing.txt): İ -> i + U+0307.
                 out.append('i').append('\u0307');
             } else {
