@@ -7,6 +7,6 @@ import picocli.CommandLine.Command;
         name = "vocab",
         mixinStandardHelpOptions = true,
         description = "Learn a WordPiece vocabulary, or encode text with one.",
-        subcommands = {VocabEncodeCommand.class})
+        subcommands = {VocabTrainCommand.class, VocabEncodeCommand.class})
 final class VocabCommand {
 }
