@@ -9,9 +9,9 @@ import java.util.TreeMap;
 /**
  * How much a misclassified example of each class costs, as a factor on {@code c}: an example of
  * class {@code k} gets the cost {@code c · weight(k)} in every binary problem it takes part in,
- * including the "rest" side of one versus rest. (The reference implementation of the solvers
- * weights only the positive side of each one-versus-rest problem; here a class weight means the
- * same thing wherever the class appears.)
+ * including the "rest" side of one versus rest. (A common alternative weights only the positive
+ * side of each one-versus-rest problem; here a class weight means the same thing wherever the
+ * class appears. For two classes the two agree.)
  */
 public sealed interface ClassWeights {
 
@@ -23,7 +23,7 @@ public sealed interface ClassWeights {
     /**
      * Class {@code k} weighs {@code n / (K · n_k)}, with {@code n} examples, {@code n_k} of class
      * {@code k} and {@code K} classes present, so that every class carries the same total weight;
-     * this is the common practice (scikit-learn's "balanced").
+     * this is the common practice for "balanced" class weights.
      */
     static ClassWeights balanced() {
         return new Balanced();

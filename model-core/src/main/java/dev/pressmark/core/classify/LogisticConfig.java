@@ -14,7 +14,7 @@ package dev.pressmark.core.classify;
 public record LogisticConfig(double c, double tolerance, int maxIterations, double bias) {
 
     public static final double DEFAULT_C = 1.0;
-    /** 0.1, as the reference dual solver uses; see {@link SvmConfig#DEFAULT_TOLERANCE}. */
+    /** 0.1, the customary default of dual coordinate descent; see {@link SvmConfig#DEFAULT_TOLERANCE}. */
     public static final double DEFAULT_TOLERANCE = 0.1;
     public static final int DEFAULT_MAX_ITERATIONS = 1000;
     public static final double DEFAULT_BIAS = 1.0;

@@ -7,7 +7,7 @@ import java.util.SplittableRandom;
 /**
  * Binary L2-regularised logistic regression, solved by dual coordinate descent: H.-F. Yu,
  * F.-L. Huang and C.-J. Lin, "Dual coordinate descent methods for logistic regression and maximum
- * entropy models", Machine Learning 85(1), 2011: coordinate descent on the dual, with the
+ * entropy models", Machine Learning 85, 2011: coordinate descent on the dual, with the
  * modified Newton method for each one-variable sub-problem.
  *
  * <p>Primal, over {@code w} including the bias weight:
@@ -30,7 +30,7 @@ public final class LogisticSolver {
     private static final int MAX_NEWTON_STEPS = 100;
     /**
      * The sub-problems are solved loosely at first and more tightly once a pass needs few Newton
-     * steps, as the paper's implementation does.
+     * steps (common practice in implementations of this method).
      */
     private static final double INITIAL_INNER_TOLERANCE = 1e-2;
     private static final double MIN_INNER_TOLERANCE = 1e-8;

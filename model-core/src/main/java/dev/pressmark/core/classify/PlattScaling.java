@@ -10,7 +10,7 @@ import java.util.List;
  * Classifiers, MIT Press, 1999.
  *
  * <p>{@link #fit(double[], boolean[])} follows H.-T. Lin, C.-J. Lin and R. C. Weng, "A note on
- * Platt's probabilistic outputs for support vector machines", Machine Learning 68(3), 2007: it
+ * Platt's probabilistic outputs for support vector machines", Machine Learning 68, 2007: it
  * minimises the cross-entropy against Platt's smoothed targets, {@code (N+ + 1) / (N+ + 2)} for
  * positives and {@code 1 / (N- + 2)} for negatives,
  * <pre>  min_{a,b} Σ_i −t_i log p_i − (1 − t_i) log(1 − p_i),  p_i = 1 / (1 + exp(a f_i + b))</pre>

@@ -19,7 +19,7 @@ public record SvmConfig(double c, SvmLoss loss, double tolerance, int maxIterati
     public static final double DEFAULT_C = 1.0;
     public static final SvmLoss DEFAULT_LOSS = SvmLoss.SQUARED_HINGE;
     /**
-     * 0.1, as the reference dual solvers use: coordinate descent reaches a model that predicts as
+     * 0.1, the customary default of dual coordinate descent: it reaches a model that predicts as
      * well as the exact optimum long before the dual gradient is small.
      */
     public static final double DEFAULT_TOLERANCE = 0.1;
