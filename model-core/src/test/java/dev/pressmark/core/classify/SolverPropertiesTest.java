@@ -1,0 +1,235 @@
+package dev.pressmark.core.classify;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import dev.pressmark.core.feature.SparseMatrix;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Map;
+import java.util.SplittableRandom;
+import net.jqwik.api.ForAll;
+import net.jqwik.api.Property;
+import net.jqwik.api.constraints.DoubleRange;
+import net.jqwik.api.constraints.IntRange;
+
+/** Invariants of the dual solvers on small random sparse problems. */
+class SolverPropertiesTest {
+
+    /** {@code w} is updated incrementally; recomputing Σ y α x in another order differs by rounding. */
+    private static final double ROUNDING = 1e-9;
+    /** A solver tolerance at which the duality gap is far below {@link #GAP}. */
+    private static final double TIGHT = 1e-7;
+    /** Relative slack for the remaining duality gap and rounding. */
+    private static final double GAP = 1e-9;
+
+    @Property(tries = 100)
+    void hinge_duals_stay_in_their_box_and_define_the_weights(@ForAll long seed,
+            @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
+        Random problem = Random.problem(seed);
+        double[] cost = problem.costs(c);
+        double[] w = new double[problem.x.columns() + 1];
+        double[] alpha = new double[problem.x.rows()];
+
+        SvmSolver.solve(problem.x, problem.positive, cost, SvmConfig.defaults().withLoss(SvmLoss.HINGE),
+                new SplittableRandom(seed), w, alpha);
+
+        for (int i = 0; i < alpha.length; i++) {
+            assertThat(alpha[i]).isBetween(0.0, cost[i]);
+        }
+        assertWeightsAreTheDualCombination(problem, alpha, w, 1.0);
+    }
+
+    @Property(tries = 100)
+    void squared_hinge_duals_stay_non_negative_and_define_the_weights(@ForAll long seed,
+            @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
+        Random problem = Random.problem(seed);
+        double[] w = new double[problem.x.columns() + 1];
+        double[] alpha = new double[problem.x.rows()];
+
+        SvmSolver.solve(problem.x, problem.positive, problem.costs(c), SvmConfig.defaults(), new SplittableRandom(seed),
+                w, alpha);
+
+        for (double a : alpha) {
+            assertThat(a).isGreaterThanOrEqualTo(0.0);
+        }
+        assertWeightsAreTheDualCombination(problem, alpha, w, 1.0);
+    }
+
+    @Property(tries = 100)
+    void logistic_duals_stay_strictly_inside_their_box_and_define_the_weights(@ForAll long seed,
+            @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
+        Random problem = Random.problem(seed);
+        double[] cost = problem.costs(c);
+        double[] w = new double[problem.x.columns() + 1];
+        double[] alpha = new double[problem.x.rows()];
+
+        LogisticSolver.solve(problem.x, problem.positive, cost, LogisticConfig.defaults(), new SplittableRandom(seed),
+                w, alpha);
+
+        for (int i = 0; i < alpha.length; i++) {
+            assertThat(alpha[i]).isGreaterThan(0.0).isLessThan(cost[i]);
+        }
+        assertWeightsAreTheDualCombination(problem, alpha, w, 1.0);
+    }
+
+    /**
+     * A dual method promises nothing about the primal value of an early iterate (at the default
+     * tolerance a tiny problem whose optimum is w = 0 can end a hair above P(0)); at a tight
+     * tolerance the duality gap is negligible and the returned w must be no worse than 0.
+     */
+    @Property(tries = 100)
+    void the_trained_weights_are_no_worse_than_the_zero_vector(@ForAll long seed,
+            @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
+        Random problem = Random.problem(seed);
+        double[] cost = problem.costs(c);
+        double[] zero = new double[problem.x.columns() + 1];
+        for (SvmLoss loss : SvmLoss.values()) {
+            double[] w = new double[zero.length];
+            SvmSolver.solve(problem.x, problem.positive, cost, SvmConfig.defaults().withLoss(loss).withTolerance(TIGHT),
+                    new SplittableRandom(seed), w, new double[problem.x.rows()]);
+            double atZero = SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, loss, zero);
+            assertThat(SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, loss, w))
+                    .isLessThanOrEqualTo(atZero * (1.0 + GAP));
+        }
+        double[] w = new double[zero.length];
+        LogisticSolver.solve(problem.x, problem.positive, cost, LogisticConfig.defaults().withTolerance(TIGHT),
+                new SplittableRandom(seed), w, new double[problem.x.rows()]);
+        double atZero = LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, zero);
+        assertThat(LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, w))
+                .isLessThanOrEqualTo(atZero * (1.0 + GAP));
+    }
+
+    @Property(tries = 50)
+    void one_versus_rest_over_two_classes_agrees_with_the_binary_model(@ForAll long seed) {
+        Random problem = Random.problem(seed);
+        int[] labels = problem.labels();
+        double[] cost = problem.costs(1.0);
+        SvmConfig config = SvmConfig.defaults().withTolerance(1e-6);
+        SvmTrainer svm = new SvmTrainer(config);
+        LogisticTrainer logistic = new LogisticTrainer(LogisticConfig.defaults().withTolerance(1e-6));
+        List<SolverRun> runs = new ArrayList<>();
+
+        double[] binarySvm = svm.solve(problem.x, labels, new int[] {1}, cost, seed, runs)[0];
+        double[][] bothSvm = svm.solve(problem.x, labels, new int[] {0, 1}, cost, seed, runs);
+        double[] binaryLogistic = logistic.solve(problem.x, labels, new int[] {1}, cost, seed, runs)[0];
+        double[][] bothLogistic = logistic.solve(problem.x, labels, new int[] {0, 1}, cost, seed, runs);
+
+        // "0 against 1" draws the binary problem's random stream and is its mirror image: the
+        // dual updates are symmetric under y → −y, w → −w, and IEEE negation is exact.
+        assertThat(bothSvm[0]).containsExactly(negate(binarySvm));
+        assertThat(bothLogistic[0]).containsExactly(negate(binaryLogistic));
+        // "1 against 0" is the binary problem itself, solved in another random order: the same
+        // optimum, up to the tolerance.
+        boolean[] positive = problem.positive;
+        double svmOptimum = SvmSolver.primalObjective(problem.x, positive, cost, 1.0, config.loss(), binarySvm);
+        assertThat(SvmSolver.primalObjective(problem.x, positive, cost, 1.0, config.loss(), bothSvm[1]))
+                .isCloseTo(svmOptimum, within(1e-6 * svmOptimum));
+        double logisticOptimum = LogisticSolver.primalObjective(problem.x, positive, cost, 1.0, binaryLogistic);
+        assertThat(LogisticSolver.primalObjective(problem.x, positive, cost, 1.0, bothLogistic[1]))
+                .isCloseTo(logisticOptimum, within(1e-6 * logisticOptimum));
+    }
+
+    @Property(tries = 50)
+    void scaling_every_class_weight_by_a_power_of_two_equals_scaling_c(@ForAll long seed,
+            @ForAll @IntRange(min = -4, max = 4) int exponent, @ForAll @DoubleRange(min = 0.1, max = 4.0) double w0,
+            @ForAll @DoubleRange(min = 0.1, max = 4.0) double w1) {
+        Random problem = Random.problem(seed);
+        double k = Math.scalb(1.0, exponent);
+        int[] labels = problem.labels();
+
+        // A power of two makes c · (k · w) and (k · c) · w the same double, so both solves take
+        // identical steps and must return identical weights.
+        SvmModel weighted = new SvmTrainer(SvmConfig.defaults(), ClassWeights.of(Map.of(0, k * w0, 1, k * w1)))
+                .train(problem.x, labels, 2, seed);
+        SvmModel scaledC = new SvmTrainer(SvmConfig.defaults().withC(k), ClassWeights.of(Map.of(0, w0, 1, w1)))
+                .train(problem.x, labels, 2, seed);
+        LogisticModel weightedLogistic = new LogisticTrainer(LogisticConfig.defaults(),
+                ClassWeights.of(Map.of(0, k * w0, 1, k * w1))).train(problem.x, labels, 2, seed);
+        LogisticModel scaledCLogistic = new LogisticTrainer(LogisticConfig.defaults().withC(k),
+                ClassWeights.of(Map.of(0, w0, 1, w1))).train(problem.x, labels, 2, seed);
+
+        assertThat(weighted.weights().vector(0)).containsExactly(scaledC.weights().vector(0));
+        assertThat(weightedLogistic.weights().vector(0)).containsExactly(scaledCLogistic.weights().vector(0));
+    }
+
+    @Property(tries = 30)
+    void scaling_every_class_weight_by_any_factor_reaches_the_optimum_of_scaling_c(@ForAll long seed,
+            @ForAll @DoubleRange(min = 0.2, max = 5.0) double k) {
+        Random problem = Random.problem(seed);
+        int[] labels = problem.labels();
+        SvmConfig config = SvmConfig.defaults().withTolerance(1e-8);
+
+        SvmModel weighted = new SvmTrainer(config, ClassWeights.of(Map.of(0, k, 1, k))).train(problem.x, labels, 2, seed);
+        SvmModel scaledC = new SvmTrainer(config.withC(k)).train(problem.x, labels, 2, seed);
+
+        // Same objective up to the last bits of each cost, so the same optimum within the tolerance.
+        double[] cost = problem.costs(k);
+        double a = SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, config.loss(), weighted.weights().vector(0));
+        double b = SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, config.loss(), scaledC.weights().vector(0));
+        assertThat(a).isCloseTo(b, within(1e-8 * b));
+    }
+
+    private static void assertWeightsAreTheDualCombination(Random problem, double[] alpha, double[] w, double bias) {
+        double[] expected = new double[w.length];
+        for (int i = 0; i < alpha.length; i++) {
+            double scale = problem.positive[i] ? alpha[i] : -alpha[i];
+            problem.x.addScaledRow(i, scale, expected);
+            expected[problem.x.columns()] += scale * bias;
+        }
+        for (int j = 0; j < w.length; j++) {
+            assertThat(w[j]).isCloseTo(expected[j], within(ROUNDING * (1.0 + Math.abs(expected[j]))));
+        }
+    }
+
+    private static double[] negate(double[] w) {
+        double[] out = new double[w.length];
+        for (int j = 0; j < w.length; j++) {
+            out[j] = 0.0 - w[j]; // keeps an untouched +0.0 from becoming -0.0
+        }
+        return out;
+    }
+
+    /** A small random sparse binary problem: 2 to 40 rows, 1 to 15 columns, values in [-2, 2]. */
+    private record Random(SparseMatrix x, boolean[] positive) {
+
+        static Random problem(long seed) {
+            SplittableRandom random = new SplittableRandom(seed);
+            int rows = 2 + random.nextInt(39);
+            int columns = 1 + random.nextInt(15);
+            SparseMatrix.Builder builder = SparseMatrix.builder(columns);
+            boolean[] positive = new boolean[rows];
+            for (int i = 0; i < rows; i++) {
+                int[] cols = new int[columns];
+                double[] vals = new double[columns];
+                int n = 0;
+                for (int j = 0; j < columns; j++) {
+                    if (random.nextInt(3) == 0) {
+                        cols[n] = j;
+                        vals[n++] = random.nextDouble(-2.0, 2.0);
+                    }
+                }
+                builder.addRow(Arrays.copyOf(cols, n), Arrays.copyOf(vals, n));
+                positive[i] = random.nextBoolean();
+            }
+            positive[0] = true;
+            positive[1] = false;
+            return new Random(builder.build(), positive);
+        }
+
+        int[] labels() {
+            int[] labels = new int[positive.length];
+            for (int i = 0; i < labels.length; i++) {
+                labels[i] = positive[i] ? 1 : 0;
+            }
+            return labels;
+        }
+
+        double[] costs(double c) {
+            double[] cost = new double[positive.length];
+            Arrays.fill(cost, c);
+            return cost;
+        }
+    }
+}
