@@ -28,10 +28,10 @@ class VocabTrainCommandTest {
     @Test
     void writes_a_vocabulary_that_starts_with_the_special_tokens_and_encodes_its_corpus() throws IOException {
         Path out = dir.resolve("vocab.txt");
-        CommandRun run = CommandRun.of(dir, "", "vocab", "train", "--data", corpus().toString(), "--size", "60", "--out", out.toString());
+        CommandRun run = CommandRun.of(dir, "", "vocab", "train", "--data", corpus().toString(), "--size", "50", "--out", out.toString());
         assertThat(run.exitCode()).as(run.err()).isZero();
         WordPieceVocabulary vocabulary = WordPieceVocabulary.read(out);
-        assertThat(vocabulary.size()).isEqualTo(60);
+        assertThat(vocabulary.size()).isEqualTo(50);
         assertThat(vocabulary.tokens().subList(0, 5)).containsExactly("[PAD]", "[UNK]", "[CLS]", "[SEP]", "[MASK]");
         CommandRun encoded = CommandRun.of(dir, "Brassline valve 3\n", "vocab", "encode", "--vocab", out.toString());
         assertThat(encoded.out()).doesNotContain("[UNK]").contains("##");
