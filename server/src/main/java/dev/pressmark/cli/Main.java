@@ -15,7 +15,14 @@ import picocli.CommandLine.Option;
         mixinStandardHelpOptions = true,
         versionProvider = Main.Version.class,
         description = "Learn, evaluate, publish and serve short-text classifiers.",
-        subcommands = {VocabCommand.class, CommandLine.HelpCommand.class})
+        subcommands = {
+            TrainCommand.class,
+            EvaluateCommand.class,
+            InspectCommand.class,
+            PredictCommand.class,
+            ReportCommand.class,
+            VocabCommand.class,
+            CommandLine.HelpCommand.class})
 public final class Main {
 
     static final int EXIT_OK = 0;

@@ -7,6 +7,7 @@ import java.nio.file.AtomicMoveNotSupportedException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
+import java.nio.file.attribute.PosixFilePermissions;
 
 /**
  * Writes a file so that readers see either the old file or the complete new one: the content goes
@@ -30,6 +31,10 @@ public final class AtomicFiles {
         try {
             Files.createDirectories(absolute.getParent());
             temporary = Files.createTempFile(absolute.getParent(), "." + absolute.getFileName() + ".", ".tmp");
+            if (Files.getFileStore(temporary).supportsFileAttributeView("posix")) {
+                // Temporary files are private; the finished file gets the usual rw-r--r--.
+                Files.setPosixFilePermissions(temporary, PosixFilePermissions.fromString("rw-r--r--"));
+            }
             try (OutputStream out = Files.newOutputStream(temporary)) {
                 writer.write(out);
             }

@@ -60,6 +60,11 @@ public record LabelledData(
         return labels.size();
     }
 
+    /** Reads the text columns of {@code file} without labels, for prediction; every row is kept. */
+    public static LabelledData readTexts(Path file, List<String> textColumns) {
+        return read(file, textColumns, null, false);
+    }
+
     /** Reads {@code file}; errors name the file, and the line where one is at fault. */
     public static LabelledData read(Path file, List<String> textColumns, String labelColumn, boolean dropIncomplete) {
         byte[] bytes;
@@ -93,7 +98,7 @@ public record LabelledData(
         for (int i = 0; i < textIndex.length; i++) {
             textIndex[i] = column(header, textColumns.get(i), file);
         }
-        int labelIndex = column(header, labelColumn, file);
+        int labelIndex = labelColumn == null ? -1 : column(header, labelColumn, file);
 
         List<String[]> texts = new ArrayList<>();
         List<String> labels = new ArrayList<>();
@@ -104,14 +109,14 @@ public record LabelledData(
                 throw new PressmarkException("invalid-csv", file + ": line " + line + ": " + fields.size()
                         + " fields, but the header has " + header.size());
             }
-            String label = fields.get(labelIndex).strip();
+            String label = labelIndex < 0 ? "" : fields.get(labelIndex).strip();
             String[] row = new String[textIndex.length];
             boolean anyText = false;
             for (int i = 0; i < textIndex.length; i++) {
                 row[i] = fields.get(textIndex[i]);
                 anyText |= !row[i].isBlank();
             }
-            if (label.isEmpty() || !anyText) {
+            if (labelIndex >= 0 && (label.isEmpty() || !anyText)) {
                 if (!dropIncomplete) {
                     throw new PressmarkException("incomplete-row", file + ": line " + line + ": "
                             + (label.isEmpty() ? "no label in column \"" + labelColumn + "\"" : "no text in " + quoted(textColumns))

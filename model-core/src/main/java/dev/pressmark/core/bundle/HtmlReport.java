@@ -1,0 +1,215 @@
+package dev.pressmark.core.bundle;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import dev.pressmark.core.classify.LinearWeights;
+import dev.pressmark.core.feature.FeatureSpace;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+
+/**
+ * The HTML report of a bundle: one self-contained page (inline CSS and SVG, no script, nothing
+ * fetched) with the metrics, the confusion matrix as a heat map, the most positive and most
+ * negative features of each class, the per-fold spread of each metric, and the config and
+ * provenance. Everything comes from the bundle, so the report can be made again from it.
+ */
+public final class HtmlReport {
+
+    /** How many features per sign and class the bars show. */
+    public static final int TOP_FEATURES = 20;
+
+    private static final ObjectMapper PRETTY = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+
+    private HtmlReport() {
+    }
+
+    public static String render(Bundle bundle) {
+        JsonNode manifest = bundle.manifest();
+        StringBuilder html = new StringBuilder(32_768);
+        html.append("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">\n<title>")
+                .append(escape(bundle.name())).append(" — model report</title>\n<style>").append(CSS).append("</style></head><body>\n");
+        html.append("<h1>").append(escape(bundle.name())).append("</h1>\n<p class=\"sub\">created ")
+                .append(escape(manifest.path("created").asText())).append(" · ").append(bundle.labels().size()).append(" labels · ")
+                .append(manifest.path("training").path("train_rows").asInt()).append(" training rows, ")
+                .append(manifest.path("training").path("test_rows").asInt()).append(" test rows · ")
+                .append(escape(manifest.path("classifier").path("kind").asText())).append("</p>\n");
+        metricsTable(html, manifest.path("metrics"));
+        confusion(html, bundle.labels(), manifest.path("metrics").path("test_confusion").path("counts"));
+        foldSpread(html, manifest.path("metrics").path("cv"));
+        features(html, bundle);
+        html.append("<h2>Config and provenance</h2>\n<pre>").append(escape(pretty(manifest.path("provenance")))).append("</pre>\n");
+        html.append("</body></html>\n");
+        return html.toString();
+    }
+
+    private static void metricsTable(StringBuilder html, JsonNode metrics) {
+        html.append("<h2>Metrics</h2>\n<table class=\"metrics\"><thead><tr><th>metric</th><th>cross-validation (mean ± s.e.)</th><th>test</th></tr></thead><tbody>\n");
+        for (Map.Entry<String, JsonNode> metric : metrics.path("cv").properties()) {
+            html.append("<tr><td>").append(escape(metric.getKey().replace('_', ' '))).append("</td><td>")
+                    .append(format(metric.getValue().path("mean").asDouble())).append(" ± ")
+                    .append(format(metric.getValue().path("std_err").asDouble())).append("</td><td>")
+                    .append(format(metrics.path("test").path(metric.getKey()).asDouble(Double.NaN))).append("</td></tr>\n");
+        }
+        html.append("</tbody></table>\n");
+    }
+
+    private static void confusion(StringBuilder html, List<String> labels, JsonNode counts) {
+        int k = labels.size();
+        int cell = 56;
+        int left = 130;
+        int top = 30;
+        long max = 1;
+        for (JsonNode row : counts) {
+            for (JsonNode count : row) {
+                max = Math.max(max, count.asLong());
+            }
+        }
+        html.append("<h2>Confusion matrix (test part; rows truth, columns prediction)</h2>\n");
+        html.append(String.format(Locale.ROOT, "<svg class=\"chart\" role=\"img\" aria-label=\"confusion matrix\" width=\"%d\" height=\"%d\">%n",
+                left + cell * k + 10, top + cell * k + 10));
+        for (int p = 0; p < k; p++) {
+            html.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" class=\"axis\" text-anchor=\"middle\">%s</text>%n",
+                    left + cell * p + cell / 2, top - 8, escape(shorten(labels.get(p)))));
+        }
+        for (int t = 0; t < k; t++) {
+            html.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" class=\"axis\" text-anchor=\"end\">%s</text>%n",
+                    left - 8, top + cell * t + cell / 2 + 4, escape(shorten(labels.get(t)))));
+            for (int p = 0; p < k; p++) {
+                long count = counts.path(t).path(p).asLong();
+                double shade = (double) count / max;
+                html.append(String.format(Locale.ROOT,
+                        "<rect x=\"%d\" y=\"%d\" width=\"%d\" height=\"%d\" fill=\"%s\" fill-opacity=\"%.3f\" stroke=\"#8a8f98\" stroke-width=\"0.5\"/>"
+                                + "<text x=\"%d\" y=\"%d\" text-anchor=\"middle\" class=\"%s\">%d</text>%n",
+                        left + cell * p, top + cell * t, cell, cell, t == p ? "#2f6f5e" : "#a04a2c", 0.08 + 0.92 * shade,
+                        left + cell * p + cell / 2, top + cell * t + cell / 2 + 4, shade > 0.55 ? "count light" : "count", count));
+            }
+        }
+        html.append("</svg>\n");
+    }
+
+    private static void foldSpread(StringBuilder html, JsonNode cv) {
+        int width = 420;
+        int rowHeight = 22;
+        int left = 150;
+        List<Map.Entry<String, JsonNode>> metrics = new ArrayList<>(cv.properties());
+        html.append("<h2>Per-fold spread</h2>\n");
+        html.append(String.format(Locale.ROOT, "<svg class=\"chart\" role=\"img\" aria-label=\"per-fold values\" width=\"%d\" height=\"%d\">%n",
+                left + width + 20, rowHeight * metrics.size() + 30));
+        for (int tick = 0; tick <= 4; tick++) {
+            double x = left + width * tick / 4.0;
+            html.append(String.format(Locale.ROOT, "<line x1=\"%.1f\" y1=\"0\" x2=\"%.1f\" y2=\"%d\" class=\"grid\"/><text x=\"%.1f\" y=\"%d\" class=\"axis\" text-anchor=\"middle\">%.2f</text>%n",
+                    x, x, rowHeight * metrics.size(), x, rowHeight * metrics.size() + 16, tick / 4.0));
+        }
+        for (int m = 0; m < metrics.size(); m++) {
+            int y = m * rowHeight + rowHeight / 2;
+            html.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" class=\"axis\" text-anchor=\"end\">%s</text>%n",
+                    left - 8, y + 4, escape(metrics.get(m).getKey().replace('_', ' '))));
+            for (JsonNode value : metrics.get(m).getValue().path("per_fold")) {
+                double v = Math.max(-1, Math.min(1, value.asDouble()));
+                html.append(String.format(Locale.ROOT, "<circle cx=\"%.1f\" cy=\"%d\" r=\"3.5\" class=\"dot\"/>", left + width * Math.max(0, v), y));
+            }
+            double mean = metrics.get(m).getValue().path("mean").asDouble();
+            html.append(String.format(Locale.ROOT, "<line x1=\"%.1f\" y1=\"%d\" x2=\"%.1f\" y2=\"%d\" class=\"mean\"/>%n",
+                    left + width * Math.max(0, mean), y - 8, left + width * Math.max(0, mean), y + 8));
+        }
+        html.append("</svg>\n");
+    }
+
+    private static void features(StringBuilder html, Bundle bundle) {
+        LinearWeights weights = bundle.model().weights();
+        FeatureSpace space = bundle.pipeline().features();
+        html.append("<h2>Features with the largest weights</h2>\n<div class=\"bars\">\n");
+        for (int score = 0; score < weights.numScores(); score++) {
+            String label = weights.numScores() == 1 ? bundle.labels().get(1) : bundle.labels().get(score);
+            List<Integer> order = new ArrayList<>();
+            for (int j = 0; j < space.featureCount(); j++) {
+                order.add(j);
+            }
+            final int s = score;
+            order.sort(Comparator.comparingDouble((Integer j) -> -weights.weight(s, j)).thenComparing(space::featureName));
+            List<Integer> positive = order.subList(0, Math.min(TOP_FEATURES, order.size()));
+            List<Integer> negative = new ArrayList<>(order.subList(Math.max(0, order.size() - TOP_FEATURES), order.size()));
+            java.util.Collections.reverse(negative);
+            html.append("<section><h3>").append(escape(label)).append("</h3>\n");
+            bars(html, "towards " + label, positive, weights, s, space);
+            bars(html, "away from " + label, negative, weights, s, space);
+            html.append("</section>\n");
+        }
+        html.append("</div>\n");
+    }
+
+    private static void bars(StringBuilder html, String title, List<Integer> features, LinearWeights weights, int score, FeatureSpace space) {
+        double max = 1e-12;
+        for (int j : features) {
+            max = Math.max(max, Math.abs(weights.weight(score, j)));
+        }
+        int left = 170;
+        int width = 200;
+        int row = 16;
+        html.append("<p class=\"bar-title\">").append(escape(title)).append("</p>\n");
+        html.append(String.format(Locale.ROOT, "<svg class=\"chart\" role=\"img\" aria-label=\"%s\" width=\"%d\" height=\"%d\">%n",
+                escape(title), left + width + 70, row * features.size() + 4));
+        for (int i = 0; i < features.size(); i++) {
+            int j = features.get(i);
+            double w = weights.weight(score, j);
+            double length = width * Math.abs(w) / max;
+            html.append(String.format(Locale.ROOT,
+                    "<text x=\"%d\" y=\"%d\" class=\"axis\" text-anchor=\"end\">%s</text><rect x=\"%d\" y=\"%d\" width=\"%.1f\" height=\"%d\" class=\"%s\"/>"
+                            + "<text x=\"%.1f\" y=\"%d\" class=\"axis\">%s</text>%n",
+                    left - 6, i * row + 12, escape(shorten(space.featureName(j))), left, i * row + 3, length, row - 4,
+                    w >= 0 ? "pos" : "neg", left + length + 4, i * row + 12, format(w)));
+        }
+        html.append("</svg>\n");
+    }
+
+    private static String pretty(JsonNode node) {
+        try {
+            return PRETTY.writeValueAsString(node);
+        } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
+            return node.toString();
+        }
+    }
+
+    private static String format(double value) {
+        return Double.isNaN(value) ? "–" : String.format(Locale.ROOT, "%.3f", value);
+    }
+
+    private static String shorten(String text) {
+        return text.length() <= 24 ? text : text.substring(0, 23) + "…";
+    }
+
+    static String escape(String text) {
+        StringBuilder out = new StringBuilder(text.length());
+        for (int i = 0; i < text.length(); i++) {
+            char c = text.charAt(i);
+            switch (c) {
+                case '<' -> out.append("&lt;");
+                case '>' -> out.append("&gt;");
+                case '&' -> out.append("&amp;");
+                case '"' -> out.append("&quot;");
+                case '\'' -> out.append("&#39;");
+                default -> out.append(c);
+            }
+        }
+        return out.toString();
+    }
+
+    private static final String CSS = """
+            body{font:14px/1.45 system-ui,sans-serif;color:#1d2430;max-width:1100px;margin:2rem auto;padding:0 1rem}
+            h1{font-size:1.6rem;margin:0}.sub{color:#5b6472;margin-top:.2rem}
+            h2{font-size:1.15rem;border-bottom:1px solid #d5d9df;padding-bottom:.2rem;margin-top:2rem}
+            h3{font-size:1rem;margin:.4rem 0}
+            table.metrics{border-collapse:collapse}table.metrics td,table.metrics th{padding:.25rem .8rem;border-bottom:1px solid #e4e7eb;text-align:left}
+            table.metrics td:nth-child(n+2){font-variant-numeric:tabular-nums}
+            .chart text{font:11px system-ui,sans-serif;fill:#333}.count{font-weight:600}.count.light{fill:#fff}
+            .grid{stroke:#e4e7eb}.dot{fill:#3d5a80;fill-opacity:.7}.mean{stroke:#1d2430;stroke-width:2}
+            .pos{fill:#2f6f5e}.neg{fill:#a04a2c}.bar-title{margin:.3rem 0 0;color:#5b6472}
+            .bars{display:flex;flex-wrap:wrap;gap:1.5rem}section{break-inside:avoid}
+            pre{background:#f4f5f7;padding:.8rem;overflow:auto;font-size:12px}
+            @media print{body{margin:0;max-width:none}h2{break-after:avoid}svg{break-inside:avoid}}
+            """;
+}

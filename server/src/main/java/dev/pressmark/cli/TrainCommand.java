@@ -1,0 +1,83 @@
+package dev.pressmark.cli;
+
+import dev.pressmark.core.PressmarkException;
+import dev.pressmark.core.bundle.Bundle;
+import dev.pressmark.core.bundle.HtmlReport;
+import dev.pressmark.core.evaluate.MetricSummary;
+import dev.pressmark.core.io.AtomicFiles;
+import dev.pressmark.core.train.BundleAssembler;
+import dev.pressmark.core.train.LabelledData;
+import dev.pressmark.core.train.TrainConfig;
+import dev.pressmark.core.train.TrainingRun;
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Instant;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+
+/** {@code pressmark train}: train, cross-validate, test, and write a bundle and its report. */
+@Command(
+        name = "train",
+        mixinStandardHelpOptions = true,
+        description = {
+            "Train a classifier from a labelled CSV as train.yaml says: cross-validate on the training part,",
+            "test once on the held-out part, and write the bundle FILE and its report FILE.html.",
+            "The bundle's created time is SOURCE_DATE_EPOCH when set, else the data file's modification time,",
+            "so the same config on the same data gives the same bytes."
+        })
+final class TrainCommand implements Callable<Integer> {
+
+    @Option(names = "--config", required = true, paramLabel = "FILE", description = "The training config (YAML).")
+    Path config;
+
+    @Option(names = "--out", paramLabel = "FILE", description = "The bundle to write (default: <name>.pmb beside the config).")
+    Path out;
+
+    @Override
+    public Integer call() throws IOException {
+        TrainConfig trainConfig = TrainConfig.read(config);
+        Path dataFile = Path.of(trainConfig.data().file());
+        LabelledData data = LabelledData.read(dataFile, trainConfig.data().text(), trainConfig.data().label(),
+                trainConfig.data().dropIncomplete());
+        System.err.printf(Locale.ROOT, "pressmark: %s: %,d rows%s%n", dataFile, data.rows(),
+                data.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", data.droppedRows()) : "");
+        TrainingRun run = new TrainingRun(trainConfig, data);
+        if (run.positiveClass() >= 0) {
+            System.err.println("pressmark: positive class for binary metrics: " + run.labels().get(run.positiveClass()));
+        }
+        TrainingRun.Result result = run.run(new ConsoleProgress(System.err));
+        byte[] bundle = BundleAssembler.assemble(trainConfig, data, result, created(dataFile));
+        Path target = out != null ? out : config.toAbsolutePath().getParent().resolve(trainConfig.name() + ".pmb");
+        Path report = target.resolveSibling(target.getFileName() + ".html");
+        String html = HtmlReport.render(Bundle.read(bundle));
+        AtomicFiles.write(target, stream -> stream.write(bundle));
+        AtomicFiles.write(report, stream -> stream.write(html.getBytes(StandardCharsets.UTF_8)));
+        printSummary(result);
+        System.err.println("pressmark: wrote " + target + " and " + report);
+        return Main.EXIT_OK;
+    }
+
+    private static Instant created(Path dataFile) throws IOException {
+        String epoch = System.getenv("SOURCE_DATE_EPOCH");
+        if (epoch != null && !epoch.isBlank()) {
+            try {
+                return Instant.ofEpochSecond(Long.parseLong(epoch.strip()));
+            } catch (NumberFormatException e) {
+                throw new PressmarkException("invalid-environment", "SOURCE_DATE_EPOCH must be seconds since 1970, was \"" + epoch + "\"");
+            }
+        }
+        return Files.getLastModifiedTime(dataFile).toInstant().truncatedTo(java.time.temporal.ChronoUnit.SECONDS);
+    }
+
+    private static void printSummary(TrainingRun.Result result) {
+        System.out.printf(Locale.ROOT, "%-18s %-22s %s%n", "metric", "cross-validation", "test");
+        for (MetricSummary summary : result.cv().metrics()) {
+            double test = result.test().overall().has(summary.metric()) ? result.test().overall().get(summary.metric()) : Double.NaN;
+            System.out.printf(Locale.ROOT, "%-18s %.3f ± %-14.3f %.3f%n", summary.metric().key(), summary.mean(), summary.standardError(), test);
+        }
+    }
+}

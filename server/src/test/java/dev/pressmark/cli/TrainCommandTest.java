@@ -1,0 +1,74 @@
+package dev.pressmark.cli;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import dev.pressmark.demo.ListingTitles;
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+class TrainCommandTest {
+
+    @TempDir
+    Path dir;
+
+    @BeforeEach
+    void writeDataAndConfig() throws IOException {
+        StringBuilder csv = new StringBuilder("title,department\n");
+        for (ListingTitles.Listing listing : ListingTitles.generate(1200, 3)) {
+            csv.append('"').append(listing.title().replace("\"", "\"\"")).append("\",").append(listing.department()).append('\n');
+        }
+        Files.writeString(dir.resolve("listings.csv"), csv);
+        Files.writeString(dir.resolve("train.yaml"), """
+                name: routing
+                data: {file: listings.csv, text: [title], label: department}
+                tokenizer: {vocab_size: 400}
+                evaluation: {folds: 3, threads: 2}
+                """);
+    }
+
+    @Test
+    void trains_a_bundle_and_its_report_and_prints_the_metric_table() throws IOException {
+        CommandRun run = CommandRun.of(dir, "", "train", "--config", "train.yaml");
+        assertThat(run.exitCode()).as(run.err()).isZero();
+        assertThat(run.out()).startsWith("metric").contains("accuracy", "balanced_accuracy", "roc_auc");
+        assertThat(dir.resolve("routing.pmb")).isRegularFile();
+        String html = Files.readString(dir.resolve("routing.pmb.html"));
+        assertThat(html).startsWith("<!DOCTYPE html>").contains("<svg", "Confusion matrix").doesNotContain("<script", "http://", "https://");
+    }
+
+    @Test
+    void the_bundle_predicts_inspects_and_reports_from_the_command_line() {
+        assertThat(CommandRun.of(dir, "", "train", "--config", "train.yaml", "--out", "m.pmb").exitCode()).isZero();
+        CommandRun predicted = CommandRun.of(dir, "", "predict", "m.pmb", "Aquaward ball valve 3/4in", "--format", "json");
+        assertThat(predicted.exitCode()).as(predicted.err()).isZero();
+        assertThat(predicted.out()).contains("\"label\" : \"plumbing\"", "probabilities");
+        CommandRun inspected = CommandRun.of(dir, "", "inspect", "m.pmb", "--json");
+        assertThat(inspected.out()).contains("\"test\"", "\"cv\"", "\"std_err\"", "\"data_sha256\"");
+        assertThat(CommandRun.of(dir, "", "report", "m.pmb", "--out", "again.html").exitCode()).isZero();
+        assertThat(dir.resolve("again.html")).isRegularFile();
+    }
+
+    @Test
+    void an_unknown_config_key_fails_with_the_line_and_writes_nothing() throws IOException {
+        Files.writeString(dir.resolve("bad.yaml"), "name: routing\nfeatures:\n  max_tokenz: 10\n");
+        CommandRun run = CommandRun.of(dir, "", "train", "--config", "bad.yaml");
+        assertThat(run.exitCode()).isEqualTo(1);
+        assertThat(run.err()).startsWith("pressmark: bad.yaml: line 3: unknown key \"features.max_tokenz\"");
+        assertThat(dir.resolve("routing.pmb")).doesNotExist();
+    }
+
+    @Test
+    void a_corrupted_bundle_is_refused_naming_the_checksum() throws IOException {
+        assertThat(CommandRun.of(dir, "", "train", "--config", "train.yaml", "--out", "m.pmb").exitCode()).isZero();
+        byte[] bytes = Files.readAllBytes(dir.resolve("m.pmb"));
+        bytes[bytes.length / 2] ^= 0x01;
+        Files.write(dir.resolve("bad.pmb"), bytes);
+        CommandRun run = CommandRun.of(dir, "", "inspect", "bad.pmb");
+        assertThat(run.exitCode()).isEqualTo(1);
+        assertThat(run.err()).startsWith("pressmark: ").doesNotContain("Exception");
+    }
+}
