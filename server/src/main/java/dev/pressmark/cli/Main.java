@@ -15,7 +15,8 @@ import picocli.CommandLine.Option;
         mixinStandardHelpOptions = true,
         versionProvider = Main.Version.class,
         description = "Learn, evaluate, publish and serve short-text classifiers.",
-        subcommands = {VocabCommand.class, CommandLine.HelpCommand.class})
+        subcommands = {VocabCommand.class, PublishCommand.class, VersionsCommand.class, ActivateCommand.class, RollbackCommand.class,
+            VerifyCommand.class, HistoryCommand.class, CommandLine.HelpCommand.class})
 public final class Main {
 
     static final int EXIT_OK = 0;

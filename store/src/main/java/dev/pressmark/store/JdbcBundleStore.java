@@ -66,7 +66,8 @@ final class JdbcBundleStore implements BundleStore {
         try {
             contents = BundleArchive.read(bundle);
         } catch (BundleException e) {
-            throw new StoreException(StoreException.NOT_A_BUNDLE, "not a valid bundle: " + e.getMessage(), e);
+            String message = e.getMessage().startsWith("not a bundle") ? e.getMessage() : "not a valid bundle: " + e.getMessage();
+            throw new StoreException(StoreException.NOT_A_BUNDLE, message, e);
         }
         String sha256 = Sha256.hex(bundle);
         String manifest = contents.manifestJson();
