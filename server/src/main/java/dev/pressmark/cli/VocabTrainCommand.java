@@ -31,7 +31,7 @@ final class VocabTrainCommand implements Callable<Integer> {
     Path out;
 
     @Option(names = "--min-frequency", paramLabel = "K", defaultValue = "" + WordPieceTrainer.Config.DEFAULT_MIN_FREQUENCY,
-            description = "Merge only pairs that occur at least K times (default: ${DEFAULT-VALUE}).")
+            description = "The final frequency floor: merge only pairs that occur at least K times (default: ${DEFAULT-VALUE}).")
     long minFrequency;
 
     @Option(names = "--max-word-chars", paramLabel = "N", defaultValue = "" + WordPieceTrainer.Config.DEFAULT_MAX_WORD_CHARS,

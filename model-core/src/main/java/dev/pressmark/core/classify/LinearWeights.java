@@ -93,6 +93,11 @@ public final class LinearWeights {
         return w[score][Objects.checkIndex(feature, numFeatures)];
     }
 
+    /** The weight of the constant bias feature in {@code score}. */
+    public double biasWeight(int score) {
+        return w[score][numFeatures];
+    }
+
     /** A copy of the feature weights of {@code score}. */
     public double[] featureWeights(int score) {
         return Arrays.copyOf(w[score], numFeatures);

@@ -7,14 +7,20 @@ import java.util.Map;
 
 /**
  * The merge loop of {@link WordPieceTrainer}: the word table as integer symbols, the count of
- * every adjacent symbol pair, and a queue that yields the pair of highest likelihood score
- * {@code count(ab) / (count(a) * count(b))}. Symbol ids are vocabulary ids.
+ * every adjacent symbol pair, and a queue that yields, among the pairs whose count reaches the
+ * current frequency floor, the pair of highest likelihood score {@code count(ab) / (count(a) *
+ * count(b))}. Symbol ids are vocabulary ids.
  *
  * <p>Each merge touches only the words that hold the merged pair, found through a per-pair word
  * index. Merging (a, b) changes count(a) and count(b), and with them the score of every pair that
  * contains a or b, in either direction; each symbol keeps the list of pairs it takes part in, and
  * those pairs are queued again with fresh scores. Entries that a later change outdates are skipped
  * when popped (see {@link PairQueue}), and the queue is rebuilt when stale entries dominate.
+ *
+ * <p>The queue holds a current entry for every pair whose count reaches the floor, and for no
+ * other: a requeued pair below the floor is left out, and the floor only falls. When the queue runs
+ * dry, the floor falls as the {@link WordPieceTrainer.FloorSchedule} says until the largest live
+ * pair count reaches it, and the queue is rebuilt from every live pair at or above the new floor.
  *
  * <p>Not thread-safe; one instance per training run.
  */
@@ -32,6 +38,8 @@ final class LikelihoodMerger {
     private final List<String> tokens;
     private final Map<String, Integer> tokenIds;
     private final long minFrequency;
+    private final WordPieceTrainer.FloorSchedule schedule;
+    private long floor;
 
     // Word w is symbols[wordStart[w], wordStart[w] + wordLength[w]), seen wordCount[w] times.
     private final int[] symbols;
@@ -65,13 +73,14 @@ final class LikelihoodMerger {
      * {@code symbols} and receives each new token.
      */
     LikelihoodMerger(List<String> tokens, int[] symbols, int[] wordStart, int[] wordLength, long[] wordCount,
-            long minFrequency, int minQueueBeforeRebuild) {
+            long minFrequency, WordPieceTrainer.FloorSchedule schedule, int minQueueBeforeRebuild) {
         this.tokens = tokens;
         this.tokenIds = new HashMap<>(tokens.size() * 4);
         for (int id = 0; id < tokens.size(); id++) {
             tokenIds.put(tokens.get(id), id);
         }
         this.minFrequency = minFrequency;
+        this.schedule = schedule;
         this.minQueueBeforeRebuild = minQueueBeforeRebuild;
         this.symbols = symbols;
         this.wordStart = wordStart;
@@ -96,32 +105,70 @@ final class LikelihoodMerger {
         pairWordSize = new int[pairCapacity];
 
         countInitialPairs();
-        queue = new PairQueue(pairs, this::compareTies);
         for (int p = 0; p < pairs; p++) {
             list(p);
-            if (pairCount[p] >= minFrequency) {
+        }
+        floor = schedule.first(largestPairCount(), minFrequency);
+        queue = new PairQueue(16, this::compareTies);
+        fillQueue();
+    }
+
+    /**
+     * Merges, everywhere it occurs, the best pair whose count reaches the floor, lowering the floor
+     * first when no pair does. Returns false, changing nothing, when no pair reaches {@code
+     * minFrequency}.
+     */
+    boolean mergeBest() {
+        while (true) {
+            while (!queue.isEmpty()) {
+                int p = queue.topPair();
+                int version = queue.topVersion();
+                queue.pop();
+                if (version == pairVersion[p] && pairCount[p] >= floor) {
+                    merge(p);
+                    return true;
+                }
+            }
+            if (!lowerFloor()) {
+                return false;
+            }
+        }
+    }
+
+    /**
+     * Lowers the floor along the schedule until the largest live pair count reaches it, and queues
+     * every pair that now qualifies; false when even {@code minFrequency} is out of reach.
+     */
+    private boolean lowerFloor() {
+        long largest = largestPairCount();
+        while (floor > largest && floor > minFrequency) {
+            floor = schedule.next(floor, minFrequency);
+        }
+        if (largest < floor) {
+            return false;
+        }
+        queue.clear();
+        fillQueue();
+        return true;
+    }
+
+    private long largestPairCount() {
+        long largest = 0;
+        for (int p = 0; p < pairs; p++) {
+            largest = Math.max(largest, pairCount[p]);
+        }
+        return largest;
+    }
+
+    /** Appends a current entry for every pair at or above the floor to the (empty) queue. */
+    private void fillQueue() {
+        for (int p = 0; p < pairs; p++) {
+            if (pairCount[p] >= floor) {
                 queue.append(p, pairVersion[p], score(p), pairCount[p]);
             }
         }
         queue.heapify();
         queueRebuildSize = Math.max(minQueueBeforeRebuild, QUEUE_GROWTH_BEFORE_REBUILD * queue.size());
-    }
-
-    /**
-     * Merges the best pair that occurs at least {@code minFrequency} times, everywhere it occurs.
-     * Returns false, changing nothing, when no pair qualifies.
-     */
-    boolean mergeBest() {
-        while (!queue.isEmpty()) {
-            int p = queue.topPair();
-            int version = queue.topVersion();
-            queue.pop();
-            if (version == pairVersion[p]) {
-                merge(p);
-                return true;
-            }
-        }
-        return false;
     }
 
     private void countInitialPairs() {
@@ -247,7 +294,7 @@ final class LikelihoodMerger {
             if (pairRequeued[q] != merges) {
                 pairRequeued[q] = merges;
                 pairVersion[q]++;
-                if (live && pairCount[q] >= minFrequency) {
+                if (live && pairCount[q] >= floor) {
                     queue.push(q, pairVersion[q], score(q), pairCount[q]);
                 }
             }

@@ -78,6 +78,11 @@ final class PairQueue {
         size++;
     }
 
+    /** Drops every entry, keeping the storage. */
+    void clear() {
+        size = 0;
+    }
+
     void pop() {
         size--;
         if (size > 0) {

@@ -24,8 +24,7 @@ import org.openjdk.jmh.annotations.Warmup;
  * synthetic problem of {@link LiblinearSyntheticTest}: 2,000 rows, 5,000 columns, 20 non-zeros a
  * row, c 1, bias 1. The reference's input is built once, outside the measurement.
  *
- * <pre>mvn -pl model-core -Pbench -DskipTests test-compile exec:exec -Djmh.args="SolverBenchmark"</pre>
- * ({@code -DskipTests} keeps the profile's exec settings away from the corpus fetch.)
+ * <pre>mvn -q -B -pl model-core -Pbench test-compile exec:exec -Djmh.args="SolverBenchmark"</pre>
  */
 @State(Scope.Benchmark)
 @BenchmarkMode(Mode.AverageTime)

@@ -12,8 +12,9 @@ import java.util.TreeSet;
 /**
  * A slow, obviously correct WordPiece trainer to test {@link WordPieceTrainer} against: every
  * merge recounts every symbol and every pair of the whole word table from scratch and scans all
- * pairs for the best one. Same rules as the trainer's Javadoc, written independently: strings
- * instead of ids, no index, no queue.
+ * pairs for the best one at or above the frequency floor, lowering the floor one step at a time
+ * while none qualifies. Same rules as the trainer's Javadoc, written independently: strings
+ * instead of ids, no index, no queue, no jump to the largest count.
  */
 final class NaiveWordPieceTrainer {
 
@@ -47,11 +48,18 @@ final class NaiveWordPieceTrainer {
         return tokens;
     }
 
-    static Result train(Map<String, Long> words, int vocabSize, long minFrequency, int maxWordChars) {
+    /**
+     * Trains with a floor that starts at the largest initial pair count, capped at {@code
+     * maxFirstFloor}, and falls to {@code floor(F * factor)} (by one at least) down to {@code
+     * minFrequency} whenever no pair reaches it.
+     */
+    static Result train(Map<String, Long> words, int vocabSize, long minFrequency, int maxWordChars,
+            long maxFirstFloor, double factor) {
         List<String> tokens = initialVocabulary(words, maxWordChars);
         Set<String> present = new HashSet<>(tokens);
         List<Word> table = split(trainable(words, maxWordChars));
         int reused = 0;
+        long floor = -1;
         while (tokens.size() < vocabSize) {
             Map<String, Long> symbolCounts = new HashMap<>();
             Map<Pair, Long> pairCounts = new HashMap<>();
@@ -64,24 +72,17 @@ final class NaiveWordPieceTrainer {
                     }
                 }
             }
-            Pair best = null;
-            double bestScore = 0;
-            long bestCount = 0;
-            for (Map.Entry<Pair, Long> entry : pairCounts.entrySet()) {
-                Pair pair = entry.getKey();
-                long count = entry.getValue();
-                if (count < minFrequency) {
-                    continue;
+            if (floor < 0) {
+                long largest = 0;
+                for (long count : pairCounts.values()) {
+                    largest = Math.max(largest, count);
                 }
-                double score = (double) count
-                        / ((double) symbolCounts.get(pair.left()) * (double) symbolCounts.get(pair.right()));
-                if (best == null || score > bestScore
-                        || score == bestScore && (count > bestCount
-                                || count == bestCount && isBeforeOnTie(pair, best))) {
-                    best = pair;
-                    bestScore = score;
-                    bestCount = count;
-                }
+                floor = Math.max(minFrequency, Math.min(largest, maxFirstFloor));
+            }
+            Pair best = best(pairCounts, symbolCounts, floor);
+            while (best == null && floor > minFrequency) {
+                floor = Math.max(minFrequency, Math.min(floor - 1, (long) Math.floor(floor * factor)));
+                best = best(pairCounts, symbolCounts, floor);
             }
             if (best == null) {
                 break;
@@ -109,6 +110,30 @@ final class NaiveWordPieceTrainer {
             }
         }
         return new Result(tokens, reused);
+    }
+
+    /** The best pair whose count is at least {@code floor}, or null. */
+    private static Pair best(Map<Pair, Long> pairCounts, Map<String, Long> symbolCounts, long floor) {
+        Pair best = null;
+        double bestScore = 0;
+        long bestCount = 0;
+        for (Map.Entry<Pair, Long> entry : pairCounts.entrySet()) {
+            Pair pair = entry.getKey();
+            long count = entry.getValue();
+            if (count < floor) {
+                continue;
+            }
+            double score = (double) count
+                    / ((double) symbolCounts.get(pair.left()) * (double) symbolCounts.get(pair.right()));
+            if (best == null || score > bestScore
+                    || score == bestScore && (count > bestCount
+                            || count == bestCount && isBeforeOnTie(pair, best))) {
+                best = pair;
+                bestScore = score;
+                bestCount = count;
+            }
+        }
+        return best;
     }
 
     private static boolean isBeforeOnTie(Pair pair, Pair other) {

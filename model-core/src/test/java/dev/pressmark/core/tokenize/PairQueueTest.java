@@ -57,6 +57,28 @@ class PairQueueTest {
         assertThat(drain(heapified, entries)).isEqualTo(sorted);
     }
 
+    @Property(tries = 100)
+    void holds_only_what_is_added_after_a_clear(
+            @ForAll @Size(max = 300) List<@IntRange(min = 0, max = 1000) Integer> seeds) {
+        List<Entry> entries = entries(seeds);
+        PairQueue queue = new PairQueue(1, Integer::compare);
+        for (Entry e : entries) {
+            queue.push(e.pair(), e.version(), e.score(), e.count());
+        }
+        queue.clear();
+        assertThat(queue.isEmpty()).isTrue();
+        List<Entry> kept = new ArrayList<>();
+        for (int i = 0; i < entries.size(); i += 2) {
+            Entry e = entries.get(i);
+            queue.append(e.pair(), e.version(), e.score(), e.count());
+            kept.add(e);
+        }
+        queue.heapify();
+        kept.sort(ORDER);
+
+        assertThat(drain(queue, entries)).isEqualTo(kept);
+    }
+
     @Property(tries = 200)
     void keeps_only_live_entries_in_order_after_a_rebuild(
             @ForAll @Size(max = 300) List<@IntRange(min = 0, max = 1000) Integer> seeds) {

@@ -24,7 +24,8 @@ class WordPieceTrainerPropertiesTest {
     /** Small alphabet so that pairs repeat and ties are common; two non-ASCII letters and U+1D49C. */
     private static final List<String> LETTERS = List.of("a", "b", "c", "d", "é", "ß", "\uD835\uDC9C");
 
-    record Corpus(Map<String, Long> words, int extraTokens, long minFrequency, int maxWordChars) {
+    record Corpus(Map<String, Long> words, int extraTokens, long minFrequency, int maxWordChars,
+            WordPieceTrainer.FloorSchedule schedule) {
 
         WordCounts counts() {
             WordCounts counts = new WordCounts(TextNormalizer.DEFAULT);
@@ -40,8 +41,17 @@ class WordPieceTrainerPropertiesTest {
             return initialVocabulary().size() + extraTokens;
         }
 
+        WordPieceTrainer.Config config() {
+            return new WordPieceTrainer.Config(vocabSize(), minFrequency, maxWordChars);
+        }
+
         WordPieceTrainer trainer() {
-            return new WordPieceTrainer(new WordPieceTrainer.Config(vocabSize(), minFrequency, maxWordChars));
+            return new WordPieceTrainer(config(), schedule);
+        }
+
+        NaiveWordPieceTrainer.Result naive() {
+            return NaiveWordPieceTrainer.train(words, vocabSize(), minFrequency, maxWordChars,
+                    schedule.maxFirstFloor(), schedule.factor());
         }
     }
 
@@ -64,8 +74,18 @@ class WordPieceTrainerPropertiesTest {
                 Arbitraries.maps(word, count).ofMinSize(1).ofMaxSize(maxWords),
                 Arbitraries.integers().between(0, maxExtraTokens),
                 Arbitraries.longs().between(1, 4),
-                Arbitraries.integers().between(1, maxLetters + 1))
+                Arbitraries.integers().between(1, maxLetters + 1),
+                schedules())
                 .as(Corpus::new);
+    }
+
+    /** The default, the fixed floor, and random starts and steps, coarse to very fine. */
+    private static Arbitrary<WordPieceTrainer.FloorSchedule> schedules() {
+        Arbitrary<Long> maxFirstFloor = Arbitraries.oneOf(Arbitraries.just(Long.MAX_VALUE), Arbitraries.just(1L),
+                Arbitraries.longs().between(1, 2_000_000));
+        Arbitrary<Double> factor = Arbitraries.oneOf(Arbitraries.of(0.5, 0.75, 0.9,
+                WordPieceTrainer.FloorSchedule.DEFAULT_FACTOR), Arbitraries.doubles().between(0.01, 0.999).ofScale(3));
+        return Combinators.combine(maxFirstFloor, factor).as(WordPieceTrainer.FloorSchedule::new);
     }
 
     @Property(tries = 400)
@@ -85,12 +105,10 @@ class WordPieceTrainerPropertiesTest {
         if (corpus.initialVocabulary().size() == WordPieceVocabulary.SPECIAL_TOKENS.size()) {
             return;
         }
-        NaiveWordPieceTrainer.Result expected = NaiveWordPieceTrainer.train(
-                corpus.words(), corpus.vocabSize(), corpus.minFrequency(), corpus.maxWordChars());
-        WordPieceTrainer.Config config = new WordPieceTrainer.Config(
-                corpus.vocabSize(), corpus.minFrequency(), corpus.maxWordChars());
+        NaiveWordPieceTrainer.Result expected = corpus.naive();
 
-        WordPieceVocabulary actual = new WordPieceTrainer(config, 1).train(corpus.counts(), Progress.NONE);
+        WordPieceVocabulary actual = new WordPieceTrainer(corpus.config(), corpus.schedule(), 1)
+                .train(corpus.counts(), Progress.NONE);
 
         assertThat(actual.tokens()).isEqualTo(expected.tokens());
     }
@@ -103,14 +121,35 @@ class WordPieceTrainerPropertiesTest {
                     .extracting(e -> ((PressmarkException) e).code()).isEqualTo("empty-corpus");
             return;
         }
-        NaiveWordPieceTrainer.Result expected = NaiveWordPieceTrainer.train(
-                corpus.words(), corpus.vocabSize(), corpus.minFrequency(), corpus.maxWordChars());
+        NaiveWordPieceTrainer.Result expected = corpus.naive();
 
         WordPieceVocabulary actual = corpus.trainer().train(corpus.counts(), Progress.NONE);
 
         assertThat(actual.tokens()).isEqualTo(expected.tokens());
         Statistics.label("stopped before the size").collect(expected.tokens().size() < corpus.vocabSize());
         Statistics.label("stopped before the size").coverage(checker -> checker.check(true).count(n -> n > 0));
+    }
+
+    @Property(tries = 100)
+    void a_smaller_vocabulary_is_the_start_of_a_larger_one(
+            @ForAll("largerCorpora") Corpus corpus, @ForAll("fewerTokens") int fewer) {
+        if (corpus.initialVocabulary().size() == WordPieceVocabulary.SPECIAL_TOKENS.size()) {
+            return;
+        }
+        WordPieceVocabulary larger = corpus.trainer().train(corpus.counts(), Progress.NONE);
+        int size = Math.max(corpus.initialVocabulary().size(), larger.size() - fewer);
+        WordPieceTrainer.Config smaller = new WordPieceTrainer.Config(
+                size, corpus.minFrequency(), corpus.maxWordChars());
+
+        WordPieceVocabulary vocabulary = new WordPieceTrainer(smaller, corpus.schedule())
+                .train(corpus.counts(), Progress.NONE);
+
+        assertThat(vocabulary.tokens()).isEqualTo(larger.tokens().subList(0, size));
+    }
+
+    @Provide
+    Arbitrary<Integer> fewerTokens() {
+        return Arbitraries.integers().between(1, 60);
     }
 
     @Property(tries = 200)

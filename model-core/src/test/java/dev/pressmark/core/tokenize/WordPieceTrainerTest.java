@@ -32,8 +32,21 @@ class WordPieceTrainerTest {
         return counts;
     }
 
+    /**
+     * The floor pinned at min_frequency from the first merge: the rule as the course describes it,
+     * one fixed threshold and the best score among all pairs above it.
+     */
+    private static final WordPieceTrainer.FloorSchedule FIXED_FLOOR =
+            new WordPieceTrainer.FloorSchedule(1, WordPieceTrainer.FloorSchedule.DEFAULT_FACTOR);
+
+    /** Trains under the fixed floor, which the published examples below follow. */
     private static WordPieceVocabulary train(WordCounts counts, int vocabSize, long minFrequency) {
-        return new WordPieceTrainer(new WordPieceTrainer.Config(vocabSize, minFrequency, 100))
+        return train(counts, vocabSize, minFrequency, FIXED_FLOOR);
+    }
+
+    private static WordPieceVocabulary train(WordCounts counts, int vocabSize, long minFrequency,
+            WordPieceTrainer.FloorSchedule schedule) {
+        return new WordPieceTrainer(new WordPieceTrainer.Config(vocabSize, minFrequency, 100), schedule)
                 .train(counts, Progress.NONE);
     }
 
@@ -137,6 +150,65 @@ class WordPieceTrainerTest {
         WordPieceVocabulary vocabulary = train(courseCorpus(), 13, 6);
 
         assertThat(vocabulary.tokens()).endsWith("##ug").doesNotContain("##gs");
+    }
+
+    @Test
+    void starts_the_descending_floor_at_the_largest_pair_count() {
+        // Hand-worked on the course counts above: the largest pair count is (##u, ##g) with 20, so
+        // under the default schedule it is the only pair in the first band and merges first.
+        WordPieceVocabulary vocabulary = new WordPieceTrainer(new WordPieceTrainer.Config(13, 1, 100))
+                .train(courseCorpus(), Progress.NONE);
+
+        assertThat(vocabulary.tokens()).endsWith("##ug").hasSize(13);
+    }
+
+    /** A floor that starts at the largest pair count and falls by {@code factor}. */
+    private static WordPieceTrainer.FloorSchedule descending(double factor) {
+        return new WordPieceTrainer.FloorSchedule(Long.MAX_VALUE, factor);
+    }
+
+    /** fg 25, f 100, ae 20, ab 10, cd 15. */
+    private static WordCounts bandCorpus() {
+        WordCounts counts = new WordCounts(TextNormalizer.DEFAULT);
+        counts.addWord("fg", 25);
+        counts.addWord("f", 100);
+        counts.addWord("ae", 20);
+        counts.addWord("ab", 10);
+        counts.addWord("cd", 15);
+        return counts;
+    }
+
+    @Test
+    void merges_the_most_frequent_band_first_and_ranks_by_score_within_each_band() {
+        // Hand-worked. Counts: f 125, ##g 25, a 30, ##e 20, ##b 10, c 15, ##d 15. Pairs and scores:
+        // (f, ##g) 25 / (125 * 25) = 0.008, (a, ##e) 20 / (30 * 20) = 1/30, (a, ##b) 10 / (30 * 10)
+        // = 1/30, (c, ##d) 15 / (15 * 15) = 1/15. Floor 25: only fg. Floor 12: ae (20) and cd (15)
+        // qualify and cd has the higher score despite the lower count. Then ae at floor 12; ab (10)
+        // needs floor 6.
+        WordPieceVocabulary halving = train(bandCorpus(), 16, 1, descending(0.5));
+        // With a floor of 1 throughout, score alone decides: cd, then ae before ab on the higher count
+        // (both 1/30), then fg.
+        WordPieceVocabulary fixed = train(bandCorpus(), 16, 1);
+
+        List<String> alphabet = new ArrayList<>(SPECIALS);
+        alphabet.addAll(List.of("##b", "##d", "##e", "##g", "a", "c", "f"));
+        assertThat(halving.tokens()).startsWith(alphabet.toArray(String[]::new)).endsWith("fg", "cd", "ae", "ab");
+        assertThat(fixed.tokens()).endsWith("cd", "ae", "ab", "fg");
+    }
+
+    @Test
+    void lowers_the_floor_by_the_factor_and_not_below_min_frequency() {
+        // Hand-worked on the counts above with factor 3/4: floors 25 (fg), 18 (ae), 13 (cd), then 9
+        // would pass below min_frequency 12, so the floor stops at 12 and ab (10) never merges.
+        RecordingProgress progress = new RecordingProgress();
+        WordPieceVocabulary vocabulary = new WordPieceTrainer(new WordPieceTrainer.Config(16, 12, 100),
+                descending(0.75)).train(bandCorpus(), progress);
+        WordPieceVocabulary lowerFinal = train(bandCorpus(), 16, 9, descending(0.75));
+
+        assertThat(vocabulary.tokens()).endsWith("fg", "ae", "cd").hasSize(15);
+        assertThat(progress.events).contains("note vocabulary stopped at 15 of 16 tokens: no pair of symbols is left"
+                + " that occurs at least min_frequency (12) times");
+        assertThat(lowerFinal.tokens()).endsWith("fg", "ae", "cd", "ab");
     }
 
     @Test
@@ -247,6 +319,21 @@ class WordPieceTrainerTest {
 
         assertThat(config.maxWordChars()).isEqualTo(WordPieceEncoder.DEFAULT_MAX_WORD_CHARS);
         assertThat(config.minFrequency()).isEqualTo(WordPieceTrainer.Config.DEFAULT_MIN_FREQUENCY);
+        // The value the README's defaults table states.
+        assertThat(config.minFrequency()).isEqualTo(2);
+    }
+
+    @Test
+    void refuses_a_floor_schedule_that_would_not_descend() {
+        assertThatThrownBy(() -> new WordPieceTrainer.FloorSchedule(0, 0.5))
+                .isInstanceOf(IllegalArgumentException.class)
+                .hasMessage("maxFirstFloor must be >= 1, was 0");
+        assertThatThrownBy(() -> new WordPieceTrainer.FloorSchedule(10, 1.0))
+                .isInstanceOf(IllegalArgumentException.class)
+                .hasMessage("factor must be in (0, 1), was 1.0");
+        assertThatThrownBy(() -> new WordPieceTrainer.FloorSchedule(10, 0.0))
+                .isInstanceOf(IllegalArgumentException.class)
+                .hasMessage("factor must be in (0, 1), was 0.0");
     }
 
     @Test

@@ -1,0 +1,228 @@
+package dev.pressmark.core.bundle;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import dev.pressmark.core.classify.LinearClassifier;
+import dev.pressmark.core.classify.LinearWeights;
+import dev.pressmark.core.classify.PlattScaling;
+import dev.pressmark.core.classify.ProbabilisticClassifier;
+import dev.pressmark.core.feature.FeatureSpace;
+import dev.pressmark.core.feature.SparseMatrix;
+import java.io.IOException;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * A loaded bundle: the manifest, the text pipeline and the classifier, ready to predict and
+ * explain. {@link #write} is the only way a bundle file is made, and {@link #read} checks every
+ * entry's checksum on the way in. Immutable and thread-safe.
+ */
+public final class Bundle {
+
+    /** Manifest keys this class reads and writes. */
+    public static final String NAME = "name";
+    public static final String LABELS = "labels";
+    public static final String INPUT_FIELDS = "input_fields";
+    public static final String CLASSIFIER = "classifier";
+
+    private static final ObjectMapper JSON = new ObjectMapper();
+
+    private final JsonNode manifest;
+    private final String name;
+    private final List<String> labels;
+    private final TextPipeline pipeline;
+    private final ModelWeights model;
+    private final LinearClassifier classifier;
+    private final JsonNode profile;
+
+    private Bundle(JsonNode manifest, List<String> labels, TextPipeline pipeline, ModelWeights model, JsonNode profile) {
+        this.manifest = manifest;
+        this.name = manifest.path(NAME).asText();
+        this.labels = List.copyOf(labels);
+        this.pipeline = pipeline;
+        this.model = model;
+        this.classifier = model.classifier();
+        this.profile = profile;
+    }
+
+    /**
+     * Writes a bundle. {@code manifest} holds everything but the parts this method adds: the
+     * labels, the input fields, the classifier's kind and sigmoids, and the entry checksums.
+     */
+    public static byte[] write(ObjectNode manifest, List<String> labels, TextPipeline pipeline, ModelWeights model, JsonNode profile) {
+        ObjectNode full = manifest.deepCopy();
+        ArrayNode labelArray = full.putArray(LABELS);
+        labels.forEach(labelArray::add);
+        ArrayNode fields = full.putArray(INPUT_FIELDS);
+        pipeline.columns().forEach(fields::add);
+        ObjectNode classifierNode = full.putObject(CLASSIFIER);
+        classifierNode.put("kind", model.kind());
+        classifierNode.put("probabilities", model.hasProbabilities());
+        ArrayNode sigmoids = classifierNode.putArray("platt");
+        for (PlattScaling scaling : model.platt()) {
+            sigmoids.addObject().put("a", scaling.a()).put("b", scaling.b());
+        }
+        Map<String, byte[]> entries = new LinkedHashMap<>();
+        entries.put(BundleArchive.TOKENIZER, CanonicalJson.bytes(JSON.valueToTree(pipeline.spec())));
+        entries.put(BundleArchive.FEATURES, CanonicalJson.bytes(JSON.valueToTree(pipeline.features().toState())));
+        entries.put(BundleArchive.WEIGHTS, WeightsCodec.write(model.weights()));
+        entries.put(BundleArchive.PROFILE, CanonicalJson.bytes(profile));
+        return BundleArchive.toBytes(full, entries);
+    }
+
+    public static Bundle read(Path file) {
+        return from(BundleArchive.read(file), file.toString());
+    }
+
+    public static Bundle read(byte[] bytes) {
+        return from(BundleArchive.read(bytes), "bundle");
+    }
+
+    /** Rebuilds the model from verified contents; {@code source} names it in messages. */
+    public static Bundle from(BundleContents contents, String source) {
+        JsonNode manifest = contents.manifest();
+        try {
+            List<String> labels = strings(manifest.path(LABELS));
+            TokenizerSpec spec = JSON.readValue(contents.entry(BundleArchive.TOKENIZER), TokenizerSpec.class);
+            FeatureSpace features = FeatureSpace.fromState(JSON.readValue(contents.entry(BundleArchive.FEATURES), FeatureSpace.State.class));
+            LinearWeights weights = WeightsCodec.read(contents.entry(BundleArchive.WEIGHTS));
+            JsonNode classifierNode = manifest.path(CLASSIFIER);
+            List<PlattScaling> platt = new ArrayList<>();
+            for (JsonNode sigmoid : classifierNode.path("platt")) {
+                platt.add(new PlattScaling(sigmoid.path("a").asDouble(), sigmoid.path("b").asDouble()));
+            }
+            ModelWeights model = new ModelWeights(classifierNode.path("kind").asText(), weights, platt);
+            if (labels.size() != weights.numClasses()) {
+                throw new IllegalArgumentException(labels.size() + " labels but weights for " + weights.numClasses() + " classes");
+            }
+            if (features.featureCount() != weights.numFeatures()) {
+                throw new IllegalArgumentException(features.featureCount() + " features but weights for " + weights.numFeatures());
+            }
+            JsonNode profile = JSON.readTree(contents.entry(BundleArchive.PROFILE));
+            return new Bundle(manifest, labels, new TextPipeline(spec, spec.tokenizer(), features), model, profile);
+        } catch (IOException | IllegalArgumentException e) {
+            throw new BundleException(BundleException.CORRUPT, source + ": not a usable model: " + e.getMessage(), e);
+        }
+    }
+
+    private static List<String> strings(JsonNode array) {
+        List<String> values = new ArrayList<>();
+        array.forEach(node -> values.add(node.asText()));
+        return values;
+    }
+
+    public String name() {
+        return name;
+    }
+
+    public JsonNode manifest() {
+        return manifest;
+    }
+
+    public JsonNode profile() {
+        return profile;
+    }
+
+    public List<String> labels() {
+        return labels;
+    }
+
+    /** The text fields an item must have, in feature order. */
+    public List<String> inputFields() {
+        return pipeline.columns();
+    }
+
+    public TextPipeline pipeline() {
+        return pipeline;
+    }
+
+    public ModelWeights model() {
+        return model;
+    }
+
+    public boolean hasProbabilities() {
+        return model.hasProbabilities();
+    }
+
+    /** Predicts every item; each item maps every input field to its text. */
+    public List<Prediction> predict(List<Map<String, String>> items) {
+        List<String[]> rows = rows(items);
+        List<List<List<String>>> tokens = TextPipeline.tokenize(pipeline.tokenizer(), rows);
+        SparseMatrix x = pipeline.features().transform(tokens);
+        List<Prediction> predictions = new ArrayList<>(rows.size());
+        for (int i = 0; i < rows.size(); i++) {
+            predictions.add(prediction(x, i, pipeline.unknownTokens(tokens.get(i))));
+        }
+        return predictions;
+    }
+
+    public Prediction predict(Map<String, String> item) {
+        return predict(List.of(item)).get(0);
+    }
+
+    /** Predicts {@code item} and lists the {@code k} features that moved its score most. */
+    public Explanation explain(Map<String, String> item, int k) {
+        if (k < 0) {
+            throw new IllegalArgumentException("k must be >= 0, was " + k);
+        }
+        List<String[]> rows = rows(List.of(item));
+        List<List<List<String>>> tokens = TextPipeline.tokenize(pipeline.tokenizer(), rows);
+        SparseMatrix x = pipeline.features().transform(tokens);
+        Prediction prediction = prediction(x, 0, pipeline.unknownTokens(tokens.get(0)));
+        LinearWeights weights = model.weights();
+        int predicted = labels.indexOf(prediction.label());
+        int score = weights.numScores() == 1 ? 0 : predicted;
+        double sign = weights.numScores() == 1 && predicted == 0 ? -1.0 : 1.0;
+        List<Contribution> all = new ArrayList<>();
+        for (int p = x.rowStart(0); p < x.rowEnd(0); p++) {
+            int j = x.column(p);
+            double value = sign * weights.weight(score, j) * x.value(p);
+            all.add(new Contribution(pipeline.features().featureName(j), value));
+        }
+        all.sort(Comparator.comparingDouble((Contribution c) -> -Math.abs(c.contribution())).thenComparing(Contribution::feature));
+        return new Explanation(prediction, sign * weights.intercept(score), all.subList(0, Math.min(k, all.size())), all.size());
+    }
+
+    private Prediction prediction(SparseMatrix x, int row, int unknownTokens) {
+        LinearWeights weights = model.weights();
+        double[] scores = new double[weights.numScores()];
+        weights.decisionValues(x, row, scores);
+        int predicted = weights.predict(x, row);
+        double score = scores.length == 1 ? (predicted == 1 ? scores[0] : -scores[0]) : scores[predicted];
+        Map<String, Double> probabilities = null;
+        if (classifier instanceof ProbabilisticClassifier probabilistic) {
+            double[] p = new double[labels.size()];
+            probabilistic.probabilities(x, row, p);
+            probabilities = new LinkedHashMap<>();
+            for (int k = 0; k < p.length; k++) {
+                probabilities.put(labels.get(k), p[k]);
+            }
+        }
+        return new Prediction(labels.get(predicted), score, probabilities, unknownTokens);
+    }
+
+    private List<String[]> rows(List<Map<String, String>> items) {
+        List<String> fields = pipeline.columns();
+        List<String[]> rows = new ArrayList<>(items.size());
+        for (int i = 0; i < items.size(); i++) {
+            Map<String, String> item = items.get(i);
+            String[] row = new String[fields.size()];
+            for (int c = 0; c < row.length; c++) {
+                String text = item.get(fields.get(c));
+                if (text == null) {
+                    throw new IllegalArgumentException("item " + i + " has no field \"" + fields.get(c)
+                            + "\"; this model reads " + String.join(", ", fields));
+                }
+                row[c] = text;
+            }
+            rows.add(row);
+        }
+        return rows;
+    }
+}

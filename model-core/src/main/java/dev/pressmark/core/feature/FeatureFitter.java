@@ -1,0 +1,159 @@
+package dev.pressmark.core.feature;
+
+import dev.pressmark.core.PressmarkException;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.HashMap;
+import java.util.HashSet;
+import java.util.List;
+import java.util.Map;
+import java.util.Objects;
+
+/** Fits a {@link FeatureSpace}: counts document frequencies, selects, then fits idf and moments. */
+final class FeatureFitter {
+
+    private FeatureFitter() {
+    }
+
+    static FeatureSpace fit(FeatureConfig config, List<String> columns, List<List<List<String>>> rows) {
+        Objects.requireNonNull(config, "config");
+        checkColumns(columns);
+        Objects.requireNonNull(rows, "rows");
+        if (rows.isEmpty()) {
+            throw new PressmarkException("empty-training-set", "there are no training rows to fit the features on");
+        }
+        Counts counts = Counts.of(columns, rows);
+        if (counts.distinct == 0) {
+            throw new PressmarkException("no-tokens", "the " + rows.size()
+                    + " training rows hold no tokens in columns " + String.join(", ", columns));
+        }
+        int[] selected = select(counts, columns, config.maxTokens());
+        int m = selected.length;
+        int n = rows.size();
+        int[] featureColumn = new int[m];
+        String[] tokens = new String[m];
+        int[] documentFrequency = new int[m];
+        for (int j = 0; j < m; j++) {
+            int id = selected[j];
+            featureColumn[j] = counts.column[id];
+            tokens[j] = counts.tokens.get(id);
+            documentFrequency[j] = counts.documentFrequency[id];
+        }
+        double[] idf = null;
+        if (config.weighting() == Weighting.TFIDF) {
+            idf = new double[m];
+            for (int j = 0; j < m; j++) {
+                idf[j] = FeatureKernels.smoothIdf(documentFrequency[j], n);
+            }
+        }
+        if (config.scaling() != Scaling.STANDARDIZE) {
+            return new FeatureSpace(columns, config, n, featureColumn, tokens, documentFrequency, idf, null, null);
+        }
+        FeatureSpace unscaled = new FeatureSpace(columns, config.withScaling(Scaling.NONE), n,
+                featureColumn, tokens, documentFrequency, idf, null, null);
+        double[] means = new double[m];
+        double[] standardDeviations = new double[m];
+        FeatureKernels.columnMoments(unscaled.transform(rows), means, standardDeviations);
+        return new FeatureSpace(columns, config, n, featureColumn, tokens, documentFrequency, idf, means,
+                standardDeviations);
+    }
+
+    static void checkColumns(List<String> columns) {
+        Objects.requireNonNull(columns, "columns");
+        if (columns.isEmpty()) {
+            throw new IllegalArgumentException("columns must name at least one text column, was empty");
+        }
+        HashSet<String> seen = new HashSet<>();
+        for (int c = 0; c < columns.size(); c++) {
+            String column = columns.get(c);
+            if (column == null || column.isEmpty()) {
+                throw new IllegalArgumentException("columns[" + c + "] must be a non-empty name, was "
+                        + (column == null ? "null" : "empty"));
+            }
+            if (!seen.add(column)) {
+                throw new IllegalArgumentException("columns must be distinct, but " + column + " appears twice");
+            }
+        }
+    }
+
+    /**
+     * The ids of the {@code maxTokens} features of largest document frequency, ties to the smaller
+     * name, in that order.
+     */
+    private static int[] select(Counts counts, List<String> columns, int maxTokens) {
+        int d = counts.distinct;
+        String[] names = new String[d];
+        Integer[] order = new Integer[d];
+        for (int id = 0; id < d; id++) {
+            names[id] = FeatureSpace.name(columns.get(counts.column[id]), counts.tokens.get(id));
+            order[id] = id;
+        }
+        int[] df = counts.documentFrequency;
+        Arrays.sort(order, (a, b) -> df[a] != df[b] ? Integer.compare(df[b], df[a]) : names[a].compareTo(names[b]));
+        int[] selected = new int[Math.min(maxTokens, d)];
+        for (int j = 0; j < selected.length; j++) {
+            selected[j] = order[j];
+        }
+        return selected;
+    }
+
+    /** Every distinct (column, token) of the training rows with its document frequency. */
+    private static final class Counts {
+
+        private int distinct;
+        private int[] column = new int[64];
+        private int[] documentFrequency = new int[64];
+        /** The last row that counted each id, so that a row counts a token once. */
+        private int[] lastRow = new int[64];
+        private final List<String> tokens = new ArrayList<>();
+
+        static Counts of(List<String> columns, List<List<List<String>>> rows) {
+            Counts counts = new Counts();
+            List<Map<String, Integer>> ids = new ArrayList<>(columns.size());
+            for (int c = 0; c < columns.size(); c++) {
+                ids.add(new HashMap<>());
+            }
+            for (int i = 0; i < rows.size(); i++) {
+                List<List<String>> row = rows.get(i);
+                FeatureSpace.checkRow(i, row, columns);
+                for (int c = 0; c < columns.size(); c++) {
+                    Map<String, Integer> columnIds = ids.get(c);
+                    int position = 0;
+                    for (String token : row.get(c)) {
+                        if (token == null) {
+                            throw FeatureSpace.nullToken(i, columns.get(c), position);
+                        }
+                        Integer id = columnIds.get(token);
+                        if (id == null) {
+                            id = counts.add(c, token);
+                            columnIds.put(token, id);
+                        }
+                        counts.count(id, i);
+                        position++;
+                    }
+                }
+            }
+            return counts;
+        }
+
+        private int add(int c, String token) {
+            if (distinct == column.length) {
+                int capacity = distinct * 2;
+                column = Arrays.copyOf(column, capacity);
+                documentFrequency = Arrays.copyOf(documentFrequency, capacity);
+                lastRow = Arrays.copyOf(lastRow, capacity);
+            }
+            column[distinct] = c;
+            lastRow[distinct] = -1;
+            tokens.add(token);
+            return distinct++;
+        }
+
+        private void count(int id, int row) {
+            if (lastRow[id] != row) {
+                lastRow[id] = row;
+                documentFrequency[id]++;
+            }
+        }
+    }
+}

@@ -1,0 +1,75 @@
+package dev.pressmark.core.train;
+
+import com.fasterxml.jackson.annotation.JsonCreator;
+import com.fasterxml.jackson.annotation.JsonProperty;
+import com.fasterxml.jackson.annotation.JsonPropertyOrder;
+import java.nio.file.Path;
+import java.util.HashSet;
+import java.util.List;
+import java.util.Objects;
+
+/**
+ * The {@code data} section: which CSV file, which columns hold text and label.
+ *
+ * @param file the CSV file; relative paths are resolved against the config file's directory
+ * @param text one or more text columns; features are named {@code column:token}
+ * @param label the label column
+ * @param positive the positive class for binary metrics, or null for the second label in sorted order
+ * @param dropIncomplete leave out rows without label or text instead of failing on the first
+ */
+@JsonPropertyOrder({"file", "text", "label", "positive", "drop_incomplete"})
+public record DataConfig(
+        @JsonProperty("file") String file,
+        @JsonProperty("text") List<String> text,
+        @JsonProperty("label") String label,
+        @JsonProperty("positive") String positive,
+        @JsonProperty("drop_incomplete") boolean dropIncomplete) {
+
+    public static final String DEFAULT_FILE = "data.csv";
+    public static final List<String> DEFAULT_TEXT = List.of("text");
+    public static final String DEFAULT_LABEL = "label";
+    public static final DataConfig DEFAULT = new DataConfig(DEFAULT_FILE, DEFAULT_TEXT, DEFAULT_LABEL, null, false);
+
+    public DataConfig {
+        Objects.requireNonNull(file, "data.file");
+        if (file.isBlank()) {
+            throw new IllegalArgumentException("data.file must name a CSV file, was empty");
+        }
+        text = List.copyOf(text);
+        if (text.isEmpty()) {
+            throw new IllegalArgumentException("data.text must name at least one column, was an empty list");
+        }
+        if (new HashSet<>(text).size() != text.size()) {
+            throw new IllegalArgumentException("data.text must not name a column twice, was " + text);
+        }
+        Objects.requireNonNull(label, "data.label");
+        if (text.contains(label)) {
+            throw new IllegalArgumentException("data.label \"" + label + "\" must not also be a text column");
+        }
+    }
+
+    @JsonCreator
+    static DataConfig fromYaml(
+            @JsonProperty("file") String file,
+            @JsonProperty("text") List<String> text,
+            @JsonProperty("label") String label,
+            @JsonProperty("positive") String positive,
+            @JsonProperty("drop_incomplete") Boolean dropIncomplete) {
+        return new DataConfig(
+                file == null ? DEFAULT_FILE : file,
+                text == null ? DEFAULT_TEXT : text,
+                label == null ? DEFAULT_LABEL : label,
+                positive,
+                dropIncomplete != null && dropIncomplete);
+    }
+
+    /** The file as a path, resolved against {@code base} when relative. */
+    public Path path(Path base) {
+        Path path = Path.of(file);
+        return path.isAbsolute() || base == null ? path : base.resolve(path).normalize();
+    }
+
+    DataConfig resolvedAgainst(Path base) {
+        return new DataConfig(path(base).toString(), text, label, positive, dropIncomplete);
+    }
+}

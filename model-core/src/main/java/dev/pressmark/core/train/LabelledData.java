@@ -1,0 +1,166 @@
+package dev.pressmark.core.train;
+
+import com.fasterxml.jackson.core.JsonParser;
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.core.JsonToken;
+import com.fasterxml.jackson.dataformat.csv.CsvMapper;
+import com.fasterxml.jackson.dataformat.csv.CsvParser;
+import dev.pressmark.core.PressmarkException;
+import dev.pressmark.core.bundle.Sha256;
+import dev.pressmark.core.io.StrictUtf8;
+import java.io.IOException;
+import java.io.StringReader;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+
+/**
+ * Labelled rows read from a CSV file (RFC 4180: quoted fields, embedded newlines, CRLF, an
+ * optional byte-order mark; strict UTF-8): one or more text columns and one label column, chosen
+ * by the header. A row is incomplete when its label is empty or all its text columns are; the
+ * first incomplete row is an error unless {@code dropIncomplete}, in which case such rows are
+ * counted and left out. Immutable.
+ *
+ * @param textColumns the text columns, in the order features are named
+ * @param labelColumn the label column
+ * @param texts per row, the text of each text column
+ * @param labels per row, the label
+ * @param lines per row, the line of the file on which the row starts
+ * @param sha256 the SHA-256 of the file's bytes, its fingerprint
+ * @param droppedRows how many incomplete rows were left out
+ */
+public record LabelledData(
+        List<String> textColumns,
+        String labelColumn,
+        List<String[]> texts,
+        List<String> labels,
+        int[] lines,
+        String sha256,
+        int droppedRows) {
+
+    private static final CsvMapper CSV = CsvMapper.builder()
+            .enable(CsvParser.Feature.SKIP_EMPTY_LINES)
+            .build();
+
+    public LabelledData {
+        textColumns = List.copyOf(textColumns);
+        texts = List.copyOf(texts);
+        labels = List.copyOf(labels);
+        lines = lines.clone();
+        if (texts.size() != labels.size() || lines.length != labels.size()) {
+            throw new IllegalArgumentException("texts, labels and lines must have one entry per row, were "
+                    + texts.size() + ", " + labels.size() + " and " + lines.length);
+        }
+    }
+
+    public int rows() {
+        return labels.size();
+    }
+
+    /** Reads {@code file}; errors name the file, and the line where one is at fault. */
+    public static LabelledData read(Path file, List<String> textColumns, String labelColumn, boolean dropIncomplete) {
+        byte[] bytes;
+        try {
+            bytes = Files.readAllBytes(file);
+        } catch (NoSuchFileException e) {
+            throw new PressmarkException("file-not-found", file + ": no such file");
+        } catch (IOException e) {
+            throw new PressmarkException("file-unreadable", file + ": cannot read: " + e.getMessage(), e);
+        }
+        String text = StrictUtf8.decode(bytes, file.toString());
+        try (JsonParser parser = CSV.createParser(new StringReader(text))) {
+            return parse(parser, file, textColumns, labelColumn, dropIncomplete, Sha256.hex(bytes));
+        } catch (JsonProcessingException e) {
+            throw new PressmarkException("invalid-csv", file + ": line " + e.getLocation().getLineNr()
+                    + ": " + e.getOriginalMessage());
+        } catch (IOException e) {
+            throw new PressmarkException("file-unreadable", file + ": " + e.getMessage(), e);
+        }
+    }
+
+    private static LabelledData parse(JsonParser parser, Path file, List<String> textColumns, String labelColumn,
+                                      boolean dropIncomplete, String sha256) throws IOException {
+        List<String> fields = new ArrayList<>();
+        int line = nextRow(parser, fields);
+        if (line < 0) {
+            throw new PressmarkException("empty-data", file + ": no header row; the file is empty");
+        }
+        List<String> header = List.copyOf(fields);
+        int[] textIndex = new int[textColumns.size()];
+        for (int i = 0; i < textIndex.length; i++) {
+            textIndex[i] = column(header, textColumns.get(i), file);
+        }
+        int labelIndex = column(header, labelColumn, file);
+
+        List<String[]> texts = new ArrayList<>();
+        List<String> labels = new ArrayList<>();
+        int[] lines = new int[64];
+        int dropped = 0;
+        while ((line = nextRow(parser, fields)) >= 0) {
+            if (fields.size() != header.size()) {
+                throw new PressmarkException("invalid-csv", file + ": line " + line + ": " + fields.size()
+                        + " fields, but the header has " + header.size());
+            }
+            String label = fields.get(labelIndex).strip();
+            String[] row = new String[textIndex.length];
+            boolean anyText = false;
+            for (int i = 0; i < textIndex.length; i++) {
+                row[i] = fields.get(textIndex[i]);
+                anyText |= !row[i].isBlank();
+            }
+            if (label.isEmpty() || !anyText) {
+                if (!dropIncomplete) {
+                    throw new PressmarkException("incomplete-row", file + ": line " + line + ": "
+                            + (label.isEmpty() ? "no label in column \"" + labelColumn + "\"" : "no text in " + quoted(textColumns))
+                            + "; fix the row, or set data.drop_incomplete: true to leave such rows out");
+                }
+                dropped++;
+                continue;
+            }
+            if (labels.size() == lines.length) {
+                lines = Arrays.copyOf(lines, lines.length * 2);
+            }
+            lines[labels.size()] = line;
+            texts.add(row);
+            labels.add(label);
+        }
+        if (labels.isEmpty()) {
+            throw new PressmarkException("empty-data", file + ": no complete data rows"
+                    + (dropped > 0 ? " (" + dropped + " incomplete rows left out)" : ""));
+        }
+        return new LabelledData(textColumns, labelColumn, texts, labels, Arrays.copyOf(lines, labels.size()), sha256, dropped);
+    }
+
+    /** Reads the next row into {@code fields}; returns the line it starts on, or -1 at the end. */
+    private static int nextRow(JsonParser parser, List<String> fields) throws IOException {
+        if (parser.nextToken() == null) {
+            return -1;
+        }
+        fields.clear();
+        int line = -1;
+        JsonToken token;
+        while ((token = parser.nextToken()) != JsonToken.END_ARRAY && token != null) {
+            if (line < 0) {
+                line = parser.currentTokenLocation().getLineNr();
+            }
+            fields.add(parser.getText());
+        }
+        return line >= 0 ? line : parser.currentLocation().getLineNr();
+    }
+
+    private static int column(List<String> header, String name, Path file) {
+        int index = header.indexOf(name);
+        if (index < 0) {
+            throw new PressmarkException("unknown-column", file + ": line 1: no column \"" + name
+                    + "\"; the header has " + quoted(header));
+        }
+        return index;
+    }
+
+    private static String quoted(List<String> names) {
+        return "\"" + String.join("\", \"", names) + "\"";
+    }
+}

@@ -1,0 +1,311 @@
+package dev.pressmark.core.train;
+
+import dev.pressmark.core.PressmarkException;
+import dev.pressmark.core.Progress;
+import dev.pressmark.core.bundle.ModelWeights;
+import dev.pressmark.core.bundle.TextPipeline;
+import dev.pressmark.core.classify.ClassWeights;
+import dev.pressmark.core.classify.LinearClassifier;
+import dev.pressmark.core.classify.LogisticTrainer;
+import dev.pressmark.core.classify.PlattScaling;
+import dev.pressmark.core.classify.SvmTrainer;
+import dev.pressmark.core.evaluate.Evaluation;
+import dev.pressmark.core.evaluate.Fold;
+import dev.pressmark.core.evaluate.FoldSummary;
+import dev.pressmark.core.evaluate.MetricValues;
+import dev.pressmark.core.evaluate.Resampling;
+import dev.pressmark.core.evaluate.Split;
+import dev.pressmark.core.feature.SparseMatrix;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Optional;
+import java.util.SplittableRandom;
+import java.util.TreeSet;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
+import java.util.concurrent.atomic.AtomicInteger;
+
+/**
+ * One training run, from labelled rows to a fitted model with honest estimates of its quality:
+ *
+ * <ol>
+ *   <li>hold out the test part (stratified by default);
+ *   <li>cross-validate on the training part only: in every fold the whole preprocessing and the
+ *       classifier are fitted on the fold's training rows and scored on its held-out rows;
+ *   <li>fit Platt sigmoids, when asked, on the out-of-fold decision values of the first repeat;
+ *   <li>fit the final model on the whole training part and score the test part, once.
+ * </ol>
+ *
+ * Folds run in parallel on {@code evaluation.threads}; each fold draws its randomness from a seed
+ * derived from the run's seed and its place, so the result is the same at any thread count.
+ */
+public final class TrainingRun {
+
+    /**
+     * What a run produces.
+     *
+     * @param labels the label set, sorted
+     * @param positiveClass the class binary metrics treat as positive, or -1 for more than two classes
+     * @param pipeline the final preprocessing
+     * @param model the final classifier
+     * @param cv the cross-validated metrics, mean and standard error per metric
+     * @param test the metrics on the held-out test part
+     * @param trainRows the rows of the training part, as indices into the data
+     * @param testRows the rows of the test part
+     * @param finalTokens the tokens of the training part, for the profile
+     * @param warnings solver warnings, for example an iteration cap that was hit
+     */
+    public record Result(
+            List<String> labels,
+            int positiveClass,
+            TextPipeline pipeline,
+            ModelWeights model,
+            FoldSummary cv,
+            Evaluation test,
+            int[] trainRows,
+            int[] testRows,
+            List<List<List<String>>> finalTokens,
+            List<String> warnings) {
+    }
+
+    private final TrainConfig config;
+    private final LabelledData data;
+    private final List<String> labels;
+    private final int[] y;
+    private final int positiveClass;
+    private final PipelineFitter fitter;
+
+    public TrainingRun(TrainConfig config, LabelledData data) {
+        this.config = config;
+        this.data = data;
+        this.labels = List.copyOf(new TreeSet<>(data.labels()));
+        if (labels.size() < 2) {
+            throw new PressmarkException("one-class", data.labelColumn() + ": every row has the label \"" + labels.get(0)
+                    + "\"; a classifier needs at least two labels");
+        }
+        this.y = new int[data.rows()];
+        for (int i = 0; i < y.length; i++) {
+            y[i] = labels.indexOf(data.labels().get(i));
+        }
+        this.positiveClass = positiveClass(config.data().positive(), labels);
+        this.fitter = new PipelineFitter(config.tokenizer(), config.features(), config.data().text());
+    }
+
+    private static int positiveClass(String positive, List<String> labels) {
+        int index = positive == null ? 1 : labels.indexOf(positive);
+        if (index < 0) {
+            throw new PressmarkException("unknown-positive", "data.positive \"" + positive + "\" is not a label; the labels are "
+                    + String.join(", ", labels));
+        }
+        return labels.size() > 2 ? -1 : index;
+    }
+
+    public List<String> labels() {
+        return labels;
+    }
+
+    /** The positive class, or -1 for more than two classes. */
+    public int positiveClass() {
+        return positiveClass;
+    }
+
+    /** Runs everything; progress goes to {@code progress}. */
+    public Result run(Progress progress) {
+        long seed = config.split().seed();
+        Split split = split(seed);
+        int[] trainRows = split.train();
+        int[] trainLabels = select(y, trainRows);
+        List<Fold> folds = Resampling.stratifiedKFold(trainLabels, labels.size(), config.evaluation().folds(),
+                config.evaluation().repeats(), seed);
+
+        List<FoldResult> results = crossValidate(trainRows, trainLabels, folds, progress);
+        List<MetricValues> foldMetrics = new ArrayList<>();
+        List<String> warnings = new ArrayList<>();
+        for (FoldResult result : results) {
+            foldMetrics.add(result.evaluation.overall());
+            result.warning.ifPresent(w -> warnings.add("fold " + (result.fold.index() + 1) + ": " + w));
+        }
+        List<PlattScaling> platt = List.of();
+        if (config.classifier().kind() == ClassifierConfig.Kind.LINEAR_SVM && config.classifier().hasProbabilities()) {
+            platt = PlattScaling.fitScores(outOfFold(results, trainLabels.length), trainLabels, labels.size());
+        }
+
+        progress.start("final model", 3);
+        PipelineFitter.Fitted fitted = fitter.fit(rows(trainRows), Progress.NONE);
+        progress.advance(1);
+        Trained trained = train(fitted.x(), trainLabels, seed);
+        trained.warning.ifPresent(w -> warnings.add("final model: " + w));
+        ModelWeights model = new ModelWeights(kindKey(), trained.model.weights(), platt);
+        progress.advance(2);
+        Evaluation test = evaluate(model.classifier(), fitted.pipeline().transform(rows(split.test())), select(y, split.test()));
+        progress.advance(3);
+        progress.finish();
+        warnings.forEach(progress::note);
+        return new Result(labels, positiveClass, fitted.pipeline(), model, FoldSummary.of(foldMetrics), test,
+                trainRows, split.test(), fitted.tokens(), warnings);
+    }
+
+    private Split split(long seed) {
+        if (config.split().stratify()) {
+            return Resampling.stratifiedSplit(y, labels.size(), config.split().testFraction(), seed);
+        }
+        int[] order = new int[y.length];
+        for (int i = 0; i < order.length; i++) {
+            order[i] = i;
+        }
+        SplittableRandom random = new SplittableRandom(seed);
+        for (int i = order.length - 1; i > 0; i--) {
+            int j = random.nextInt(i + 1);
+            int t = order[i];
+            order[i] = order[j];
+            order[j] = t;
+        }
+        int testCount = (int) Math.round(config.split().testFraction() * y.length);
+        int[] test = java.util.Arrays.copyOfRange(order, 0, testCount);
+        int[] train = java.util.Arrays.copyOfRange(order, testCount, order.length);
+        java.util.Arrays.sort(test);
+        java.util.Arrays.sort(train);
+        return new Split(train, test);
+    }
+
+    private record FoldResult(Fold fold, Evaluation evaluation, double[][] decisionValues, Optional<String> warning) {
+    }
+
+    private record Trained(LinearClassifier model, Optional<String> warning) {
+    }
+
+    private List<FoldResult> crossValidate(int[] trainRows, int[] trainLabels, List<Fold> folds, Progress progress) {
+        int threads = Math.min(config.evaluation().effectiveThreads(), folds.size());
+        ExecutorService pool = Executors.newFixedThreadPool(threads, runnable -> {
+            Thread thread = new Thread(runnable, "pressmark-fold");
+            thread.setDaemon(true);
+            return thread;
+        });
+        AtomicInteger done = new AtomicInteger();
+        progress.start("folds", folds.size());
+        try {
+            List<Future<FoldResult>> futures = new ArrayList<>();
+            for (Fold fold : folds) {
+                futures.add(pool.submit(() -> {
+                    FoldResult result = runFold(fold, trainRows, trainLabels);
+                    int finished = done.incrementAndGet();
+                    synchronized (progress) {
+                        progress.advance(finished);
+                    }
+                    return result;
+                }));
+            }
+            List<FoldResult> results = new ArrayList<>();
+            for (Future<FoldResult> future : futures) {
+                results.add(future.get());
+            }
+            return results;
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new PressmarkException("interrupted", "training was interrupted");
+        } catch (ExecutionException e) {
+            if (e.getCause() instanceof RuntimeException runtime) {
+                throw runtime;
+            }
+            throw new IllegalStateException(e.getCause());
+        } finally {
+            pool.shutdownNow();
+            progress.finish();
+        }
+    }
+
+    private FoldResult runFold(Fold fold, int[] trainRows, int[] trainLabels) {
+        int[] foldTrain = select(trainRows, fold.train());
+        int[] foldTest = select(trainRows, fold.test());
+        PipelineFitter.Fitted fitted = fitter.fit(rows(foldTrain), Progress.NONE);
+        Trained trained = train(fitted.x(), select(trainLabels, fold.train()), foldSeed(fold));
+        SparseMatrix xTest = fitted.pipeline().transform(rows(foldTest));
+        int[] truth = select(trainLabels, fold.test());
+        Evaluation evaluation = evaluate(trained.model, xTest, truth);
+        double[][] values = new double[trained.model.weights().numScores()][];
+        for (int k = 0; k < values.length; k++) {
+            values[k] = trained.model.decisionColumn(xTest, k);
+        }
+        return new FoldResult(fold, evaluation, values, trained.warning);
+    }
+
+    private long foldSeed(Fold fold) {
+        return new SplittableRandom(config.split().seed() + 0x9E3779B97F4A7C15L * (1L + fold.repeat() * 1_000_003L + fold.index()))
+                .nextLong();
+    }
+
+    /** The decision values of every training row from the fold that held it out, first repeat only. */
+    private static double[][] outOfFold(List<FoldResult> results, int rows) {
+        double[][] values = null;
+        for (FoldResult result : results) {
+            if (result.fold.repeat() != 0) {
+                continue;
+            }
+            if (values == null) {
+                values = new double[result.decisionValues.length][rows];
+            }
+            int[] held = result.fold.test();
+            for (int k = 0; k < values.length; k++) {
+                for (int i = 0; i < held.length; i++) {
+                    values[k][held[i]] = result.decisionValues[k][i];
+                }
+            }
+        }
+        return values;
+    }
+
+    private Trained train(SparseMatrix x, int[] labels, long seed) {
+        ClassifierConfig classifier = config.classifier();
+        ClassWeights weights = classifier.classWeight().resolve(this.labels);
+        if (classifier.kind() == ClassifierConfig.Kind.LOGISTIC_REGRESSION) {
+            var model = new LogisticTrainer(classifier.logisticConfig(), weights).train(x, labels, this.labels.size(), seed);
+            return new Trained(model, model.warning());
+        }
+        var model = new SvmTrainer(classifier.svmConfig(), weights).train(x, labels, this.labels.size(), seed);
+        return new Trained(model, model.warning());
+    }
+
+    private Evaluation evaluate(LinearClassifier model, SparseMatrix x, int[] truth) {
+        int[] predicted = model.predict(x);
+        if (labels.size() == 2) {
+            double[] scores = model.decisionColumn(x, 0);
+            if (positiveClass == 0) {
+                for (int i = 0; i < scores.length; i++) {
+                    scores[i] = -scores[i];
+                }
+            }
+            return Evaluation.binary(truth, predicted, scores, positiveClass);
+        }
+        int k = labels.size();
+        double[] scores = new double[x.rows() * k];
+        double[] row = new double[k];
+        for (int i = 0; i < x.rows(); i++) {
+            model.weights().decisionValues(x, i, row);
+            System.arraycopy(row, 0, scores, i * k, k);
+        }
+        return Evaluation.multiClass(truth, predicted, scores, k);
+    }
+
+    private String kindKey() {
+        return config.classifier().kind() == ClassifierConfig.Kind.LOGISTIC_REGRESSION
+                ? ModelWeights.LOGISTIC_REGRESSION : ModelWeights.LINEAR_SVM;
+    }
+
+    private List<String[]> rows(int[] indices) {
+        List<String[]> rows = new ArrayList<>(indices.length);
+        for (int i : indices) {
+            rows.add(data.texts().get(i));
+        }
+        return rows;
+    }
+
+    private static int[] select(int[] values, int[] indices) {
+        int[] out = new int[indices.length];
+        for (int i = 0; i < indices.length; i++) {
+            out[i] = values[indices[i]];
+        }
+        return out;
+    }
+}

@@ -1,0 +1,170 @@
+package dev.pressmark.core.train;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+import static org.assertj.core.api.Assertions.within;
+
+import dev.pressmark.core.Progress;
+import dev.pressmark.core.bundle.Bundle;
+import dev.pressmark.core.bundle.Contribution;
+import dev.pressmark.core.bundle.Explanation;
+import dev.pressmark.core.bundle.Prediction;
+import dev.pressmark.core.evaluate.Metric;
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Instant;
+import java.util.Map;
+import java.util.SplittableRandom;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+class TrainingRunTest {
+
+    private static final Instant CREATED = Instant.parse("2026-01-01T00:00:00Z");
+
+    @TempDir
+    Path dir;
+
+    /** Three departments whose titles share a few words; brand syllables carry the signal. */
+    private Path listings(int rows, long seed) throws IOException {
+        String[][] parts = {
+            {"aqua", "flow", "valve", "pipe", "drain"},
+            {"volt", "amp", "switch", "outlet", "breaker"},
+            {"fern", "leaf", "hose", "rake", "planter"},
+        };
+        String[] labels = {"plumbing", "electrical", "garden"};
+        String[] shared = {"pro", "kit", "pack", "steel", "black"};
+        SplittableRandom random = new SplittableRandom(seed);
+        StringBuilder csv = new StringBuilder("title,department\n");
+        for (int i = 0; i < rows; i++) {
+            int k = random.nextInt(3);
+            String brand = parts[k][random.nextInt(2)] + parts[random.nextInt(3)][random.nextInt(2)];
+            csv.append(brand).append(' ').append(parts[k][2 + random.nextInt(3)]).append(' ')
+                    .append(shared[random.nextInt(shared.length)]).append(',').append(labels[k]).append('\n');
+        }
+        Path file = dir.resolve("listings.csv");
+        Files.writeString(file, csv);
+        return file;
+    }
+
+    /** The test config; each override is a whole "section: {...}" line that replaces that section. */
+    private TrainConfig config(String... overrides) throws IOException {
+        java.util.LinkedHashMap<String, String> sections = new java.util.LinkedHashMap<>();
+        sections.put("name", "name: routing");
+        sections.put("data", "data: {file: listings.csv, text: [title], label: department}");
+        sections.put("tokenizer", "tokenizer: {vocab_size: 120}");
+        sections.put("features", "features: {max_tokens: 200}");
+        sections.put("evaluation", "evaluation: {folds: 4, threads: 2}");
+        for (String override : overrides) {
+            sections.put(override.substring(0, override.indexOf(':')), override.strip());
+        }
+        Path yaml = dir.resolve("train.yaml");
+        Files.writeString(yaml, String.join("\n", sections.values()) + "\n");
+        return TrainConfig.read(yaml);
+    }
+
+    private static LabelledData data(TrainConfig config) {
+        return LabelledData.read(Path.of(config.data().file()), config.data().text(), config.data().label(), false);
+    }
+
+    @Test
+    void learns_separable_departments_and_reports_cross_validated_and_test_metrics() throws IOException {
+        listings(600, 1);
+        TrainConfig config = config();
+        TrainingRun.Result result = new TrainingRun(config, data(config)).run(Progress.NONE);
+        assertThat(result.labels()).containsExactly("electrical", "garden", "plumbing");
+        assertThat(result.cv().get(Metric.ACCURACY).perFold()).hasSize(4);
+        assertThat(result.cv().get(Metric.ACCURACY).mean()).isGreaterThan(0.95);
+        assertThat(result.test().overall().get(Metric.ACCURACY)).isGreaterThan(0.95);
+        assertThat(result.testRows().length + result.trainRows().length).isEqualTo(600);
+    }
+
+    @Test
+    void the_result_is_the_same_at_any_thread_count_and_the_bundle_bytes_are_reproducible() throws IOException {
+        listings(400, 2);
+        TrainConfig two = config();
+        TrainConfig one = new TrainConfig(two.name(), two.data(), two.split(), two.tokenizer(), two.features(), two.classifier(),
+                new EvaluationConfig(4, 1, 1));
+        LabelledData data = data(two);
+        byte[] a = BundleAssembler.assemble(two, data, new TrainingRun(two, data).run(Progress.NONE), CREATED);
+        byte[] b = BundleAssembler.assemble(two, data, new TrainingRun(two, data).run(Progress.NONE), CREATED);
+        TrainingRun.Result sequential = new TrainingRun(one, data).run(Progress.NONE);
+        assertThat(a).isEqualTo(b);
+        assertThat(Bundle.read(a).manifest().path("metrics")).isEqualTo(
+                Bundle.read(BundleAssembler.assemble(one, data, sequential, CREATED)).manifest().path("metrics"));
+    }
+
+    @Test
+    void a_bundle_predicts_the_test_rows_as_the_run_scored_them_and_explanations_add_up() throws IOException {
+        listings(500, 3);
+        TrainConfig config = config("classifier: {kind: linear-svm, probabilities: platt}");
+        LabelledData data = data(config);
+        TrainingRun.Result result = new TrainingRun(config, data).run(Progress.NONE);
+        Bundle bundle = Bundle.read(BundleAssembler.assemble(config, data, result, CREATED));
+        assertThat(bundle.name()).isEqualTo("routing");
+        assertThat(bundle.inputFields()).containsExactly("title");
+        long correct = 0;
+        for (int row : result.testRows()) {
+            Prediction prediction = bundle.predict(Map.of("title", data.texts().get(row)[0]));
+            correct += prediction.label().equals(data.labels().get(row)) ? 1 : 0;
+            assertThat(prediction.probabilities().values().stream().mapToDouble(Double::doubleValue).sum()).isCloseTo(1.0, within(1e-9));
+        }
+        assertThat((double) correct / result.testRows().length)
+                .isCloseTo(result.test().overall().get(Metric.ACCURACY), within(1e-12));
+
+        Explanation explanation = bundle.explain(Map.of("title", "aquavolt valve pro"), Integer.MAX_VALUE);
+        double sum = explanation.intercept();
+        for (Contribution c : explanation.contributions()) {
+            sum += c.contribution();
+        }
+        assertThat(sum).isCloseTo(explanation.prediction().score(), within(1e-9));
+        assertThat(explanation.contributions()).isNotEmpty().allSatisfy(c -> assertThat(c.feature()).startsWith("title:"));
+    }
+
+    @Test
+    void no_token_of_the_test_part_alone_becomes_a_feature() throws IOException {
+        StringBuilder csv = new StringBuilder("title,department\n");
+        for (int i = 0; i < 200; i++) {
+            csv.append(i % 2 == 0 ? "aqua valve" : "volt switch").append(" only").append(i).append(',')
+                    .append(i % 2 == 0 ? "plumbing" : "electrical").append('\n');
+        }
+        Files.writeString(dir.resolve("listings.csv"), csv);
+        TrainConfig config = config("tokenizer: {kind: word}", "features: {max_tokens: 5000}");
+        LabelledData data = data(config);
+        TrainingRun.Result result = new TrainingRun(config, data).run(Progress.NONE);
+        // With room for every token, each training row's own token is a feature and no test row's is.
+        for (int row : result.trainRows()) {
+            assertThat(result.pipeline().features().indexOf("title", "only" + row)).isNotNegative();
+        }
+        for (int row : result.testRows()) {
+            assertThat(result.pipeline().features().indexOf("title", "only" + row)).isNegative();
+        }
+    }
+
+    @Test
+    void one_label_is_refused() throws IOException {
+        Files.writeString(dir.resolve("listings.csv"), "title,department\na,x\nb,x\n");
+        TrainConfig config = config();
+        assertThatThrownBy(() -> new TrainingRun(config, data(config)))
+                .hasMessage("department: every row has the label \"x\"; a classifier needs at least two labels");
+    }
+
+    @Test
+    void a_positive_class_that_is_not_a_label_is_refused() throws IOException {
+        listings(50, 5);
+        Path yaml = dir.resolve("train.yaml");
+        Files.writeString(yaml, "data: {file: listings.csv, text: [title], label: department, positive: tools}\n");
+        TrainConfig config = TrainConfig.read(yaml);
+        assertThatThrownBy(() -> new TrainingRun(config, data(config))).hasMessageContaining("labels");
+    }
+
+    @Test
+    void more_folds_than_the_smallest_class_has_rows_is_refused() throws IOException {
+        Files.writeString(dir.resolve("listings.csv"), "title,department\n" + "aqua valve,p\n".repeat(30) + "volt amp,e\nvolt switch,e\nvolt fuse,e\n");
+        TrainConfig config = config();
+        assertThatThrownBy(() -> new TrainingRun(config, data(config)).run(Progress.NONE))
+                .hasMessageContaining("fold count 4 exceeds");
+    }
+
+}
