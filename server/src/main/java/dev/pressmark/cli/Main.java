@@ -22,6 +22,12 @@ import picocli.CommandLine.Option;
             PredictCommand.class,
             ReportCommand.class,
             VocabCommand.class,
+            PublishCommand.class,
+            VersionsCommand.class,
+            ActivateCommand.class,
+            RollbackCommand.class,
+            VerifyCommand.class,
+            HistoryCommand.class,
             CommandLine.HelpCommand.class})
 public final class Main {
 

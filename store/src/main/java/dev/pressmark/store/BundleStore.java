@@ -1,0 +1,97 @@
+package dev.pressmark.store;
+
+import java.time.Duration;
+import java.util.List;
+import java.util.Optional;
+
+/**
+ * The versioned bundle store. Every published bundle is kept under an immutable tag with the
+ * SHA-256 of the whole file; at most one version per model is active; rolling back is one atomic
+ * step; a version whose bytes no longer match their checksum is reported and never served. The
+ * contract is the same on an SQLite file and on a shared PostgreSQL database.
+ *
+ * <p>Model names match {@value Names#MODEL_PATTERN}, tags {@value Names#TAG_PATTERN}. Every
+ * failure is a {@link StoreException}; an {@code actor} is who asked (a user or a service name)
+ * and goes into the audit events.
+ */
+public interface BundleStore extends AutoCloseable {
+
+    /** The default store: an SQLite file in the working directory. */
+    String DEFAULT_URL = "sqlite:./pressmark.db";
+
+    /**
+     * Opens (and on first use creates) the store at {@code url}: {@code sqlite:PATH},
+     * {@code jdbc:sqlite:PATH} or {@code jdbc:postgresql://HOST[:PORT]/DATABASE}, the user and
+     * password of PostgreSQL taken from the URL or else from {@code PRESSMARK_STORE_USER} and
+     * {@code PRESSMARK_STORE_PASSWORD}. Migrates the schema; refuses a store whose schema is
+     * newer than this program.
+     */
+    static BundleStore open(String url) {
+        return JdbcBundleStore.open(StoreUrl.parse(url, System.getenv()));
+    }
+
+    /**
+     * Checks the bundle (every entry's checksum, through the bundle reader), computes the SHA-256
+     * of the whole file, and stores it as {@code model}/{@code tag} in one transaction. A tag that
+     * exists is refused, even with identical bytes. The version is not activated.
+     */
+    Version publish(String model, String tag, byte[] bundle, String actor);
+
+    /** Makes {@code tag} the active version of {@code model}. Activating the active version again changes nothing. */
+    Activation activate(String model, String tag, String actor, String reason);
+
+    /**
+     * Re-activates the version that was active before the current one, appending an activation.
+     * Repeated rollbacks walk back through the history; at its start this fails.
+     */
+    Activation rollback(String model, String actor);
+
+    /** Marks a version retired: it stays stored and listed but can no longer be activated. The active version cannot be retired. */
+    void retire(String model, String tag, String actor);
+
+    /** Every model, by name. */
+    List<ModelSummary> models();
+
+    /** A model's versions, newest first. Fails for an unknown model. */
+    List<Version> versions(String model);
+
+    /** One version's metadata. */
+    Optional<Version> version(String model, String tag);
+
+    /** The active version's metadata, if the model has one. */
+    Optional<Version> activeVersion(String model);
+
+    /**
+     * Reads a version for serving: streams its stored bytes through the bundle reader and the
+     * SHA-256 at once, and fails with {@link StoreException#CORRUPT} if they do not match.
+     */
+    LoadedBundle load(String model, String tag);
+
+    /** Recomputes the SHA-256 of every stored version, or of one model's when {@code model} is not empty. */
+    VerifyReport verify(Optional<String> model);
+
+    /** A model's activations, newest first. */
+    List<Activation> activations(String model);
+
+    /** A model's audit events, newest first. */
+    List<StoreEvent> events(String model);
+
+    /** The newest activation sequence number in the store, 0 when there is none: cheap to poll. */
+    long changeSequence();
+
+    /** Every activation with a sequence number above {@code sequence}, oldest first. */
+    List<Activation> activationsSince(long sequence);
+
+    /**
+     * Waits until the change sequence exceeds {@code sequence} or {@code timeout} passes, and
+     * returns the sequence then. PostgreSQL wakes the waiter through LISTEN/NOTIFY; both
+     * databases are also polled, so a lost notification only delays the answer.
+     */
+    long awaitChange(long sequence, Duration timeout) throws InterruptedException;
+
+    /** Where the store is, for messages: a file path or host:port/database, never a password. */
+    String describe();
+
+    @Override
+    void close();
+}

@@ -1,0 +1,28 @@
+package dev.pressmark.store;
+
+import java.util.Map;
+
+/** What differs between the two databases: column types in the migrations and row locking. */
+enum Dialect {
+    SQLITE("sqlite", Map.of(
+            "id_pk", "INTEGER PRIMARY KEY AUTOINCREMENT",
+            "bytes", "BLOB"), ""),
+    // AUTOINCREMENT above and an identity here both guarantee ids are never reused, which the change feed needs
+    POSTGRESQL("postgresql", Map.of(
+            "id_pk", "BIGINT GENERATED ALWAYS AS IDENTITY PRIMARY KEY",
+            "bytes", "BYTEA"), " FOR UPDATE");
+
+    final String label;
+    final Map<String, String> placeholders;
+    /**
+     * Appended to the select of a model's row to serialise writers of one model. SQLite needs
+     * none: every write transaction begins IMMEDIATE and so holds the database's write lock.
+     */
+    final String lockClause;
+
+    Dialect(String label, Map<String, String> placeholders, String lockClause) {
+        this.label = label;
+        this.placeholders = placeholders;
+        this.lockClause = lockClause;
+    }
+}

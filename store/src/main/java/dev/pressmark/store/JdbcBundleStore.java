@@ -1,0 +1,626 @@
+package dev.pressmark.store;
+
+import com.zaxxer.hikari.HikariDataSource;
+import dev.pressmark.core.bundle.BundleArchive;
+import dev.pressmark.core.bundle.BundleContents;
+import dev.pressmark.core.bundle.BundleException;
+import dev.pressmark.core.bundle.Sha256;
+import java.io.IOException;
+import java.io.InputStream;
+import java.security.DigestInputStream;
+import java.security.MessageDigest;
+import java.sql.Connection;
+import java.sql.PreparedStatement;
+import java.sql.ResultSet;
+import java.sql.SQLException;
+import java.time.Clock;
+import java.time.Duration;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.Objects;
+import java.util.Optional;
+
+/**
+ * The store over JDBC, one implementation for both databases; {@link Dialect} holds what differs.
+ *
+ * <p>Every change is one transaction that first locks the model's row (PostgreSQL) or takes the
+ * database's write lock at BEGIN (SQLite), so two writers of one model never interleave. Reads
+ * are single statements in auto-commit mode, each seeing one consistent snapshot.
+ *
+ * <p>Rollback keeps a stack in the activation rows: each row's {@code parent_seq} is the row it
+ * replaced. An activation pushes (parent = the current row); a rollback pops (it re-activates the
+ * parent's version and takes the parent's own parent), so repeated rollbacks walk back through
+ * what was active, and an activation after a rollback starts a new branch.
+ */
+final class JdbcBundleStore implements BundleStore {
+
+    /** How often {@link #awaitChange} polls the sequence when no notification arrives: 500 ms. */
+    static final long POLL_INTERVAL_MS = 500;
+    static final String NOTIFY_CHANNEL = "pressmark_activations";
+
+    private final StoreUrl url;
+    private final HikariDataSource pool;
+    private final Clock clock;
+    private final PostgresListener listener;
+
+    private JdbcBundleStore(StoreUrl url, HikariDataSource pool, Clock clock) {
+        this.url = url;
+        this.pool = pool;
+        this.clock = clock;
+        this.listener = url.dialect() == Dialect.POSTGRESQL ? new PostgresListener(url, NOTIFY_CHANNEL) : null;
+    }
+
+    static JdbcBundleStore open(StoreUrl url) {
+        return new JdbcBundleStore(url, StoreDatabase.open(url), Clock.systemUTC());
+    }
+
+    @Override
+    public Version publish(String model, String tag, byte[] bundle, String actor) {
+        Names.model(model);
+        Names.tag(tag);
+        Names.actor(actor);
+        Objects.requireNonNull(bundle, "bundle");
+        BundleContents contents;
+        try {
+            contents = BundleArchive.read(bundle);
+        } catch (BundleException e) {
+            String message = e.getMessage().startsWith("not a bundle") ? e.getMessage() : "not a valid bundle: " + e.getMessage();
+            throw new StoreException(StoreException.NOT_A_BUNDLE, message, e);
+        }
+        String sha256 = Sha256.hex(bundle);
+        String manifest = contents.manifestJson();
+        long now = now();
+        return write("publish " + model + " " + tag, c -> {
+            try (PreparedStatement insert = c.prepareStatement("INSERT INTO models (name, created_at) VALUES (?, ?) ON CONFLICT (name) DO NOTHING")) {
+                insert.setString(1, model);
+                insert.setLong(2, now);
+                insert.executeUpdate();
+            }
+            lockModel(c, model);
+            if (versionRow(c, model, tag) != null) {
+                throw new StoreException(StoreException.TAG_EXISTS, model + " " + tag + " is already published; a published tag is immutable,"
+                        + " so publish under a new tag");
+            }
+            try (PreparedStatement insert = c.prepareStatement("INSERT INTO versions (model, tag, sha256, size, created_at, manifest_json, bundle)"
+                    + " VALUES (?, ?, ?, ?, ?, ?, ?)")) {
+                insert.setString(1, model);
+                insert.setString(2, tag);
+                insert.setString(3, sha256);
+                insert.setLong(4, bundle.length);
+                insert.setLong(5, now);
+                insert.setString(6, manifest);
+                insert.setBytes(7, bundle);
+                insert.executeUpdate();
+            }
+            event(c, now, actor, StoreEvent.PUBLISH, model, tag, "sha256 " + sha256 + ", " + bundle.length + " bytes");
+            return new Version(model, tag, sha256, bundle.length, Instant.ofEpochMilli(now), manifest, false, false);
+        });
+    }
+
+    @Override
+    public Activation activate(String model, String tag, String actor, String reason) {
+        Names.model(model);
+        Names.tag(tag);
+        Names.actor(actor);
+        String why = reason == null ? "" : reason;
+        long now = now();
+        return write("activate " + model + " " + tag, c -> {
+            lockModel(c, model);
+            VersionRow version = versionRow(c, model, tag);
+            if (version == null) {
+                throw noSuchVersion(model, tag);
+            }
+            if (version.retired()) {
+                throw new StoreException(StoreException.RETIRED, model + " " + tag + " is retired and cannot be activated");
+            }
+            Activation current = currentActivation(c, model);
+            if (current != null && current.tag().equals(tag)) {
+                return current;
+            }
+            Activation added = appendActivation(c, model, tag, now, actor, why, false, current == null ? null : current.sequence());
+            event(c, now, actor, StoreEvent.ACTIVATE, model, tag, (current == null ? "first activation" : "replaces " + current.tag())
+                    + (why.isEmpty() ? "" : "; " + why));
+            return added;
+        });
+    }
+
+    @Override
+    public Activation rollback(String model, String actor) {
+        Names.model(model);
+        Names.actor(actor);
+        long now = now();
+        return write("roll back " + model, c -> {
+            lockModel(c, model);
+            Activation current = currentActivation(c, model);
+            if (current == null) {
+                throw new StoreException(StoreException.NO_ROLLBACK, model + " has never been activated; there is nothing to roll back");
+            }
+            Long parentSeq = parentOf(c, current.sequence());
+            if (parentSeq == null) {
+                throw new StoreException(StoreException.NO_ROLLBACK, "cannot roll back " + model + ": " + current.tag()
+                        + " is the start of its activation history; nothing was active before it");
+            }
+            Activation parent = activation(c, parentSeq);
+            VersionRow version = versionRow(c, model, parent.tag());
+            if (version.retired()) {
+                throw new StoreException(StoreException.RETIRED, "cannot roll back " + model + " to " + parent.tag() + ": it is retired");
+            }
+            Activation added = appendActivation(c, model, parent.tag(), now, actor, "rollback from " + current.tag(), true,
+                    parentOf(c, parentSeq));
+            event(c, now, actor, StoreEvent.ROLLBACK, model, parent.tag(), "rolled back from " + current.tag());
+            return added;
+        });
+    }
+
+    @Override
+    public void retire(String model, String tag, String actor) {
+        Names.model(model);
+        Names.tag(tag);
+        Names.actor(actor);
+        long now = now();
+        write("retire " + model + " " + tag, c -> {
+            lockModel(c, model);
+            VersionRow version = versionRow(c, model, tag);
+            if (version == null) {
+                throw noSuchVersion(model, tag);
+            }
+            Activation current = currentActivation(c, model);
+            if (current != null && current.tag().equals(tag)) {
+                throw new StoreException(StoreException.ACTIVE, model + " " + tag + " is the active version and cannot be retired;"
+                        + " activate another version first");
+            }
+            if (version.retired()) {
+                return null;
+            }
+            try (PreparedStatement update = c.prepareStatement("UPDATE versions SET retired_at = ? WHERE id = ?")) {
+                update.setLong(1, now);
+                update.setLong(2, version.id());
+                update.executeUpdate();
+            }
+            event(c, now, actor, StoreEvent.RETIRE, model, tag, "");
+            return null;
+        });
+    }
+
+    @Override
+    public List<ModelSummary> models() {
+        return read("list models", c -> {
+            List<ModelSummary> models = new ArrayList<>();
+            try (PreparedStatement select = c.prepareStatement("SELECT m.name, m.created_at,"
+                    + " (SELECT a.tag FROM activations a WHERE a.model = m.name ORDER BY a.seq DESC LIMIT 1),"
+                    + " (SELECT COUNT(*) FROM versions v WHERE v.model = m.name)"
+                    + " FROM models m ORDER BY m.name");
+                    ResultSet rs = select.executeQuery()) {
+                while (rs.next()) {
+                    models.add(new ModelSummary(rs.getString(1), Instant.ofEpochMilli(rs.getLong(2)), Optional.ofNullable(rs.getString(3)),
+                            rs.getInt(4)));
+                }
+            }
+            return models;
+        });
+    }
+
+    private static final String VERSION_COLUMNS = "v.model, v.tag, v.sha256, v.size, v.created_at, v.manifest_json,"
+            + " CASE WHEN v.tag = (SELECT a.tag FROM activations a WHERE a.model = v.model ORDER BY a.seq DESC LIMIT 1) THEN 1 ELSE 0 END,"
+            + " CASE WHEN v.retired_at IS NULL THEN 0 ELSE 1 END";
+
+    @Override
+    public List<Version> versions(String model) {
+        Names.model(model);
+        return read("list versions of " + model, c -> {
+            requireModel(c, model);
+            List<Version> versions = new ArrayList<>();
+            try (PreparedStatement select = c.prepareStatement("SELECT " + VERSION_COLUMNS + " FROM versions v WHERE v.model = ? ORDER BY v.id DESC")) {
+                select.setString(1, model);
+                try (ResultSet rs = select.executeQuery()) {
+                    while (rs.next()) {
+                        versions.add(version(rs));
+                    }
+                }
+            }
+            return versions;
+        });
+    }
+
+    @Override
+    public Optional<Version> version(String model, String tag) {
+        Names.model(model);
+        Names.tag(tag);
+        return read("read " + model + " " + tag, c -> {
+            try (PreparedStatement select = c.prepareStatement("SELECT " + VERSION_COLUMNS + " FROM versions v WHERE v.model = ? AND v.tag = ?")) {
+                select.setString(1, model);
+                select.setString(2, tag);
+                try (ResultSet rs = select.executeQuery()) {
+                    return rs.next() ? Optional.of(version(rs)) : Optional.empty();
+                }
+            }
+        });
+    }
+
+    @Override
+    public Optional<Version> activeVersion(String model) {
+        Names.model(model);
+        return read("read the active version of " + model, c -> {
+            try (PreparedStatement select = c.prepareStatement("SELECT " + VERSION_COLUMNS + " FROM versions v WHERE v.model = ? AND v.tag ="
+                    + " (SELECT a.tag FROM activations a WHERE a.model = ? ORDER BY a.seq DESC LIMIT 1)")) {
+                select.setString(1, model);
+                select.setString(2, model);
+                try (ResultSet rs = select.executeQuery()) {
+                    return rs.next() ? Optional.of(version(rs)) : Optional.empty();
+                }
+            }
+        });
+    }
+
+    @Override
+    public LoadedBundle load(String model, String tag) {
+        Version version = version(model, tag).orElseThrow(() -> noSuchVersion(model, tag));
+        return read("load " + model + " " + tag, c -> {
+            try (PreparedStatement select = c.prepareStatement("SELECT bundle FROM versions WHERE model = ? AND tag = ?")) {
+                select.setString(1, model);
+                select.setString(2, tag);
+                try (ResultSet rs = select.executeQuery()) {
+                    if (!rs.next()) {
+                        throw noSuchVersion(model, tag);
+                    }
+                    MessageDigest digest = Sha256.newDigest();
+                    BundleContents contents;
+                    try (InputStream in = new DigestInputStream(rs.getBinaryStream(1), digest)) {
+                        contents = BundleArchive.read(in);
+                    } catch (BundleException e) {
+                        throw corrupt(version, "its stored bytes are not a valid bundle (" + e.getMessage() + ")", e);
+                    } catch (IOException e) {
+                        throw new StoreException(StoreException.FAILURE, "cannot read " + model + " " + tag + ": " + e.getMessage(), e);
+                    }
+                    String actual = Sha256.toHex(digest.digest());
+                    if (!actual.equals(version.sha256())) {
+                        throw corrupt(version, "its stored bytes have SHA-256 " + actual + ", recorded " + version.sha256(), null);
+                    }
+                    return new LoadedBundle(version, contents);
+                }
+            }
+        });
+    }
+
+    private static StoreException corrupt(Version version, String why, Throwable cause) {
+        return new StoreException(StoreException.CORRUPT, version.model() + " " + version.tag() + " is corrupt and will not be served: " + why, cause);
+    }
+
+    private record Stored(long id, String model, String tag, String sha256, long size) {
+    }
+
+    @Override
+    public VerifyReport verify(Optional<String> model) {
+        model.ifPresent(Names::model);
+        return read("verify", c -> {
+            if (model.isPresent()) {
+                requireModel(c, model.get());
+            }
+            List<Stored> stored = new ArrayList<>();
+            try (PreparedStatement select = c.prepareStatement("SELECT id, model, tag, sha256, size FROM versions"
+                    + (model.isPresent() ? " WHERE model = ?" : "") + " ORDER BY model, id")) {
+                if (model.isPresent()) {
+                    select.setString(1, model.get());
+                }
+                try (ResultSet rs = select.executeQuery()) {
+                    while (rs.next()) {
+                        stored.add(new Stored(rs.getLong(1), rs.getString(2), rs.getString(3), rs.getString(4), rs.getLong(5)));
+                    }
+                }
+            }
+            List<VerifyReport.Mismatch> mismatches = new ArrayList<>();
+            // one bundle at a time, so that memory holds at most one of them
+            try (PreparedStatement select = c.prepareStatement("SELECT bundle FROM versions WHERE id = ?")) {
+                for (Stored version : stored) {
+                    select.setLong(1, version.id());
+                    try (ResultSet rs = select.executeQuery()) {
+                        if (!rs.next()) {
+                            continue; // cannot happen: versions are never deleted
+                        }
+                        MessageDigest digest = Sha256.newDigest();
+                        long size = 0;
+                        try (InputStream in = rs.getBinaryStream(1)) {
+                            byte[] buffer = new byte[64 * 1024];
+                            for (int n = in.read(buffer); n >= 0; n = in.read(buffer)) {
+                                digest.update(buffer, 0, n);
+                                size += n;
+                            }
+                        } catch (IOException e) {
+                            throw new StoreException(StoreException.FAILURE, "cannot read " + version.model() + " " + version.tag() + ": "
+                                    + e.getMessage(), e);
+                        }
+                        String actual = Sha256.toHex(digest.digest());
+                        if (!actual.equals(version.sha256()) || size != version.size()) {
+                            mismatches.add(new VerifyReport.Mismatch(version.model(), version.tag(), version.sha256(), actual, version.size(), size));
+                        }
+                    }
+                }
+            }
+            return new VerifyReport(stored.size(), mismatches);
+        });
+    }
+
+    private static final String ACTIVATION_COLUMNS = "seq, model, tag, activated_at, actor, reason, is_rollback";
+
+    @Override
+    public List<Activation> activations(String model) {
+        Names.model(model);
+        return read("read the activations of " + model, c -> {
+            requireModel(c, model);
+            try (PreparedStatement select = c.prepareStatement("SELECT " + ACTIVATION_COLUMNS + " FROM activations WHERE model = ? ORDER BY seq DESC")) {
+                select.setString(1, model);
+                return activationList(select);
+            }
+        });
+    }
+
+    @Override
+    public List<StoreEvent> events(String model) {
+        Names.model(model);
+        return read("read the events of " + model, c -> {
+            requireModel(c, model);
+            List<StoreEvent> events = new ArrayList<>();
+            try (PreparedStatement select = c.prepareStatement("SELECT id, at, actor, action, model, tag, detail FROM events WHERE model = ? ORDER BY id DESC")) {
+                select.setString(1, model);
+                try (ResultSet rs = select.executeQuery()) {
+                    while (rs.next()) {
+                        events.add(new StoreEvent(rs.getLong(1), Instant.ofEpochMilli(rs.getLong(2)), rs.getString(3), rs.getString(4),
+                                rs.getString(5), rs.getString(6), rs.getString(7)));
+                    }
+                }
+            }
+            return events;
+        });
+    }
+
+    @Override
+    public long changeSequence() {
+        return read("read the change sequence", JdbcBundleStore::changeSequence);
+    }
+
+    private static long changeSequence(Connection c) throws SQLException {
+        try (PreparedStatement select = c.prepareStatement("SELECT COALESCE(MAX(seq), 0) FROM activations");
+                ResultSet rs = select.executeQuery()) {
+            rs.next();
+            return rs.getLong(1);
+        }
+    }
+
+    @Override
+    public List<Activation> activationsSince(long sequence) {
+        return read("read the activations since " + sequence, c -> {
+            try (PreparedStatement select = c.prepareStatement("SELECT " + ACTIVATION_COLUMNS + " FROM activations WHERE seq > ? ORDER BY seq")) {
+                select.setLong(1, sequence);
+                return activationList(select);
+            }
+        });
+    }
+
+    @Override
+    public long awaitChange(long sequence, Duration timeout) throws InterruptedException {
+        long deadline = System.nanoTime() + timeout.toNanos();
+        while (true) {
+            long seen = listener == null ? 0 : listener.notifications();
+            long current = changeSequence();
+            long remainingMs = (deadline - System.nanoTime()) / 1_000_000;
+            if (current > sequence || remainingMs <= 0) {
+                return current;
+            }
+            long waitMs = Math.min(remainingMs, POLL_INTERVAL_MS);
+            if (listener != null) {
+                listener.awaitNotificationAfter(seen, waitMs);
+            } else {
+                Thread.sleep(waitMs);
+            }
+        }
+    }
+
+    /** How many notifications the PostgreSQL listener has received; -1 on SQLite. A test seam. */
+    long notificationsReceived() {
+        return listener == null ? -1 : listener.notifications();
+    }
+
+    /** A pooled connection, configured as the store's own are. A test seam. */
+    Connection rawForTests() throws SQLException {
+        return pool.getConnection();
+    }
+
+    @Override
+    public String describe() {
+        return url.describe();
+    }
+
+    @Override
+    public void close() {
+        if (listener != null) {
+            listener.close();
+        }
+        pool.close();
+    }
+
+    // ---- rows ----
+
+    private record VersionRow(long id, boolean retired) {
+    }
+
+    private static VersionRow versionRow(Connection c, String model, String tag) throws SQLException {
+        try (PreparedStatement select = c.prepareStatement("SELECT id, retired_at FROM versions WHERE model = ? AND tag = ?")) {
+            select.setString(1, model);
+            select.setString(2, tag);
+            try (ResultSet rs = select.executeQuery()) {
+                if (!rs.next()) {
+                    return null;
+                }
+                long id = rs.getLong(1);
+                rs.getLong(2);
+                return new VersionRow(id, !rs.wasNull());
+            }
+        }
+    }
+
+    private void lockModel(Connection c, String model) throws SQLException {
+        if (!modelExists(c, model, url.dialect().lockClause)) {
+            throw noSuchModel(model);
+        }
+    }
+
+    private static void requireModel(Connection c, String model) throws SQLException {
+        if (!modelExists(c, model, "")) {
+            throw noSuchModel(model);
+        }
+    }
+
+    private static boolean modelExists(Connection c, String model, String lockClause) throws SQLException {
+        try (PreparedStatement select = c.prepareStatement("SELECT name FROM models WHERE name = ?" + lockClause)) {
+            select.setString(1, model);
+            try (ResultSet rs = select.executeQuery()) {
+                return rs.next();
+            }
+        }
+    }
+
+    private static Activation currentActivation(Connection c, String model) throws SQLException {
+        try (PreparedStatement select = c.prepareStatement("SELECT " + ACTIVATION_COLUMNS + " FROM activations WHERE model = ? ORDER BY seq DESC LIMIT 1")) {
+            select.setString(1, model);
+            List<Activation> rows = activationList(select);
+            return rows.isEmpty() ? null : rows.get(0);
+        }
+    }
+
+    private static Activation activation(Connection c, long seq) throws SQLException {
+        try (PreparedStatement select = c.prepareStatement("SELECT " + ACTIVATION_COLUMNS + " FROM activations WHERE seq = ?")) {
+            select.setLong(1, seq);
+            return activationList(select).get(0);
+        }
+    }
+
+    private static Long parentOf(Connection c, long seq) throws SQLException {
+        try (PreparedStatement select = c.prepareStatement("SELECT parent_seq FROM activations WHERE seq = ?")) {
+            select.setLong(1, seq);
+            try (ResultSet rs = select.executeQuery()) {
+                rs.next();
+                long parent = rs.getLong(1);
+                return rs.wasNull() ? null : parent;
+            }
+        }
+    }
+
+    private Activation appendActivation(Connection c, String model, String tag, long now, String actor, String reason, boolean rollback,
+            Long parentSeq) throws SQLException {
+        try (PreparedStatement insert = c.prepareStatement("INSERT INTO activations (model, tag, activated_at, actor, reason, is_rollback, parent_seq)"
+                + " VALUES (?, ?, ?, ?, ?, ?, ?)")) {
+            insert.setString(1, model);
+            insert.setString(2, tag);
+            insert.setLong(3, now);
+            insert.setString(4, actor);
+            insert.setString(5, reason);
+            insert.setInt(6, rollback ? 1 : 0);
+            if (parentSeq == null) {
+                insert.setNull(7, java.sql.Types.BIGINT);
+            } else {
+                insert.setLong(7, parentSeq);
+            }
+            insert.executeUpdate();
+        }
+        if (url.dialect() == Dialect.POSTGRESQL) {
+            // delivered when the transaction commits, and not at all if it rolls back
+            try (PreparedStatement notify = c.prepareStatement("SELECT pg_notify(?, ?)")) {
+                notify.setString(1, NOTIFY_CHANNEL);
+                notify.setString(2, model);
+                notify.execute();
+            }
+        }
+        return currentActivation(c, model);
+    }
+
+    private static void event(Connection c, long now, String actor, String action, String model, String tag, String detail) throws SQLException {
+        try (PreparedStatement insert = c.prepareStatement("INSERT INTO events (at, actor, action, model, tag, detail) VALUES (?, ?, ?, ?, ?, ?)")) {
+            insert.setLong(1, now);
+            insert.setString(2, actor);
+            insert.setString(3, action);
+            insert.setString(4, model);
+            insert.setString(5, tag);
+            insert.setString(6, detail);
+            insert.executeUpdate();
+        }
+    }
+
+    private static List<Activation> activationList(PreparedStatement select) throws SQLException {
+        List<Activation> rows = new ArrayList<>();
+        try (ResultSet rs = select.executeQuery()) {
+            while (rs.next()) {
+                rows.add(new Activation(rs.getLong(1), rs.getString(2), rs.getString(3), Instant.ofEpochMilli(rs.getLong(4)), rs.getString(5),
+                        rs.getString(6), rs.getInt(7) != 0));
+            }
+        }
+        return rows;
+    }
+
+    private static Version version(ResultSet rs) throws SQLException {
+        return new Version(rs.getString(1), rs.getString(2), rs.getString(3), rs.getLong(4), Instant.ofEpochMilli(rs.getLong(5)),
+                rs.getString(6), rs.getInt(7) != 0, rs.getInt(8) != 0);
+    }
+
+    private static StoreException noSuchModel(String model) {
+        return new StoreException(StoreException.NO_SUCH_MODEL, "no model " + model + " in the store");
+    }
+
+    private static StoreException noSuchVersion(String model, String tag) {
+        return new StoreException(StoreException.NO_SUCH_VERSION, "no version " + tag + " of model " + model + " in the store");
+    }
+
+    private long now() {
+        return clock.millis();
+    }
+
+    // ---- transactions ----
+
+    @FunctionalInterface
+    private interface Work<T> {
+        T run(Connection connection) throws SQLException;
+    }
+
+    private <T> T write(String operation, Work<T> work) {
+        try (Connection c = pool.getConnection()) {
+            c.setAutoCommit(false);
+            try {
+                T result = work.run(c);
+                c.commit();
+                return result;
+            } catch (SQLException | RuntimeException e) {
+                try {
+                    c.rollback();
+                } catch (SQLException rollbackFailure) {
+                    e.addSuppressed(rollbackFailure);
+                }
+                throw e;
+            } finally {
+                c.setAutoCommit(true);
+            }
+        } catch (SQLException e) {
+            throw failure(operation, e);
+        }
+    }
+
+    private <T> T read(String operation, Work<T> work) {
+        try (Connection c = pool.getConnection()) {
+            return work.run(c);
+        } catch (SQLException e) {
+            throw failure(operation, e);
+        }
+    }
+
+    private StoreException failure(String operation, SQLException e) {
+        String message = String.valueOf(e.getMessage());
+        String lower = message.toLowerCase(Locale.ROOT);
+        if (lower.contains("readonly") || lower.contains("read-only")) {
+            return new StoreException(StoreException.READ_ONLY, url.describe() + ": cannot " + operation + ": the store is read-only", e);
+        }
+        if (url.dialect() == Dialect.POSTGRESQL && e.getSQLState() != null && e.getSQLState().startsWith("08")) {
+            return StoreDatabase.openFailure(url, e);
+        }
+        return new StoreException(StoreException.FAILURE, url.describe() + ": cannot " + operation + ": " + StoreUrl.redact(message), e);
+    }
+}

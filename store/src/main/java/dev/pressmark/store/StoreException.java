@@ -1,0 +1,37 @@
+package dev.pressmark.store;
+
+import dev.pressmark.core.PressmarkException;
+
+/**
+ * A store operation that cannot be done: bad input, a state that forbids it, or a store that
+ * cannot be reached or trusted. The {@link #code()} is one of this class's constants.
+ */
+public final class StoreException extends PressmarkException {
+
+    private static final long serialVersionUID = 1L;
+
+    public static final String URL = "store-url";
+    public static final String UNREACHABLE = "store-unreachable";
+    public static final String NOT_A_STORE = "store-not-a-store";
+    public static final String READ_ONLY = "store-read-only";
+    public static final String SCHEMA_NEWER = "store-schema-newer";
+    public static final String FAILURE = "store-failure";
+    public static final String INVALID_NAME = "invalid-model-name";
+    public static final String INVALID_TAG = "invalid-tag";
+    public static final String NOT_A_BUNDLE = "not-a-bundle";
+    public static final String TAG_EXISTS = "tag-exists";
+    public static final String NO_SUCH_MODEL = "no-such-model";
+    public static final String NO_SUCH_VERSION = "no-such-version";
+    public static final String RETIRED = "version-retired";
+    public static final String ACTIVE = "version-active";
+    public static final String NO_ROLLBACK = "no-rollback";
+    public static final String CORRUPT = "version-corrupt";
+
+    public StoreException(String code, String message) {
+        super(code, message);
+    }
+
+    public StoreException(String code, String message, Throwable cause) {
+        super(code, message, cause);
+    }
+}

@@ -1,0 +1,469 @@
+package dev.pressmark.store;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import dev.pressmark.core.bundle.BundleArchive;
+import java.security.MessageDigest;
+import java.sql.Connection;
+import java.sql.PreparedStatement;
+import java.sql.SQLException;
+import java.sql.Statement;
+import java.time.Duration;
+import java.util.ArrayList;
+import java.util.HexFormat;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.Set;
+import java.util.TreeSet;
+import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
+import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.AfterEach;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Test;
+
+/**
+ * The store's contract, run on each backend by a subclass that says where a fresh, empty store
+ * is and how to reach its tables directly.
+ */
+abstract class BundleStoreContract {
+
+    static final String ACTOR = "ci";
+
+    BundleStore store;
+
+    /** A URL of a fresh, empty store for the current test. */
+    abstract String freshStoreUrl() throws Exception;
+
+    /** A direct JDBC connection to the tables of the store last opened, bypassing it. */
+    abstract Connection rawConnection() throws SQLException;
+
+    String url;
+
+    @BeforeEach
+    void openStore() throws Exception {
+        url = freshStoreUrl();
+        store = BundleStore.open(url);
+    }
+
+    @AfterEach
+    void closeStore() {
+        if (store != null) {
+            store.close();
+        }
+    }
+
+    private Version publish(String model, String tag, long seed) {
+        return store.publish(model, tag, TestBundles.bundle(model, seed), ACTOR);
+    }
+
+    private static String jdkSha256(byte[] bytes) throws Exception {
+        // the JDK's digest, independent of the project's helper (which is checked against NIST's vectors)
+        return HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(bytes));
+    }
+
+    @Test
+    void a_published_version_is_listed_with_the_whole_files_sha256_and_size_and_is_not_active() throws Exception {
+        byte[] bundle = TestBundles.bundle("routing", 1);
+        Version published = store.publish("routing", "1.0.0", bundle, ACTOR);
+        assertThat(published.sha256()).isEqualTo(jdkSha256(bundle));
+        List<Version> versions = store.versions("routing");
+        assertThat(versions).hasSize(1);
+        Version listed = versions.get(0);
+        assertThat(listed.tag()).isEqualTo("1.0.0");
+        assertThat(listed.sha256()).isEqualTo(jdkSha256(bundle));
+        assertThat(listed.sizeBytes()).isEqualTo(bundle.length);
+        assertThat(listed.active()).isFalse();
+        assertThat(listed.retired()).isFalse();
+        assertThat(listed.manifestJson()).contains("\"name\":\"routing\"").contains("\"format_version\":1");
+        assertThat(store.activeVersion("routing")).isEmpty();
+        assertThat(store.models()).extracting(ModelSummary::name).containsExactly("routing");
+    }
+
+    @Test
+    void versions_are_listed_newest_first() {
+        publish("routing", "1.0.0", 1);
+        publish("routing", "1.1.0", 2);
+        publish("routing", "0.9.0", 3);
+        assertThat(store.versions("routing")).extracting(Version::tag).containsExactly("0.9.0", "1.1.0", "1.0.0");
+    }
+
+    @Test
+    void a_published_tag_is_immutable_even_with_identical_bytes() {
+        byte[] bundle = TestBundles.bundle("routing", 1);
+        store.publish("routing", "1.0.0", bundle, ACTOR);
+        assertThatThrownBy(() -> store.publish("routing", "1.0.0", bundle, ACTOR))
+                .isInstanceOf(StoreException.class)
+                .hasMessageContaining("immutable")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.TAG_EXISTS);
+        assertThatThrownBy(() -> store.publish("routing", "1.0.0", TestBundles.bundle("routing", 2), ACTOR))
+                .hasMessageContaining("routing 1.0.0 is already published");
+        assertThat(store.versions("routing")).hasSize(1);
+    }
+
+    @Test
+    void the_same_tag_may_exist_under_two_models() {
+        publish("routing", "1.0.0", 1);
+        publish("risk", "1.0.0", 2);
+        assertThat(store.models()).extracting(ModelSummary::name).containsExactly("risk", "routing");
+    }
+
+    @Test
+    void activating_a_version_makes_it_the_only_active_one() {
+        publish("routing", "1.0.0", 1);
+        publish("routing", "1.1.0", 2);
+        store.activate("routing", "1.0.0", ACTOR, "first");
+        store.activate("routing", "1.1.0", ACTOR, "better");
+        assertThat(store.activeVersion("routing")).map(Version::tag).contains("1.1.0");
+        assertThat(store.versions("routing")).filteredOn(Version::active).extracting(Version::tag).containsExactly("1.1.0");
+        assertThat(store.models().get(0).activeTag()).contains("1.1.0");
+    }
+
+    @Test
+    void activating_the_active_version_again_appends_nothing() {
+        publish("routing", "1.0.0", 1);
+        Activation first = store.activate("routing", "1.0.0", ACTOR, "");
+        Activation again = store.activate("routing", "1.0.0", ACTOR, "");
+        assertThat(again.sequence()).isEqualTo(first.sequence());
+        assertThat(store.activations("routing")).hasSize(1);
+    }
+
+    @Test
+    void repeated_rollbacks_walk_back_through_the_activation_history_and_stop_at_its_start() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        publish("routing", "c", 3);
+        store.activate("routing", "a", ACTOR, "");
+        store.activate("routing", "b", ACTOR, "");
+        store.activate("routing", "c", ACTOR, "");
+
+        assertThat(store.rollback("routing", ACTOR).tag()).isEqualTo("b");
+        assertThat(store.activeVersion("routing")).map(Version::tag).contains("b");
+        assertThat(store.rollback("routing", ACTOR).tag()).isEqualTo("a");
+        assertThatThrownBy(() -> store.rollback("routing", ACTOR))
+                .isInstanceOf(StoreException.class)
+                .hasMessageContaining("start of its activation history")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.NO_ROLLBACK);
+        assertThat(store.activeVersion("routing")).map(Version::tag).contains("a");
+        // the history is append-only: three activations and two rollbacks
+        assertThat(store.activations("routing")).extracting(Activation::tag).containsExactly("a", "b", "c", "b", "a");
+        assertThat(store.activations("routing")).extracting(Activation::rollback).containsExactly(true, true, false, false, false);
+    }
+
+    @Test
+    void an_activation_after_a_rollback_rolls_back_to_the_version_it_replaced() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        publish("routing", "c", 3);
+        store.activate("routing", "a", ACTOR, "");
+        store.activate("routing", "b", ACTOR, "");
+        store.rollback("routing", ACTOR);
+        store.activate("routing", "c", ACTOR, "");
+        assertThat(store.rollback("routing", ACTOR).tag()).isEqualTo("a");
+    }
+
+    @Test
+    void rolling_back_a_model_never_activated_fails_clearly() {
+        publish("routing", "a", 1);
+        assertThatThrownBy(() -> store.rollback("routing", ACTOR))
+                .isInstanceOf(StoreException.class).hasMessage("routing has never been activated; there is nothing to roll back");
+    }
+
+    @Test
+    void a_retired_version_cannot_be_activated_and_the_active_one_cannot_be_retired() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        store.activate("routing", "a", ACTOR, "");
+        assertThatThrownBy(() -> store.retire("routing", "a", ACTOR))
+                .isInstanceOf(StoreException.class).hasMessageContaining("active version and cannot be retired")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.ACTIVE);
+        store.retire("routing", "b", ACTOR);
+        assertThat(store.version("routing", "b")).map(Version::retired).contains(true);
+        assertThatThrownBy(() -> store.activate("routing", "b", ACTOR, ""))
+                .isInstanceOf(StoreException.class).hasMessage("routing b is retired and cannot be activated");
+        assertThat(store.activeVersion("routing")).map(Version::tag).contains("a");
+    }
+
+    @Test
+    void a_rollback_onto_a_retired_version_is_refused() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        store.activate("routing", "a", ACTOR, "");
+        store.activate("routing", "b", ACTOR, "");
+        store.retire("routing", "a", ACTOR);
+        assertThatThrownBy(() -> store.rollback("routing", ACTOR))
+                .isInstanceOf(StoreException.class).hasMessage("cannot roll back routing to a: it is retired");
+        assertThat(store.activeVersion("routing")).map(Version::tag).contains("b");
+    }
+
+    @Test
+    void a_loaded_version_has_the_published_entries() {
+        publish("routing", "1.0.0", 7);
+        LoadedBundle loaded = store.load("routing", "1.0.0");
+        Map<String, byte[]> expected = TestBundles.entries("routing", 7);
+        for (Map.Entry<String, byte[]> entry : expected.entrySet()) {
+            assertThat(loaded.contents().entry(entry.getKey())).as(entry.getKey()).isEqualTo(entry.getValue());
+        }
+        assertThat(loaded.version().tag()).isEqualTo("1.0.0");
+    }
+
+    @Test
+    void verify_passes_on_untouched_versions() {
+        publish("routing", "a", 1);
+        publish("risk", "a", 2);
+        VerifyReport report = store.verify(Optional.empty());
+        assertThat(report.ok()).isTrue();
+        assertThat(report.checked()).isEqualTo(2);
+        assertThat(store.verify(Optional.of("risk")).checked()).isEqualTo(1);
+    }
+
+    @Test
+    void bytes_altered_in_the_database_fail_verify_naming_the_version_and_are_never_served() throws Exception {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        byte[] tampered = TestBundles.bundle("routing", 2);
+        tampered[tampered.length / 2] ^= 0x40;
+        try (Connection c = rawConnection(); PreparedStatement update = c.prepareStatement("UPDATE versions SET bundle = ? WHERE tag = 'b'")) {
+            update.setBytes(1, tampered);
+            assertThat(update.executeUpdate()).isEqualTo(1);
+        }
+        VerifyReport report = store.verify(Optional.empty());
+        assertThat(report.ok()).isFalse();
+        assertThat(report.checked()).isEqualTo(2);
+        assertThat(report.mismatches()).extracting(VerifyReport.Mismatch::model, VerifyReport.Mismatch::tag)
+                .containsExactly(org.assertj.core.groups.Tuple.tuple("routing", "b"));
+        assertThat(report.mismatches().get(0).describe()).startsWith("routing b: SHA-256 ");
+        assertThatThrownBy(() -> store.load("routing", "b"))
+                .isInstanceOf(StoreException.class).hasMessageStartingWith("routing b is corrupt and will not be served")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.CORRUPT);
+        assertThat(store.load("routing", "a").contents().entries()).hasSize(4);
+    }
+
+    @Test
+    void truncated_bytes_in_the_database_are_reported_with_their_size() throws Exception {
+        publish("routing", "a", 1);
+        byte[] cut = java.util.Arrays.copyOf(TestBundles.bundle("routing", 1), 100);
+        try (Connection c = rawConnection(); PreparedStatement update = c.prepareStatement("UPDATE versions SET bundle = ?")) {
+            update.setBytes(1, cut);
+            update.executeUpdate();
+        }
+        VerifyReport.Mismatch mismatch = store.verify(Optional.of("routing")).mismatches().get(0);
+        assertThat(mismatch.actualSizeBytes()).isEqualTo(100);
+        assertThat(mismatch.describe()).contains("size 100 bytes");
+        assertThatThrownBy(() -> store.load("routing", "a")).isInstanceOf(StoreException.class).hasMessageContaining("is corrupt");
+    }
+
+    @Test
+    void names_and_tags_outside_the_patterns_are_refused_quoting_the_pattern() {
+        byte[] bundle = TestBundles.bundle("x", 1);
+        for (String name : List.of("Routing", "-routing", "", "routing_v2", "a".repeat(65))) {
+            assertThatThrownBy(() -> store.publish(name, "1.0.0", bundle, ACTOR)).as(name)
+                    .isInstanceOf(StoreException.class).hasMessageContaining("must match [a-z0-9][a-z0-9-]{0,63}");
+        }
+        for (String tag : List.of(".1", "1.0 beta", "", "v/1", "t".repeat(65))) {
+            assertThatThrownBy(() -> store.publish("routing", tag, bundle, ACTOR)).as(tag)
+                    .isInstanceOf(StoreException.class).hasMessageContaining("must match [A-Za-z0-9][A-Za-z0-9._-]{0,63}");
+        }
+        assertThat(store.models()).isEmpty();
+    }
+
+    @Test
+    void bytes_that_are_not_a_bundle_are_refused_and_nothing_is_stored() {
+        assertThatThrownBy(() -> store.publish("routing", "1", "title,label\n".getBytes(java.nio.charset.StandardCharsets.UTF_8), ACTOR))
+                .isInstanceOf(StoreException.class).hasMessageStartingWith("not a bundle: it does not start as a ZIP file")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.NOT_A_BUNDLE);
+        byte[] damaged = TestBundles.bundle("routing", 1);
+        damaged[200] ^= 1;
+        assertThatThrownBy(() -> store.publish("routing", "1", damaged, ACTOR)).isInstanceOf(StoreException.class)
+                .hasMessageStartingWith("not a valid bundle: ").hasMessageContaining("checksum");
+        assertThat(store.models()).isEmpty();
+    }
+
+    @Test
+    void unknown_models_and_versions_are_named() {
+        publish("routing", "a", 1);
+        assertThatThrownBy(() -> store.activate("routing", "zz", ACTOR, "")).hasMessage("no version zz of model routing in the store");
+        assertThatThrownBy(() -> store.activate("nobody", "a", ACTOR, "")).hasMessage("no model nobody in the store");
+        assertThatThrownBy(() -> store.versions("nobody")).hasMessage("no model nobody in the store");
+        assertThatThrownBy(() -> store.verify(Optional.of("nobody"))).hasMessage("no model nobody in the store");
+        assertThatThrownBy(() -> store.load("routing", "zz")).hasMessage("no version zz of model routing in the store");
+    }
+
+    @Test
+    void every_change_is_an_event_with_its_actor() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        store.activate("routing", "a", "alice", "launch");
+        store.activate("routing", "b", "bob", "");
+        store.rollback("routing", "carol");
+        store.retire("routing", "b", "dave");
+        List<StoreEvent> events = store.events("routing");
+        assertThat(events).extracting(StoreEvent::action).containsExactly("retire", "rollback", "activate", "activate", "publish", "publish");
+        assertThat(events).extracting(StoreEvent::actor).containsExactly("dave", "carol", "bob", "alice", ACTOR, ACTOR);
+        assertThat(events.get(3).detail()).contains("launch");
+        assertThat(events.get(1).detail()).isEqualTo("rolled back from b");
+    }
+
+    @Test
+    void the_change_sequence_grows_with_every_activation_and_lists_what_changed() throws InterruptedException {
+        assertThat(store.changeSequence()).isZero();
+        publish("routing", "a", 1);
+        publish("risk", "a", 2);
+        assertThat(store.changeSequence()).isZero();
+        long first = store.activate("routing", "a", ACTOR, "").sequence();
+        long second = store.activate("risk", "a", ACTOR, "").sequence();
+        assertThat(second).isGreaterThan(first);
+        assertThat(store.changeSequence()).isEqualTo(second);
+        assertThat(store.activationsSince(first)).extracting(Activation::model).containsExactly("risk");
+        assertThat(store.awaitChange(0, Duration.ofSeconds(5))).isEqualTo(second);
+    }
+
+    @Test
+    void a_waiter_wakes_when_another_connection_activates() throws Exception {
+        publish("routing", "a", 1);
+        long before = store.changeSequence();
+        ExecutorService executor = Executors.newSingleThreadExecutor();
+        try (BundleStore other = BundleStore.open(url)) {
+            Future<Long> waiter = executor.submit(() -> store.awaitChange(before, Duration.ofSeconds(30)));
+            Thread.sleep(300);
+            other.activate("routing", "a", ACTOR, "");
+            assertThat(waiter.get(30, TimeUnit.SECONDS)).isGreaterThan(before);
+        } finally {
+            executor.shutdownNow();
+        }
+    }
+
+    @Test
+    void a_reopened_store_has_everything_that_was_committed() {
+        publish("routing", "a", 1);
+        store.activate("routing", "a", ACTOR, "");
+        store.close();
+        store = BundleStore.open(url);
+        assertThat(store.activeVersion("routing")).map(Version::tag).contains("a");
+        assertThat(store.verify(Optional.empty()).ok()).isTrue();
+    }
+
+    @Test
+    void a_store_whose_schema_is_newer_than_the_program_is_refused_naming_both_versions() throws Exception {
+        store.close();
+        try (Connection c = rawConnection(); Statement s = c.createStatement()) {
+            s.executeUpdate("INSERT INTO flyway_schema_history (installed_rank, version, description, type, script, checksum, installed_by,"
+                    + " execution_time, success) VALUES (99, '7', 'future', 'SQL', 'V7__future.sql', 0, 'test', 0, " + trueLiteral() + ")");
+        }
+        assertThatThrownBy(() -> BundleStore.open(url))
+                .isInstanceOf(StoreException.class)
+                .hasMessageContaining("has store schema version 7, newer than this program's 1")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.SCHEMA_NEWER);
+        store = null;
+    }
+
+    @Test
+    void a_database_holding_other_tables_is_not_taken_for_a_store() throws Exception {
+        store.close();
+        store = null;
+        try (Connection c = rawConnection(); Statement s = c.createStatement()) {
+            s.executeUpdate("DROP TABLE flyway_schema_history");
+        }
+        assertThatThrownBy(() -> BundleStore.open(url))
+                .isInstanceOf(StoreException.class).hasMessageContaining("is not a pressmark store: it holds other tables")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.NOT_A_STORE);
+    }
+
+    String trueLiteral() {
+        return "TRUE";
+    }
+
+    /**
+     * Eight threads publish and activate at once. Afterwards every publish that returned is
+     * stored exactly once, nothing else is, and at every moment a reader looked, the active
+     * version of each model was a stored, non-retired version.
+     */
+    @Test
+    void eight_threads_publishing_and_activating_at_once_lose_and_duplicate_nothing() throws Exception {
+        int threads = 8;
+        int perThread = 6;
+        List<String> models = List.of("alpha", "beta");
+        Set<String> published = ConcurrentHashMap.newKeySet();
+        List<String> problems = java.util.Collections.synchronizedList(new ArrayList<>());
+        ExecutorService pool = Executors.newFixedThreadPool(threads + 1);
+        CountDownLatch start = new CountDownLatch(1);
+        try {
+            List<Future<?>> workers = new ArrayList<>();
+            for (int t = 0; t < threads; t++) {
+                int thread = t;
+                workers.add(pool.submit(() -> {
+                    start.await();
+                    for (int i = 0; i < perThread; i++) {
+                        String model = models.get((thread + i) % models.size());
+                        String tag = "t" + thread + "." + i;
+                        store.publish(model, tag, TestBundles.bundle(model, thread * 100L + i), "worker-" + thread);
+                        published.add(model + " " + tag);
+                        store.activate(model, tag, "worker-" + thread, "");
+                    }
+                    return null;
+                }));
+            }
+            Future<?> reader = pool.submit(() -> {
+                start.await();
+                while (!workers.stream().allMatch(Future::isDone)) {
+                    for (String model : models) {
+                        checkActive(model, problems);
+                    }
+                }
+                return null;
+            });
+            start.countDown();
+            for (Future<?> worker : workers) {
+                worker.get(120, TimeUnit.SECONDS);
+            }
+            reader.get(120, TimeUnit.SECONDS);
+        } finally {
+            pool.shutdownNow();
+        }
+        assertThat(problems).isEmpty();
+        Set<String> stored = new TreeSet<>();
+        int rows = 0;
+        for (String model : models) {
+            for (Version version : store.versions(model)) {
+                stored.add(model + " " + version.tag());
+                rows++;
+            }
+            checkActive(model, problems);
+        }
+        assertThat(rows).isEqualTo(threads * perThread);
+        assertThat(stored).isEqualTo(new TreeSet<>(published));
+        assertThat(problems).isEmpty();
+        assertThat(store.verify(Optional.empty()).ok()).isTrue();
+        long activations = models.stream().mapToLong(m -> store.activations(m).size()).sum();
+        assertThat(activations).isEqualTo(threads * perThread);
+    }
+
+    private void checkActive(String model, List<String> problems) {
+        try {
+            Optional<Version> active = store.activeVersion(model);
+            if (active.isPresent() && (active.get().retired() || !active.get().active())) {
+                problems.add(model + ": active pointer names " + active.get());
+            }
+            List<Version> marked = store.versions(model).stream().filter(Version::active).toList();
+            if (marked.size() > 1) {
+                problems.add(model + ": " + marked.size() + " versions marked active");
+            }
+        } catch (StoreException e) {
+            if (!e.code().equals(StoreException.NO_SUCH_MODEL)) {
+                problems.add(model + ": " + e.getMessage());
+            }
+        }
+    }
+
+    @Test
+    void the_manifest_is_kept_as_canonical_json() {
+        publish("routing", "a", 1);
+        String manifest = store.version("routing", "a").orElseThrow().manifestJson();
+        assertThat(manifest).isEqualTo(BundleArchive.read(TestBundles.bundle("routing", 1)).manifestJson());
+    }
+}
