@@ -9,8 +9,6 @@ import dev.pressmark.core.classify.LinearWeights;
 import dev.pressmark.core.feature.FeatureSpace;
 import java.io.IOException;
 import java.nio.file.Path;
-import java.util.ArrayList;
-import java.util.Comparator;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
@@ -56,13 +54,9 @@ final class InspectCommand implements Callable<Integer> {
         LinearWeights weights = loaded.model().weights();
         FeatureSpace space = loaded.pipeline().features();
         for (int score = 0; score < weights.numScores(); score++) {
-            String label = weights.numScores() == 1 ? loaded.labels().get(1) : loaded.labels().get(score);
-            List<Integer> order = new ArrayList<>();
-            for (int j = 0; j < space.featureCount(); j++) {
-                order.add(j);
-            }
+            String label = loaded.labelOfScore(score);
+            List<Integer> order = loaded.featuresByWeight(score);
             int s = score;
-            order.sort(Comparator.comparingDouble((Integer j) -> -weights.weight(s, j)));
             System.out.printf(Locale.ROOT, "%ntop features for %s%n", label);
             for (int i = 0; i < Math.min(features, order.size()); i++) {
                 System.out.printf(Locale.ROOT, "  %+.4f  %s%n", weights.weight(s, order.get(i)), space.featureName(order.get(i)));

@@ -150,6 +150,23 @@ public final class Bundle {
         return model.hasProbabilities();
     }
 
+    /** The label a score speaks for: the second label of a binary model, else the score's own. */
+    public String labelOfScore(int score) {
+        return model.weights().numScores() == 1 ? labels.get(1) : labels.get(score);
+    }
+
+    /** Every feature index, by descending weight in {@code score}, ties by feature name. */
+    public List<Integer> featuresByWeight(int score) {
+        LinearWeights weights = model.weights();
+        FeatureSpace space = pipeline.features();
+        List<Integer> order = new ArrayList<>(space.featureCount());
+        for (int j = 0; j < space.featureCount(); j++) {
+            order.add(j);
+        }
+        order.sort(Comparator.comparingDouble((Integer j) -> -weights.weight(score, j)).thenComparing(space::featureName));
+        return order;
+    }
+
     /** Predicts every item; each item maps every input field to its text. */
     public List<Prediction> predict(List<Map<String, String>> items) {
         List<String[]> rows = rows(items);

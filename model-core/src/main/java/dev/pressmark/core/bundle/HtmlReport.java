@@ -6,7 +6,6 @@ import com.fasterxml.jackson.databind.SerializationFeature;
 import dev.pressmark.core.classify.LinearWeights;
 import dev.pressmark.core.feature.FeatureSpace;
 import java.util.ArrayList;
-import java.util.Comparator;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
@@ -124,13 +123,9 @@ public final class HtmlReport {
         FeatureSpace space = bundle.pipeline().features();
         html.append("<h2>Features with the largest weights</h2>\n<div class=\"bars\">\n");
         for (int score = 0; score < weights.numScores(); score++) {
-            String label = weights.numScores() == 1 ? bundle.labels().get(1) : bundle.labels().get(score);
-            List<Integer> order = new ArrayList<>();
-            for (int j = 0; j < space.featureCount(); j++) {
-                order.add(j);
-            }
+            String label = bundle.labelOfScore(score);
             final int s = score;
-            order.sort(Comparator.comparingDouble((Integer j) -> -weights.weight(s, j)).thenComparing(space::featureName));
+            List<Integer> order = bundle.featuresByWeight(score);
             List<Integer> positive = order.subList(0, Math.min(TOP_FEATURES, order.size()));
             List<Integer> negative = new ArrayList<>(order.subList(Math.max(0, order.size() - TOP_FEATURES), order.size()));
             java.util.Collections.reverse(negative);
