@@ -90,7 +90,37 @@ public final class TrainingRun {
             y[i] = labels.indexOf(data.labels().get(i));
         }
         this.positiveClass = positiveClass(config.data().positive(), labels);
+        requireTextInEveryColumn(data);
         this.fitter = new PipelineFitter(config.tokenizer(), config.features(), config.data().text());
+    }
+
+    private static void requireTextInEveryColumn(LabelledData data) {
+        for (int c = 0; c < data.textColumns().size(); c++) {
+            boolean any = false;
+            for (int i = 0; i < data.rows() && !any; i++) {
+                any = !data.texts().get(i)[c].isBlank();
+            }
+            if (!any) {
+                throw new PressmarkException("empty-column", "text column \"" + data.textColumns().get(c)
+                        + "\" is empty in every row; drop it from data.text");
+            }
+        }
+    }
+
+    /** Fails early, naming the label, when a fold could not hold a row of every class. */
+    private void requireEnoughRowsForFolds(int[] trainLabels) {
+        int[] counts = new int[labels.size()];
+        for (int label : trainLabels) {
+            counts[label]++;
+        }
+        int folds = config.evaluation().folds();
+        for (int k = 0; k < counts.length; k++) {
+            if (counts[k] < folds) {
+                throw new PressmarkException(Resampling.FOLDS_EXCEED_CLASS, "evaluation.folds is " + folds + ", but label \""
+                        + labels.get(k) + "\" has only " + counts[k] + " rows in the training part; lower evaluation.folds"
+                        + " (at most " + Math.max(2, counts[k]) + ") or add rows");
+            }
+        }
     }
 
     private static int positiveClass(String positive, List<String> labels) {
@@ -117,6 +147,7 @@ public final class TrainingRun {
         Split split = split(seed);
         int[] trainRows = split.train();
         int[] trainLabels = select(y, trainRows);
+        requireEnoughRowsForFolds(trainLabels);
         List<Fold> folds = Resampling.stratifiedKFold(trainLabels, labels.size(), config.evaluation().folds(),
                 config.evaluation().repeats(), seed);
 
@@ -132,8 +163,8 @@ public final class TrainingRun {
             platt = PlattScaling.fitScores(outOfFold(results, trainLabels.length), trainLabels, labels.size());
         }
 
+        PipelineFitter.Fitted fitted = fitter.fit(rows(trainRows), progress);
         progress.start("final model", 3);
-        PipelineFitter.Fitted fitted = fitter.fit(rows(trainRows), Progress.NONE);
         progress.advance(1);
         Trained trained = train(fitted.x(), trainLabels, seed);
         trained.warning.ifPresent(w -> warnings.add("final model: " + w));

@@ -143,6 +143,14 @@ class TrainingRunTest {
     }
 
     @Test
+    void a_text_column_empty_in_every_row_is_refused_by_name() throws IOException {
+        Files.writeString(dir.resolve("listings.csv"), "title,brand,department\naqua valve,,p\nvolt amp, ,e\n");
+        TrainConfig config = config("data: {file: listings.csv, text: [title, brand], label: department}");
+        assertThatThrownBy(() -> new TrainingRun(config, data(config)))
+                .hasMessage("text column \"brand\" is empty in every row; drop it from data.text");
+    }
+
+    @Test
     void one_label_is_refused() throws IOException {
         Files.writeString(dir.resolve("listings.csv"), "title,department\na,x\nb,x\n");
         TrainConfig config = config();
@@ -164,7 +172,7 @@ class TrainingRunTest {
         Files.writeString(dir.resolve("listings.csv"), "title,department\n" + "aqua valve,p\n".repeat(30) + "volt amp,e\nvolt switch,e\nvolt fuse,e\n");
         TrainConfig config = config();
         assertThatThrownBy(() -> new TrainingRun(config, data(config)).run(Progress.NONE))
-                .hasMessageContaining("fold count 4 exceeds");
+                .hasMessageStartingWith("evaluation.folds is 4, but label \"e\" has only ");
     }
 
 }
