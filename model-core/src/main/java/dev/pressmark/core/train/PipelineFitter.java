@@ -1,5 +1,6 @@
 package dev.pressmark.core.train;
 
+import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.Progress;
 import dev.pressmark.core.bundle.TextPipeline;
 import dev.pressmark.core.bundle.TokenizerSpec;
@@ -48,7 +49,13 @@ final class PipelineFitter {
                     counts.addText(text);
                 }
             }
-            WordPieceVocabulary vocabulary = new WordPieceTrainer(tokenizer.trainerConfig()).train(counts, progress);
+            WordPieceVocabulary vocabulary;
+            try {
+                vocabulary = new WordPieceTrainer(tokenizer.trainerConfig()).train(counts, progress);
+            } catch (PressmarkException e) {
+                // The trainer speaks of vocab_size; in a training run the key is tokenizer.vocab_size.
+                throw e.getMessage().startsWith("vocab_size") ? new PressmarkException(e.code(), "tokenizer." + e.getMessage(), e) : e;
+            }
             WordPieceEncoder encoder = new WordPieceEncoder(vocabulary, tokenizer.normalizer(), tokenizer.maxWordChars());
             spec = TokenizerSpec.of(encoder);
             fitted = encoder;
