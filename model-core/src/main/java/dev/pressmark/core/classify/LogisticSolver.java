@@ -49,11 +49,8 @@ public final class LogisticSolver {
      */
     static SolverRun solve(SparseMatrix x, boolean[] positive, double[] cost, LogisticConfig config,
             SplittableRandom random, double[] w, double[] alpha) {
-        Rows.checkProblem(x, positive, cost, w);
+        Rows.checkProblem(x, positive, cost, w, alpha);
         int n = x.rows();
-        if (alpha.length != n) {
-            throw new IllegalArgumentException("alpha must have one entry per row (" + n + "), had " + alpha.length);
-        }
         double bias = config.bias();
         double[] qd = Rows.squaredNorms(x, bias);
         double[] rest = new double[n];

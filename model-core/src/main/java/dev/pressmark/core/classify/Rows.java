@@ -59,6 +59,14 @@ final class Rows {
     }
 
     /** Checks the shapes that every binary solve and objective relies on. */
+    /** Checks the arrays of a solve; {@code alpha} is its dual vector, one entry per row. */
+    static void checkProblem(SparseMatrix x, boolean[] positive, double[] cost, double[] w, double[] alpha) {
+        checkProblem(x, positive, cost, w);
+        if (alpha.length != x.rows()) {
+            throw new IllegalArgumentException("alpha must have one entry per row (" + x.rows() + "), had " + alpha.length);
+        }
+    }
+
     static void checkProblem(SparseMatrix x, boolean[] positive, double[] cost, double[] w) {
         int n = x.rows();
         if (positive.length != n) {

@@ -39,11 +39,8 @@ public final class SvmSolver {
      */
     static SolverRun solve(SparseMatrix x, boolean[] positive, double[] cost, SvmConfig config,
             SplittableRandom random, double[] w, double[] alpha) {
-        Rows.checkProblem(x, positive, cost, w);
+        Rows.checkProblem(x, positive, cost, w, alpha);
         int n = x.rows();
-        if (alpha.length != n) {
-            throw new IllegalArgumentException("alpha must have one entry per row (" + n + "), had " + alpha.length);
-        }
         double bias = config.bias();
         boolean hinge = config.loss() == SvmLoss.HINGE;
         double[] diagonal = new double[n];
