@@ -79,19 +79,30 @@ public final class ListingTitles {
         return text.substring(0, at) + text.substring(at + 1);
     }
 
-    /** Prints {@code COUNT} titles (default 20,000), one a line; {@code --with-department} adds a tab and the label. */
+    /**
+     * Prints {@code COUNT} titles (default 20,000), one a line. {@code --with-department} adds a
+     * tab and the label; {@code --csv} prints an RFC 4180 file with the header {@code title,department}.
+     */
     public static void main(String[] args) throws IOException {
         int count = 20_000;
         boolean withDepartment = false;
+        boolean csv = false;
         for (String arg : args) {
-            if (arg.equals("--with-department")) {
-                withDepartment = true;
-            } else {
-                count = Integer.parseInt(arg);
+            switch (arg) {
+                case "--with-department" -> withDepartment = true;
+                case "--csv" -> csv = true;
+                default -> count = Integer.parseInt(arg);
             }
         }
         Writer out = new BufferedWriter(new OutputStreamWriter(System.out, StandardCharsets.UTF_8));
+        if (csv) {
+            out.write("title,department\r\n");
+        }
         for (Listing listing : generate(count, 7)) {
+            if (csv) {
+                out.write('"' + listing.title().replace("\"", "\"\"") + "\"," + listing.department() + "\r\n");
+                continue;
+            }
             out.write(listing.title());
             if (withDepartment) {
                 out.write('\t');

@@ -3,10 +3,17 @@ package dev.pressmark.demo;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
+import dev.pressmark.core.train.LabelledData;
+import java.io.ByteArrayOutputStream;
+import java.io.PrintStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
 import java.util.List;
 import java.util.Map;
 import java.util.stream.Collectors;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
 
 class ListingTitlesTest {
 
@@ -31,6 +38,27 @@ class ListingTitlesTest {
         assertThat(ListingTitles.generate(2000, 5)).allSatisfy(listing -> {
             assertThat(listing.title()).isNotBlank().doesNotContain("\n", "\t");
         });
+    }
+
+    @Test
+    void the_csv_form_reads_back_as_labelled_data(@TempDir Path dir) throws Exception {
+        ByteArrayOutputStream bytes = new ByteArrayOutputStream();
+        PrintStream original = System.out;
+        try (PrintStream capture = new PrintStream(bytes, true, StandardCharsets.UTF_8)) {
+            System.setOut(capture);
+            ListingTitles.main(new String[] {"300", "--csv"});
+        } finally {
+            System.setOut(original);
+        }
+        Path file = dir.resolve("listings.csv");
+        Files.write(file, bytes.toByteArray());
+        LabelledData data = LabelledData.read(file, List.of("title"), "department", false);
+        List<ListingTitles.Listing> expected = ListingTitles.generate(300, 7);
+        assertThat(data.rows()).isEqualTo(300);
+        for (int i = 0; i < 300; i++) {
+            assertThat(data.texts().get(i)[0]).isEqualTo(expected.get(i).title());
+            assertThat(data.labels().get(i)).isEqualTo(expected.get(i).department());
+        }
     }
 
     @Test
