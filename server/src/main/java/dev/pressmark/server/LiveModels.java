@@ -41,7 +41,8 @@ final class LiveModels implements AutoCloseable {
     }
 
     /** What {@code /health/ready} reports. */
-    record Readiness(boolean ready, Optional<String> storeProblem, Map<String, String> serving, Map<String, LoadFailure> failures) {
+    record Readiness(boolean ready, Optional<String> storeProblem, Map<String, String> active, Map<String, String> serving,
+            Map<String, LoadFailure> failures) {
     }
 
     private final BundleStore store;
@@ -181,6 +182,7 @@ final class LiveModels implements AutoCloseable {
     }
 
     Readiness readiness() {
+        Map<String, String> activeTags = new TreeMap<>();
         Map<String, String> serving = new TreeMap<>();
         Map<String, LoadFailure> failed = new TreeMap<>(failures);
         Optional<String> storeProblem = Optional.empty();
@@ -190,6 +192,7 @@ final class LiveModels implements AutoCloseable {
                 if (model.activeTag().isEmpty()) {
                     continue;
                 }
+                activeTags.put(model.name(), model.activeTag().get());
                 Optional<LiveVersion> live = active(model.name());
                 live.ifPresent(v -> serving.put(model.name(), v.tag()));
                 if (live.isEmpty() || !live.get().tag().equals(model.activeTag().get())) {
@@ -200,7 +203,7 @@ final class LiveModels implements AutoCloseable {
             storeProblem = Optional.of(e.getMessage());
             ready = false;
         }
-        return new Readiness(ready && failed.isEmpty(), storeProblem, serving, failed);
+        return new Readiness(ready && failed.isEmpty(), storeProblem, activeTags, serving, failed);
     }
 
     @Override

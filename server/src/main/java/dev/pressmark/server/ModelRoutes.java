@@ -46,12 +46,15 @@ final class ModelRoutes {
         ObjectNode body = views.object().put("status", readiness.ready() ? "ready" : "not-ready");
         body.put("store", readiness.storeProblem().map(p -> "down: " + p).orElse("up"));
         ObjectNode models = body.putObject("models");
-        readiness.serving().forEach((model, tag) -> models.putObject(model).put("serving", tag));
-        readiness.failures().forEach((model, failure) -> {
-            ObjectNode node = models.get(model) instanceof ObjectNode existing ? existing : models.putObject(model);
-            node.put("failed_tag", failure.tag()).put("error", failure.message());
-        });
+        readiness.active().forEach((model, tag) -> models.putObject(model).put("active", tag));
+        readiness.serving().forEach((model, tag) -> model(models, model).put("serving", tag));
+        readiness.failures().forEach((model, failure) -> model(models, model)
+                .put("failed_tag", failure.tag()).put("error", failure.message()));
         ctx.status(readiness.ready() ? 200 : 503).json(body);
+    }
+
+    private static ObjectNode model(ObjectNode models, String name) {
+        return models.get(name) instanceof ObjectNode existing ? existing : models.putObject(name);
     }
 
     void models(Context ctx) {

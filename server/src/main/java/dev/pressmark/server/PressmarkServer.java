@@ -57,6 +57,12 @@ public final class PressmarkServer implements AutoCloseable {
             c.router.ignoreTrailingSlashes = true;
         });
         app.exception(Exception.class, problems::handle);
+        // The framework answers a path no route matches by itself, in plain text; answer that as a problem detail too.
+        app.error(404, ctx -> {
+            if (!Problems.CONTENT_TYPE.equals(ctx.res().getContentType())) {
+                problems.handle(ApiProblem.notFound("no-such-endpoint", "no endpoint " + ctx.method() + " " + ctx.path()), ctx);
+            }
+        });
         app.get("/health", routes::health);
         app.get("/health/ready", routes::ready);
         app.get("/models", routes::models);

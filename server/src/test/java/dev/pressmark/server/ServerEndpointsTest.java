@@ -56,6 +56,8 @@ class ServerEndpointsTest {
             assertThat(ready.json().get("status").asText()).isEqualTo("ready");
             assertThat(ready.json().get("store").asText()).isEqualTo("up");
             assertThat(ready.json().at("/models/routing/serving").asText()).isEqualTo("1.0.0");
+            assertThat(ready.json().at("/models/routing/active").asText()).isEqualTo("1.0.0");
+            assertThat(ready.json().at("/models/routing").has("failed_tag")).isFalse();
         }
     }
 
