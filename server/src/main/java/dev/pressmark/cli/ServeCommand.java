@@ -50,7 +50,8 @@ final class ServeCommand implements Callable<Integer> {
         Optional<BearerToken> admin = adminTokenFile != null ? Optional.of(token(adminTokenFile))
                 : Optional.ofNullable(System.getenv(ADMIN_TOKEN_ENV)).filter(t -> !t.isBlank()).map(BearerToken::of);
         Optional<BearerToken> reader = readerTokenFile == null ? Optional.empty() : Optional.of(token(readerTokenFile));
-        ServerConfig config = new ServerConfig(host, port, maxItems, admin, reader, ServerConfig.DEFAULT_MAX_THREADS);
+        ServerConfig config = new ServerConfig(host, port, maxItems, ServerConfig.DEFAULT_MAX_JSON_BYTES, ServerConfig.DEFAULT_MAX_BUNDLE_BYTES, admin,
+                reader, ServerConfig.DEFAULT_MAX_THREADS);
         BundleStore opened = store.open();
         PressmarkServer server;
         try {

@@ -1,5 +1,6 @@
 package dev.pressmark.server;
 
+import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.store.BundleStore;
 import io.javalin.Javalin;
@@ -33,7 +34,8 @@ public final class PressmarkServer implements AutoCloseable {
     public static PressmarkServer start(BundleStore store, ServerConfig config) {
         Objects.requireNonNull(store, "store");
         Objects.requireNonNull(config, "config");
-        ObjectMapper json = new ObjectMapper();
+        // A body with anything after its JSON value is malformed, not a value plus ignored noise.
+        ObjectMapper json = new ObjectMapper().enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS);
         LiveModels live = LiveModels.start(store);
         try {
             live.awaitInitialLoad(INITIAL_LOAD_WAIT);
@@ -42,7 +44,7 @@ public final class PressmarkServer implements AutoCloseable {
             live.close();
             throw new IllegalStateException("interrupted while loading the active models", e);
         }
-        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config.maxItems()), new Views(json),
+        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json),
                 new Access(config.adminToken(), config.readerToken()));
         Problems problems = new Problems(json);
         Javalin app = Javalin.create(c -> {
@@ -50,7 +52,7 @@ public final class PressmarkServer implements AutoCloseable {
             c.useVirtualThreads = false;
             c.jsonMapper(new JavalinJackson(json, false));
             // Bodies are read and bounded by Requests; this only keeps the framework's own reads in line.
-            c.http.maxRequestSize = ServerConfig.MAX_BUNDLE_BYTES;
+            c.http.maxRequestSize = Math.max(config.maxJsonBytes(), config.maxBundleBytes());
             QueuedThreadPool pool = new QueuedThreadPool(config.maxThreads(), Math.min(MIN_THREADS, config.maxThreads()), IDLE_TIMEOUT_MS);
             pool.setName("pressmark-http");
             c.jetty.threadPool = pool;

@@ -22,26 +22,30 @@ final class Requests {
 
     private final ObjectMapper json;
     private final int maxItems;
+    private final long maxJsonBytes;
+    private final long maxBundleBytes;
 
-    Requests(ObjectMapper json, int maxItems) {
+    Requests(ObjectMapper json, ServerConfig config) {
         this.json = json;
-        this.maxItems = maxItems;
+        this.maxItems = config.maxItems();
+        this.maxJsonBytes = config.maxJsonBytes();
+        this.maxBundleBytes = config.maxBundleBytes();
     }
 
-    /** The body as JSON, after checking that it says it is JSON and fits {@link ServerConfig#MAX_JSON_BYTES}. */
+    /** The body as JSON, after checking that it says it is JSON and fits the JSON body limit. */
     JsonNode jsonBody(Context ctx) throws IOException {
         requireType(ctx, Set.of(JSON));
-        byte[] body = body(ctx, ServerConfig.MAX_JSON_BYTES);
+        byte[] body = body(ctx, maxJsonBytes);
         if (body.length == 0) {
             throw ApiProblem.malformedJson("the body is empty; it must be a JSON object");
         }
         return json.readTree(body);
     }
 
-    /** The body as a bundle file, up to {@link ServerConfig#MAX_BUNDLE_BYTES}. */
+    /** The body as a bundle file, up to the bundle body limit. */
     byte[] bundleBody(Context ctx) {
         requireType(ctx, BUNDLE_TYPES);
-        return body(ctx, ServerConfig.MAX_BUNDLE_BYTES);
+        return body(ctx, maxBundleBytes);
     }
 
     /** The {@code items} of a predict or explain request, each mapping every input field of the model to its text. */
@@ -146,6 +150,7 @@ final class Requests {
     }
 
     private static ApiProblem tooLarge(long limitBytes, String had) {
-        return ApiProblem.tooLarge("the body may have at most " + limitBytes + " bytes (" + (limitBytes >> 20) + " MiB), had " + had);
+        String mib = limitBytes >= 1L << 20 ? " (" + (limitBytes >> 20) + " MiB)" : "";
+        return ApiProblem.tooLarge("the body may have at most " + limitBytes + " bytes" + mib + ", had " + had);
     }
 }

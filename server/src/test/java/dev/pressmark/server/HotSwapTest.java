@@ -3,11 +3,13 @@ package dev.pressmark.server;
 import static org.assertj.core.api.Assertions.assertThat;
 
 import com.fasterxml.jackson.databind.JsonNode;
+import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.store.BundleStore;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Map;
 import java.util.Set;
 import java.util.concurrent.ConcurrentHashMap;
 import java.util.concurrent.ExecutorService;
@@ -28,7 +30,8 @@ class HotSwapTest {
 
     /** What the service promises: every replica serves a new activation within 2 s. */
     private static final Duration PICKED_UP_WITHIN = Duration.ofSeconds(2);
-    private static final String ONE_ITEM = "{\"items\":[{\"title\":\"voltamp outlet pro\"}]}";
+    private static final String TITLE = "voltamp outlet pro";
+    private static final String ONE_ITEM = "{\"items\":[{\"title\":\"" + TITLE + "\"}]}";
 
     private static byte[] first;
     private static byte[] second;
@@ -124,6 +127,11 @@ class HotSwapTest {
             cli.activate("routing", "1.0.0", "cli", "first");
             awaitServed(s, "1.0.0", PICKED_UP_WITHIN);
 
+            // the version a response names must be the one that computed it: each version's own score for the item
+            Map<String, Double> scoreOf = Map.of(
+                    "1.0.0", Bundle.read(first).predict(Map.of("title", TITLE)).score(),
+                    "1.1.0", Bundle.read(second).predict(Map.of("title", TITLE)).score());
+            assertThat(scoreOf.get("1.0.0")).isNotEqualTo(scoreOf.get("1.1.0"));
             Set<String> seen = ConcurrentHashMap.newKeySet();
             AtomicInteger failures = new AtomicInteger();
             AtomicLong requests = new AtomicLong();
@@ -138,7 +146,8 @@ class HotSwapTest {
                         try {
                             Http.Answer answer = http.postJson("/models/routing/predict", ONE_ITEM);
                             requests.incrementAndGet();
-                            if (answer.status() != 200 || answer.json().at("/results/0/label").asText().isEmpty()) {
+                            Double expected = answer.status() == 200 ? scoreOf.get(answer.json().get("version").asText()) : null;
+                            if (expected == null || answer.json().at("/results/0/score").asDouble() != expected) {
                                 fail(failures, firstFailures, answer.status() + " " + answer.body());
                             } else {
                                 seen.add(answer.json().get("version").asText());

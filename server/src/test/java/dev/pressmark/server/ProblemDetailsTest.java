@@ -3,6 +3,8 @@ package dev.pressmark.server;
 import static org.assertj.core.api.Assertions.assertThat;
 
 import com.fasterxml.jackson.databind.JsonNode;
+import java.io.ByteArrayInputStream;
+import java.net.http.HttpRequest;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.Arrays;
@@ -59,6 +61,8 @@ class ProblemDetailsTest {
             JsonNode json = problem(s.http.postJson("/models/routing/predict", "{\"items\": [{\"title\": "), 400, "/models/routing/predict");
             assertThat(json.get("type").asText()).endsWith("malformed-json");
             problem(s.http.postJson("/models/routing/predict", ""), 400, "/models/routing/predict");
+            assertThat(problem(s.http.postJson("/models/routing/predict", "{\"items\":[]} {}"), 400, "/models/routing/predict")
+                    .get("type").asText()).endsWith("malformed-json");
         }
     }
 
@@ -164,10 +168,27 @@ class ProblemDetailsTest {
     @Test
     void a_json_body_over_8_mib_is_a_413() {
         try (Served s = served()) {
-            byte[] body = new byte[(int) ServerConfig.MAX_JSON_BYTES + 1];
+            byte[] body = new byte[(int) ServerConfig.DEFAULT_MAX_JSON_BYTES + 1];
             Arrays.fill(body, (byte) ' ');
             JsonNode json = problem(s.http.post("/models/routing/predict", "application/json", body), 413, "/models/routing/predict");
             assertThat(json.get("detail").asText()).contains("8 MiB");
+        }
+    }
+
+    @Test
+    void a_bundle_over_its_limit_is_a_413_whether_or_not_its_length_was_declared() {
+        ServerConfig config = ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN)))
+                .withBodyLimits(ServerConfig.DEFAULT_MAX_JSON_BYTES, bundle.length - 1);
+        try (Served s = served(config)) {
+            problem(s.http.put("/models/routing/versions/2.0.0", "application/octet-stream", bundle, Served.AS_ADMIN), 413,
+                    "/models/routing/versions/2.0.0");
+            // without a length the body arrives chunked and the limit is found while reading
+            JsonNode chunked = problem(s.http.send(s.http.request("/models/routing/versions/2.0.0", Served.AS_ADMIN)
+                    .header("Content-Type", "application/octet-stream")
+                    .PUT(HttpRequest.BodyPublishers.ofInputStream(() -> new ByteArrayInputStream(bundle)))), 413,
+                    "/models/routing/versions/2.0.0");
+            assertThat(chunked.get("detail").asText()).contains(String.valueOf(bundle.length - 1));
+            assertThat(s.store.version("routing", "2.0.0")).isEmpty();
         }
     }
 
