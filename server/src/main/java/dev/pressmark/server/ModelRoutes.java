@@ -47,13 +47,13 @@ final class ModelRoutes {
         body.put("store", readiness.storeProblem().map(p -> "down: " + p).orElse("up"));
         ObjectNode models = body.putObject("models");
         readiness.active().forEach((model, tag) -> models.putObject(model).put("active", tag));
-        readiness.serving().forEach((model, tag) -> model(models, model).put("serving", tag));
-        readiness.failures().forEach((model, failure) -> model(models, model)
+        readiness.serving().forEach((model, tag) -> entry(models, model).put("serving", tag));
+        readiness.failures().forEach((model, failure) -> entry(models, model)
                 .put("failed_tag", failure.tag()).put("error", failure.message()));
         ctx.status(readiness.ready() ? 200 : 503).json(body);
     }
 
-    private static ObjectNode model(ObjectNode models, String name) {
+    private static ObjectNode entry(ObjectNode models, String name) {
         return models.get(name) instanceof ObjectNode existing ? existing : models.putObject(name);
     }
 

@@ -2,9 +2,11 @@ package dev.pressmark.server;
 
 import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.pressmark.core.PressmarkException;
 import dev.pressmark.store.BundleStore;
 import io.javalin.Javalin;
 import io.javalin.json.JavalinJackson;
+import io.javalin.util.JavalinBindException;
 import java.time.Duration;
 import java.util.Objects;
 import org.eclipse.jetty.util.thread.QueuedThreadPool;
@@ -79,6 +81,10 @@ public final class PressmarkServer implements AutoCloseable {
         app.post("/models/{name}/rollback", routes::rollback);
         try {
             app.start(config.host(), config.port());
+        } catch (JavalinBindException e) {
+            live.close();
+            throw new PressmarkException("port-in-use", config.host() + ":" + config.port()
+                    + ": cannot listen there; another process holds the port (choose another with --port)", e);
         } catch (RuntimeException e) {
             live.close();
             throw e;

@@ -7,6 +7,8 @@ import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.io.InputStreamReader;
 import java.io.UncheckedIOException;
+import java.net.InetAddress;
+import java.net.ServerSocket;
 import java.net.URI;
 import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
@@ -117,6 +119,17 @@ class ServeCommandTest {
             HttpResponse<String> off = send(rollback(child.port()).header("Authorization", "Bearer file-token-9a2e"));
             assertThat(off.statusCode()).isEqualTo(403);
             assertThat(off.body()).contains("--admin-token-file");
+        }
+    }
+
+    @Test
+    void a_port_that_is_taken_is_a_one_line_failure_with_exit_code_1() throws Exception {
+        try (ServerSocket taken = new ServerSocket(0, 1, InetAddress.getLoopbackAddress())) {
+            CommandRun run = CommandRun.of(dir, "", "serve", "--port", String.valueOf(taken.getLocalPort()),
+                    "--store", "sqlite:" + dir.resolve("store.db"));
+            assertThat(run.exitCode()).isEqualTo(1);
+            assertThat(run.err()).contains("pressmark: 127.0.0.1:" + taken.getLocalPort() + ": cannot listen there")
+                    .doesNotContain("\tat ");
         }
     }
 }

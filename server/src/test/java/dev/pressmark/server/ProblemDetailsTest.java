@@ -138,7 +138,10 @@ class ProblemDetailsTest {
             assertThat(s.http.get("/models", "Authorization", "Bearer " + Served.READER).status()).isEqualTo(200);
             assertThat(s.http.postJson("/models/routing/predict", "{\"items\":[{\"title\":\"pipe\"}]}", "Authorization",
                     "Bearer " + Served.READER).status()).isEqualTo(200);
+            assertThat(s.http.get("/models", Served.AS_ADMIN).status()).isEqualTo(200);
+            problem(s.http.get("/models", "Authorization", "Bearer " + Served.READER + "x"), 401, "/models");
             assertThat(s.http.get("/health").status()).isEqualTo(200);
+            assertThat(s.http.get("/health/ready").status()).isEqualTo(200);
             // the reader token reads, but does not administer
             problem(s.http.post("/models/routing/rollback", "application/json", new byte[0], "Authorization", "Bearer " + Served.READER),
                     401, "/models/routing/rollback");
