@@ -63,7 +63,8 @@ public final class PressmarkServer implements AutoCloseable {
         app.exception(Exception.class, problems::handle);
         // The framework answers a path no route matches by itself, in plain text; answer that as a problem detail too.
         app.error(404, ctx -> {
-            if (!Problems.CONTENT_TYPE.equals(ctx.res().getContentType())) {
+            String type = ctx.res().getContentType();
+            if (type == null || !type.startsWith(Problems.CONTENT_TYPE)) {
                 problems.handle(ApiProblem.notFound("no-such-endpoint", "no endpoint " + ctx.method() + " " + ctx.path()), ctx);
             }
         });
