@@ -28,6 +28,7 @@ import picocli.CommandLine.Option;
             RollbackCommand.class,
             VerifyCommand.class,
             HistoryCommand.class,
+            ServeCommand.class,
             CommandLine.HelpCommand.class})
 public final class Main {
 

@@ -1,0 +1,86 @@
+package dev.pressmark.cli;
+
+import dev.pressmark.core.PressmarkException;
+import dev.pressmark.server.BearerToken;
+import dev.pressmark.server.PressmarkServer;
+import dev.pressmark.server.ServerConfig;
+import dev.pressmark.store.BundleStore;
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.util.Optional;
+import java.util.concurrent.Callable;
+import java.util.concurrent.CountDownLatch;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+
+/** {@code pressmark serve}: run the HTTP service until the process is stopped. */
+@Command(name = "serve", mixinStandardHelpOptions = true, description = "Serve the store's active models over HTTP.")
+final class ServeCommand implements Callable<Integer> {
+
+    static final String ADMIN_TOKEN_ENV = "PRESSMARK_ADMIN_TOKEN";
+
+    @Option(names = "--port", paramLabel = "PORT", defaultValue = "" + ServerConfig.DEFAULT_PORT,
+            description = "The TCP port (default: ${DEFAULT-VALUE}; 0 picks a free one).")
+    int port;
+
+    @Option(names = "--host", paramLabel = "HOST", defaultValue = ServerConfig.DEFAULT_HOST,
+            description = "The address to listen on (default: ${DEFAULT-VALUE}).")
+    String host;
+
+    @Option(names = "--admin-token-file", paramLabel = "FILE",
+            description = "A file holding the admin bearer token (else env " + ADMIN_TOKEN_ENV + "; without either the admin endpoints are off).")
+    Path adminTokenFile;
+
+    @Option(names = "--reader-token-file", paramLabel = "FILE",
+            description = "A file holding the bearer token the reading endpoints then require (default: they are open).")
+    Path readerTokenFile;
+
+    @Option(names = "--max-items", paramLabel = "N", defaultValue = "" + ServerConfig.DEFAULT_MAX_ITEMS,
+            description = "The most items one predict or explain request may carry (default: ${DEFAULT-VALUE}).")
+    int maxItems;
+
+    @Mixin
+    StoreOption store;
+
+    @Override
+    public Integer call() throws InterruptedException {
+        Optional<BearerToken> admin = adminTokenFile != null ? Optional.of(token(adminTokenFile))
+                : Optional.ofNullable(System.getenv(ADMIN_TOKEN_ENV)).filter(t -> !t.isBlank()).map(BearerToken::of);
+        Optional<BearerToken> reader = readerTokenFile == null ? Optional.empty() : Optional.of(token(readerTokenFile));
+        ServerConfig config = new ServerConfig(host, port, maxItems, ServerConfig.DEFAULT_MAX_JSON_BYTES, ServerConfig.DEFAULT_MAX_BUNDLE_BYTES, admin,
+                reader, ServerConfig.DEFAULT_MAX_THREADS);
+        BundleStore opened = store.open();
+        PressmarkServer server;
+        try {
+            server = PressmarkServer.start(opened, config);
+        } catch (RuntimeException e) {
+            opened.close();
+            throw e;
+        }
+        CountDownLatch stopped = new CountDownLatch(1);
+        Runtime.getRuntime().addShutdownHook(new Thread(() -> {
+            server.close();
+            opened.close();
+            stopped.countDown();
+        }, "pressmark-shutdown"));
+        System.out.printf("serving on http://%s:%d%n", host, server.port());
+        System.out.flush();
+        stopped.await();
+        return Main.EXIT_OK;
+    }
+
+    private static BearerToken token(Path file) {
+        try {
+            return BearerToken.of(Files.readString(file));
+        } catch (NoSuchFileException e) {
+            throw new PressmarkException("file-missing", file + ": no such file", e);
+        } catch (IOException e) {
+            throw new PressmarkException("file-unreadable", file + ": cannot read: " + e.getMessage(), e);
+        } catch (IllegalArgumentException e) {
+            throw new IllegalArgumentException(file + ": " + e.getMessage(), e);
+        }
+    }
+}

@@ -1,0 +1,83 @@
+package dev.pressmark.server;
+
+import java.util.List;
+import java.util.Objects;
+
+/**
+ * A request the service refuses, carrying everything its problem detail needs. Handlers throw
+ * it; {@link Problems} turns it and every other failure into the response.
+ */
+final class ApiProblem extends RuntimeException {
+
+    private static final long serialVersionUID = 1L;
+
+    /** One bad part of a request: a JSON path such as {@code items[2].title}, a query or path parameter, or a header. */
+    record FieldError(String field, String message) {
+        FieldError {
+            Objects.requireNonNull(field, "field");
+            Objects.requireNonNull(message, "message");
+        }
+    }
+
+    private final int status;
+    private final String slug;
+    private final String title;
+    private final transient List<FieldError> errors;
+
+    ApiProblem(int status, String slug, String title, String detail, List<FieldError> errors) {
+        super(detail);
+        this.status = status;
+        this.slug = slug;
+        this.title = title;
+        this.errors = List.copyOf(errors);
+    }
+
+    static ApiProblem invalid(String detail, List<FieldError> errors) {
+        return new ApiProblem(400, "invalid-request", "Invalid request", detail, errors);
+    }
+
+    static ApiProblem invalidField(String field, String message) {
+        return invalid(field + ": " + message, List.of(new FieldError(field, message)));
+    }
+
+    static ApiProblem malformedJson(String detail) {
+        return new ApiProblem(400, "malformed-json", "Malformed JSON", detail, List.of());
+    }
+
+    static ApiProblem notFound(String slug, String detail) {
+        return new ApiProblem(404, slug, "Not found", detail, List.of());
+    }
+
+    static ApiProblem unauthorized(String detail) {
+        return new ApiProblem(401, "unauthorized", "Unauthorized", detail, List.of());
+    }
+
+    static ApiProblem forbidden(String slug, String detail) {
+        return new ApiProblem(403, slug, "Forbidden", detail, List.of());
+    }
+
+    static ApiProblem tooLarge(String detail) {
+        return new ApiProblem(413, "body-too-large", "Request body too large", detail, List.of());
+    }
+
+    static ApiProblem unsupportedMediaType(String detail) {
+        return new ApiProblem(415, "unsupported-media-type", "Unsupported media type", detail,
+                List.of(new FieldError("Content-Type", detail)));
+    }
+
+    int status() {
+        return status;
+    }
+
+    String slug() {
+        return slug;
+    }
+
+    String title() {
+        return title;
+    }
+
+    List<FieldError> errors() {
+        return errors;
+    }
+}

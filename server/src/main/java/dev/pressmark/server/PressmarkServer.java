@@ -1,0 +1,110 @@
+package dev.pressmark.server;
+
+import com.fasterxml.jackson.databind.DeserializationFeature;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.pressmark.core.PressmarkException;
+import dev.pressmark.store.BundleStore;
+import io.javalin.Javalin;
+import io.javalin.json.JavalinJackson;
+import io.javalin.util.JavalinBindException;
+import java.time.Duration;
+import java.util.Objects;
+import org.eclipse.jetty.util.thread.QueuedThreadPool;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+
+/**
+ * The HTTP service over a store. {@link #start} loads the active models, follows the store's
+ * changes and listens; {@link #close} stops both. The store stays the caller's to close.
+ */
+public final class PressmarkServer implements AutoCloseable {
+
+    private static final Logger LOG = LoggerFactory.getLogger(PressmarkServer.class);
+    /** How long start-up waits for the active models before listening anyway (and reporting not ready). */
+    private static final Duration INITIAL_LOAD_WAIT = Duration.ofSeconds(60);
+    private static final int MIN_THREADS = 4;
+    private static final int IDLE_TIMEOUT_MS = 60_000;
+
+    private final Javalin app;
+    private final LiveModels live;
+
+    private PressmarkServer(Javalin app, LiveModels live) {
+        this.app = app;
+        this.live = live;
+    }
+
+    public static PressmarkServer start(BundleStore store, ServerConfig config) {
+        Objects.requireNonNull(store, "store");
+        Objects.requireNonNull(config, "config");
+        // A body with anything after its JSON value is malformed, not a value plus ignored noise.
+        ObjectMapper json = new ObjectMapper().enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS);
+        LiveModels live = LiveModels.start(store);
+        try {
+            live.awaitInitialLoad(INITIAL_LOAD_WAIT);
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            live.close();
+            throw new IllegalStateException("interrupted while loading the active models", e);
+        }
+        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json),
+                new Access(config.adminToken(), config.readerToken()));
+        Problems problems = new Problems(json);
+        Javalin app = Javalin.create(c -> {
+            c.showJavalinBanner = false;
+            c.useVirtualThreads = false;
+            c.jsonMapper(new JavalinJackson(json, false));
+            // Bodies are read and bounded by Requests; this only keeps the framework's own reads in line.
+            c.http.maxRequestSize = Math.max(config.maxJsonBytes(), config.maxBundleBytes());
+            QueuedThreadPool pool = new QueuedThreadPool(config.maxThreads(), Math.min(MIN_THREADS, config.maxThreads()), IDLE_TIMEOUT_MS);
+            pool.setName("pressmark-http");
+            c.jetty.threadPool = pool;
+            c.router.ignoreTrailingSlashes = true;
+        });
+        app.exception(Exception.class, problems::handle);
+        // The framework answers a path no route matches by itself, in plain text; answer that as a problem detail too.
+        app.error(404, ctx -> {
+            String type = ctx.res().getContentType();
+            if (type == null || !type.startsWith(Problems.CONTENT_TYPE)) {
+                problems.handle(ApiProblem.notFound("no-such-endpoint", "no endpoint " + ctx.method() + " " + ctx.path()), ctx);
+            }
+        });
+        app.get("/health", routes::health);
+        app.get("/health/ready", routes::ready);
+        app.get("/models", routes::models);
+        app.get("/models/{name}", routes::model);
+        app.get("/models/{name}/versions", routes::versions);
+        app.get("/models/{name}/versions/{tag}", routes::version);
+        app.put("/models/{name}/versions/{tag}", routes::publish);
+        app.post("/models/{name}/predict", routes::predictActive);
+        app.post("/models/{name}/versions/{tag}/predict", routes::predictNamed);
+        app.post("/models/{name}/explain", routes::explain);
+        app.put("/models/{name}/active", routes::activate);
+        app.post("/models/{name}/rollback", routes::rollback);
+        try {
+            app.start(config.host(), config.port());
+        } catch (JavalinBindException e) {
+            live.close();
+            throw new PressmarkException("port-in-use", config.host() + ":" + config.port()
+                    + ": cannot listen there; another process holds the port (choose another with --port)", e);
+        } catch (RuntimeException e) {
+            live.close();
+            throw e;
+        }
+        PressmarkServer server = new PressmarkServer(app, live);
+        LOG.info("listening on http://{}:{} (store {}; admin endpoints {}; reading endpoints {})", config.host(), server.port(),
+                store.describe(), config.adminToken().isPresent() ? "enabled" : "disabled",
+                config.readerToken().isPresent() ? "need the reader token" : "open");
+        return server;
+    }
+
+    /** The port listened on; the one picked when the config asked for 0. */
+    public int port() {
+        return app.port();
+    }
+
+    @Override
+    public void close() {
+        app.stop();
+        live.close();
+    }
+}

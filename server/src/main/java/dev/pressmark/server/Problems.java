@@ -1,0 +1,108 @@
+package dev.pressmark.server;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import dev.pressmark.core.PressmarkException;
+import dev.pressmark.core.bundle.BundleException;
+import dev.pressmark.store.StoreException;
+import io.javalin.http.Context;
+import io.javalin.http.HttpResponseException;
+import java.util.List;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+
+/**
+ * The one place where a failure becomes a response: an RFC 9457 problem detail
+ * ({@code application/problem+json}) with {@code type}, {@code title}, {@code status},
+ * {@code detail}, {@code instance} and, when parts of the request were bad, {@code errors}.
+ * A failure nobody anticipated is logged with its stack trace and answered with a 500 that
+ * names no internals.
+ */
+final class Problems {
+
+    static final String CONTENT_TYPE = "application/problem+json";
+    /** Problem types are URNs: stable identifiers that need no web page to exist. */
+    static final String TYPE_PREFIX = "urn:pressmark:problem:";
+
+    private static final Logger LOG = LoggerFactory.getLogger(Problems.class);
+
+    private final ObjectMapper json;
+
+    Problems(ObjectMapper json) {
+        this.json = json;
+    }
+
+    void handle(Exception failure, Context ctx) {
+        ApiProblem problem = toProblem(failure);
+        if (problem.status() >= 500) {
+            LOG.error("{} {} failed", ctx.method(), ctx.path(), failure);
+        }
+        ObjectNode body = json.createObjectNode();
+        body.put("type", TYPE_PREFIX + problem.slug());
+        body.put("title", problem.title());
+        body.put("status", problem.status());
+        body.put("detail", problem.getMessage());
+        body.put("instance", ctx.path());
+        if (!problem.errors().isEmpty()) {
+            ArrayNode errors = body.putArray("errors");
+            for (ApiProblem.FieldError error : problem.errors()) {
+                errors.addObject().put("field", error.field()).put("message", error.message());
+            }
+        }
+        if (problem.status() == 401) {
+            ctx.header("WWW-Authenticate", "Bearer");
+        }
+        ctx.status(problem.status()).contentType(CONTENT_TYPE).result(body.toString());
+    }
+
+    static ApiProblem toProblem(Exception failure) {
+        if (failure instanceof ApiProblem problem) {
+            return problem;
+        }
+        if (failure instanceof StoreException e) {
+            return fromStore(e);
+        }
+        if (failure instanceof BundleException e) {
+            return new ApiProblem(400, "not-a-bundle", "Not a usable bundle", e.getMessage(), List.of());
+        }
+        if (failure instanceof JsonProcessingException e) {
+            return ApiProblem.malformedJson("the body is not valid JSON: " + e.getOriginalMessage());
+        }
+        if (failure instanceof HttpResponseException e) {
+            return fromFramework(e);
+        }
+        if (failure instanceof PressmarkException e) {
+            return new ApiProblem(500, "internal", "Internal error", "the request failed (" + e.code() + ")", List.of());
+        }
+        return new ApiProblem(500, "internal", "Internal error", "the request failed; the server log has the details", List.of());
+    }
+
+    private static ApiProblem fromStore(StoreException e) {
+        return switch (e.code()) {
+            case StoreException.NO_SUCH_MODEL -> ApiProblem.notFound("no-such-model", e.getMessage());
+            case StoreException.NO_SUCH_VERSION -> ApiProblem.notFound("no-such-version", e.getMessage());
+            case StoreException.INVALID_NAME -> ApiProblem.invalidField("name", e.getMessage());
+            case StoreException.INVALID_TAG -> ApiProblem.invalidField("tag", e.getMessage());
+            case StoreException.NOT_A_BUNDLE -> new ApiProblem(400, "not-a-bundle", "Not a usable bundle", e.getMessage(), List.of());
+            case StoreException.TAG_EXISTS -> new ApiProblem(409, "tag-exists", "Tag already published", e.getMessage(), List.of());
+            case StoreException.RETIRED, StoreException.ACTIVE, StoreException.NO_ROLLBACK ->
+                    new ApiProblem(409, e.code(), "Conflict with the version history", e.getMessage(), List.of());
+            case StoreException.UNREACHABLE, StoreException.READ_ONLY ->
+                    new ApiProblem(503, e.code(), "Store unavailable", "the store cannot serve this request now (" + e.code() + ")", List.of());
+            case StoreException.CORRUPT -> new ApiProblem(500, e.code(), "Stored version corrupt", e.getMessage(), List.of());
+            default -> new ApiProblem(500, "internal", "Internal error", "the store failed (" + e.code() + ")", List.of());
+        };
+    }
+
+    private static ApiProblem fromFramework(HttpResponseException e) {
+        int status = e.getStatus();
+        return switch (status) {
+            case 404 -> ApiProblem.notFound("no-such-endpoint", e.getMessage());
+            case 405 -> new ApiProblem(405, "method-not-allowed", "Method not allowed", e.getMessage(), List.of());
+            case 413 -> ApiProblem.tooLarge(e.getMessage());
+            default -> new ApiProblem(status, "http-" + status, "HTTP " + status, e.getMessage(), List.of());
+        };
+    }
+}

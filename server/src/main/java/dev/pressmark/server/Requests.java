@@ -1,0 +1,156 @@
+package dev.pressmark.server;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import io.javalin.http.Context;
+import java.io.ByteArrayOutputStream;
+import java.io.IOException;
+import java.io.InputStream;
+import java.io.UncheckedIOException;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.Set;
+
+/** Reading and checking request bodies: content type, size limit, JSON shape. */
+final class Requests {
+
+    static final String JSON = "application/json";
+    static final Set<String> BUNDLE_TYPES = Set.of("application/octet-stream", "application/zip");
+
+    private final ObjectMapper json;
+    private final int maxItems;
+    private final long maxJsonBytes;
+    private final long maxBundleBytes;
+
+    Requests(ObjectMapper json, ServerConfig config) {
+        this.json = json;
+        this.maxItems = config.maxItems();
+        this.maxJsonBytes = config.maxJsonBytes();
+        this.maxBundleBytes = config.maxBundleBytes();
+    }
+
+    /** The body as JSON, after checking that it says it is JSON and fits the JSON body limit. */
+    JsonNode jsonBody(Context ctx) throws IOException {
+        requireType(ctx, Set.of(JSON));
+        byte[] body = body(ctx, maxJsonBytes);
+        if (body.length == 0) {
+            throw ApiProblem.malformedJson("the body is empty; it must be a JSON object");
+        }
+        return json.readTree(body);
+    }
+
+    /** The body as a bundle file, up to the bundle body limit. */
+    byte[] bundleBody(Context ctx) {
+        requireType(ctx, BUNDLE_TYPES);
+        return body(ctx, maxBundleBytes);
+    }
+
+    /** The {@code items} of a predict or explain request, each mapping every input field of the model to its text. */
+    List<Map<String, String>> items(JsonNode body, List<String> inputFields) {
+        if (!body.isObject()) {
+            throw ApiProblem.invalidField("(body)", "must be a JSON object with an \"items\" array");
+        }
+        JsonNode items = body.get("items");
+        if (items == null || !items.isArray()) {
+            throw ApiProblem.invalidField("items", "must be an array of objects");
+        }
+        if (items.size() > maxItems) {
+            throw ApiProblem.invalidField("items", "must have at most " + maxItems + " items, had " + items.size());
+        }
+        List<ApiProblem.FieldError> errors = new ArrayList<>();
+        List<Map<String, String>> parsed = new ArrayList<>(items.size());
+        for (int i = 0; i < items.size(); i++) {
+            JsonNode item = items.get(i);
+            if (!item.isObject()) {
+                errors.add(new ApiProblem.FieldError("items[" + i + "]", "must be an object"));
+                continue;
+            }
+            Map<String, String> fields = new LinkedHashMap<>();
+            for (String field : inputFields) {
+                JsonNode value = item.get(field);
+                if (value == null || value.isNull()) {
+                    errors.add(new ApiProblem.FieldError("items[" + i + "]." + field, "is missing; the model needs " + inputFields));
+                } else if (!value.isTextual()) {
+                    errors.add(new ApiProblem.FieldError("items[" + i + "]." + field, "must be a string, was " + value.getNodeType()
+                            .toString().toLowerCase(Locale.ROOT)));
+                } else {
+                    fields.put(field, value.textValue());
+                }
+            }
+            parsed.add(fields);
+        }
+        if (!errors.isEmpty()) {
+            // Enough to fix the request without a reply the size of the request.
+            List<ApiProblem.FieldError> shown = errors.subList(0, Math.min(errors.size(), 20));
+            throw ApiProblem.invalid(errors.size() + " item field(s) are missing or not strings", shown);
+        }
+        return parsed;
+    }
+
+    /** A string member of a JSON object body. */
+    static String requiredString(JsonNode body, String field) {
+        JsonNode value = body.isObject() ? body.get(field) : null;
+        if (value == null || !value.isTextual()) {
+            throw ApiProblem.invalidField(field, "must be a string");
+        }
+        return value.textValue();
+    }
+
+    /** An integer query parameter within {@code [min, max]}. */
+    static int intQuery(Context ctx, String name, int fallback, int min, int max) {
+        String raw = ctx.queryParam(name);
+        if (raw == null) {
+            return fallback;
+        }
+        int value;
+        try {
+            value = Integer.parseInt(raw);
+        } catch (NumberFormatException e) {
+            throw ApiProblem.invalidField(name, "must be an integer, was \"" + raw + "\"");
+        }
+        if (value < min || value > max) {
+            throw ApiProblem.invalidField(name, "must be in [" + min + ", " + max + "], was " + value);
+        }
+        return value;
+    }
+
+    private static void requireType(Context ctx, Set<String> accepted) {
+        String header = ctx.header("Content-Type");
+        String type = header == null ? "" : header.split(";", 2)[0].strip().toLowerCase(Locale.ROOT);
+        if (!accepted.contains(type)) {
+            throw ApiProblem.unsupportedMediaType("Content-Type must be " + String.join(" or ", accepted.stream().sorted().toList())
+                    + ", was " + (header == null ? "missing" : "\"" + header + "\""));
+        }
+    }
+
+    /** Reads the body, stopping as soon as it passes {@code limitBytes}, whether or not a length was declared. */
+    private static byte[] body(Context ctx, long limitBytes) {
+        long declared = ctx.req().getContentLengthLong();
+        if (declared > limitBytes) {
+            throw tooLarge(limitBytes, declared + " bytes");
+        }
+        try (InputStream in = ctx.req().getInputStream()) {
+            ByteArrayOutputStream out = new ByteArrayOutputStream(declared > 0 ? (int) declared : 8192);
+            byte[] buffer = new byte[64 * 1024];
+            long total = 0;
+            for (int n; (n = in.read(buffer)) >= 0; ) {
+                total += n;
+                if (total > limitBytes) {
+                    throw tooLarge(limitBytes, "more");
+                }
+                out.write(buffer, 0, n);
+            }
+            return out.toByteArray();
+        } catch (IOException e) {
+            throw new UncheckedIOException("reading the request body failed", e);
+        }
+    }
+
+    private static ApiProblem tooLarge(long limitBytes, String had) {
+        String mib = limitBytes >= 1L << 20 ? " (" + (limitBytes >> 20) + " MiB)" : "";
+        return ApiProblem.tooLarge("the body may have at most " + limitBytes + " bytes" + mib + ", had " + had);
+    }
+}

@@ -1,0 +1,77 @@
+package dev.pressmark.server;
+
+import java.util.Objects;
+import java.util.Optional;
+
+/**
+ * How the service runs. Fixed at start-up.
+ *
+ * @param host the address to listen on
+ * @param port the TCP port; 0 picks a free one
+ * @param maxItems the most items one predict or explain request may carry
+ * @param maxJsonBytes the largest JSON request body
+ * @param maxBundleBytes the largest bundle upload
+ * @param adminToken the admin bearer token; without one the admin endpoints answer 403
+ * @param readerToken the reader bearer token; without one the reading endpoints are open
+ * @param maxThreads the size of the HTTP thread pool
+ */
+public record ServerConfig(String host, int port, int maxItems, long maxJsonBytes, long maxBundleBytes, Optional<BearerToken> adminToken,
+        Optional<BearerToken> readerToken, int maxThreads) {
+
+    public static final String DEFAULT_HOST = "127.0.0.1";
+    public static final int DEFAULT_PORT = 8080;
+    public static final int DEFAULT_MAX_ITEMS = 10_000;
+    /** Enough for two cores: requests are short CPU work, so more threads only add switching. */
+    public static final int DEFAULT_MAX_THREADS = 24;
+    /** The largest JSON request body by default: 8 MiB, some 100,000 short titles. */
+    public static final long DEFAULT_MAX_JSON_BYTES = 8L << 20;
+    /** The largest bundle upload by default: 256 MiB, the bundle format's limit for one entry. */
+    public static final long DEFAULT_MAX_BUNDLE_BYTES = 256L << 20;
+
+    public ServerConfig {
+        Objects.requireNonNull(host, "host");
+        Objects.requireNonNull(adminToken, "adminToken");
+        Objects.requireNonNull(readerToken, "readerToken");
+        if (port < 0 || port > 65_535) {
+            throw new IllegalArgumentException("port must be in [0, 65535], was " + port);
+        }
+        if (maxItems < 1) {
+            throw new IllegalArgumentException("maxItems must be >= 1, was " + maxItems);
+        }
+        if (maxJsonBytes < 1) {
+            throw new IllegalArgumentException("maxJsonBytes must be >= 1, was " + maxJsonBytes);
+        }
+        if (maxBundleBytes < 1) {
+            throw new IllegalArgumentException("maxBundleBytes must be >= 1, was " + maxBundleBytes);
+        }
+        if (maxThreads < 4) {
+            throw new IllegalArgumentException("maxThreads must be >= 4, was " + maxThreads);
+        }
+    }
+
+    /** The defaults, with no tokens. */
+    public static ServerConfig defaults() {
+        return new ServerConfig(DEFAULT_HOST, DEFAULT_PORT, DEFAULT_MAX_ITEMS, DEFAULT_MAX_JSON_BYTES, DEFAULT_MAX_BUNDLE_BYTES, Optional.empty(),
+                Optional.empty(), DEFAULT_MAX_THREADS);
+    }
+
+    public ServerConfig withPort(int newPort) {
+        return new ServerConfig(host, newPort, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads);
+    }
+
+    public ServerConfig withMaxItems(int newMaxItems) {
+        return new ServerConfig(host, port, newMaxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads);
+    }
+
+    public ServerConfig withBodyLimits(long newMaxJsonBytes, long newMaxBundleBytes) {
+        return new ServerConfig(host, port, maxItems, newMaxJsonBytes, newMaxBundleBytes, adminToken, readerToken, maxThreads);
+    }
+
+    public ServerConfig withAdminToken(Optional<BearerToken> token) {
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, token, readerToken, maxThreads);
+    }
+
+    public ServerConfig withReaderToken(Optional<BearerToken> token) {
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, token, maxThreads);
+    }
+}

@@ -1,0 +1,47 @@
+package dev.pressmark.server;
+
+import dev.pressmark.store.BundleStore;
+import java.nio.file.Path;
+import java.util.Optional;
+
+/** A real server on a loopback port over a real SQLite store file, and a client for it. */
+final class Served implements AutoCloseable {
+
+    static final String ADMIN = "admin-secret-1";
+    static final String READER = "reader-secret-2";
+    static final String[] AS_ADMIN = {"Authorization", "Bearer " + ADMIN};
+
+    final String storeUrl;
+    final BundleStore store;
+    final PressmarkServer server;
+    final Http http;
+
+    private Served(String storeUrl, BundleStore store, PressmarkServer server) {
+        this.storeUrl = storeUrl;
+        this.store = store;
+        this.server = server;
+        this.http = new Http(server.port());
+    }
+
+    /** With the admin token and no reader token. */
+    static Served on(Path dir) {
+        return on(dir, ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(ADMIN))));
+    }
+
+    static Served on(Path dir, ServerConfig config) {
+        String url = "sqlite:" + dir.resolve("store.db");
+        BundleStore store = BundleStore.open(url);
+        try {
+            return new Served(url, store, PressmarkServer.start(store, config));
+        } catch (RuntimeException e) {
+            store.close();
+            throw e;
+        }
+    }
+
+    @Override
+    public void close() {
+        server.close();
+        store.close();
+    }
+}
