@@ -32,9 +32,7 @@ public final class LogisticModel implements ProbabilisticClassifier {
 
     @Override
     public void probabilities(SparseMatrix x, int row, double[] out) {
-        double[] logits = new double[weights.numScores()];
-        weights.decisionValues(x, row, logits);
-        Logistic.probabilities(logits, logits.length, out);
+        Logistic.probabilities(weights, x, row, out);
     }
 
     public LogisticConfig config() {

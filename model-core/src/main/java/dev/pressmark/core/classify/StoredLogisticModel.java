@@ -17,8 +17,6 @@ public record StoredLogisticModel(LinearWeights weights) implements Probabilisti
 
     @Override
     public void probabilities(SparseMatrix x, int row, double[] out) {
-        double[] logits = new double[weights.numScores()];
-        weights.decisionValues(x, row, logits);
-        Logistic.probabilities(logits, logits.length, out);
+        Logistic.probabilities(weights, x, row, out);
     }
 }

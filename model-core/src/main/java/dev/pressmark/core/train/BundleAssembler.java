@@ -119,24 +119,21 @@ public final class BundleAssembler {
     /** What the training rows looked like, so that live traffic can be compared with it later. */
     static ObjectNode profile(TrainingRun.Result result) {
         TextPipeline pipeline = result.pipeline();
+        List<List<List<String>>> rows = result.finalTokens();
         long tokens = 0;
         long unknown = 0;
-        for (List<List<String>> row : result.finalTokens()) {
-            for (List<String> column : row) {
-                tokens += column.size();
-            }
-            unknown += pipeline.unknownTokens(row);
-        }
-        ObjectNode profile = JSON.createObjectNode();
-        profile.put("rows", result.finalTokens().size());
-        profile.put("tokens", tokens);
-        profile.put("unknown_rate", tokens == 0 ? 0.0 : (double) unknown / tokens);
-        int[] lengths = new int[result.finalTokens().size()];
+        int[] lengths = new int[rows.size()];
         for (int i = 0; i < lengths.length; i++) {
-            for (List<String> column : result.finalTokens().get(i)) {
+            for (List<String> column : rows.get(i)) {
                 lengths[i] += column.size();
             }
+            tokens += lengths[i];
+            unknown += pipeline.unknownTokens(rows.get(i));
         }
+        ObjectNode profile = JSON.createObjectNode();
+        profile.put("rows", rows.size());
+        profile.put("tokens", tokens);
+        profile.put("unknown_rate", tokens == 0 ? 0.0 : (double) unknown / tokens);
         Arrays.sort(lengths);
         ObjectNode length = profile.putObject("tokens_per_row");
         length.put("mean", lengths.length == 0 ? 0.0 : (double) tokens / lengths.length);
