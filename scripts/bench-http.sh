@@ -11,7 +11,7 @@
 # (no wrk, a server that does not start, a request that does not answer 200) does.
 #
 # Usage: scripts/bench-http.sh [--quick] [--out FILE] [--no-pin]
-#   --quick   3 s per measurement and 1 s warm-ups (about 40 s in all); the default is 15 s and 10 s
+#   --quick   3 s per measurement and 1 s warm-ups (under a minute in all); the default is 15 s and 10 s
 #   --no-pin  do not pin the server and wrk to separate cores with taskset
 # Environment: JAVA_OPTS for the server JVM; BENCH_THREADS, BENCH_CONNECTIONS (default 2 and 32).
 set -euo pipefail
