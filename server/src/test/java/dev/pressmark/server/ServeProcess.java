@@ -30,13 +30,11 @@ final class ServeProcess implements AutoCloseable {
     private static final Duration STOPPED_WITHIN = Duration.ofSeconds(30);
 
     private final Process process;
-    private final CompletableFuture<String> err;
     final int port;
     final Http http;
 
-    private ServeProcess(Process process, CompletableFuture<String> err, int port) {
+    private ServeProcess(Process process, int port) {
         this.process = process;
-        this.err = err;
         this.port = port;
         this.http = new Http(port);
     }
@@ -57,10 +55,11 @@ final class ServeProcess implements AutoCloseable {
             assertThat(line).as("first line of stdout").isNotNull();
             Matcher m = LISTENING.matcher(line);
             assertThat(m.find()).as(line).isTrue();
-            return new ServeProcess(process, err, Integer.parseInt(m.group(1)));
+            return new ServeProcess(process, Integer.parseInt(m.group(1)));
         } catch (RuntimeException | AssertionError e) {
             stop(process);
-            throw new AssertionError("pressmark serve did not start; stderr:\n" + err.getNow("(still open)"), e);
+            throw new AssertionError("pressmark serve did not start; stderr:\n"
+                    + err.completeOnTimeout("(not closed)", STOPPED_WITHIN.toSeconds(), TimeUnit.SECONDS).join(), e);
         }
     }
 
@@ -113,11 +112,6 @@ final class ServeProcess implements AutoCloseable {
                 throw new UncheckedIOException(e);
             }
         });
-    }
-
-    /** What the process wrote to stderr, once it has stopped. */
-    String stderr() {
-        return err.join();
     }
 
     private static void stop(Process process) {
