@@ -43,7 +43,7 @@ final class ServeCommand implements Callable<Integer> {
     int maxItems;
 
     @Option(names = "--access-log", negatable = true, defaultValue = "" + ServerConfig.DEFAULT_ACCESS_LOG, fallbackValue = "true",
-            description = "Log one line per request on stderr (logger dev.pressmark.access; default: on; --no-access-log turns it off).")
+            description = "One log line per request on stderr, logger dev.pressmark.access (default: on).")
     boolean accessLog;
 
     @Mixin
