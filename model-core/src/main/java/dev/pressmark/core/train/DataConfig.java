@@ -35,6 +35,11 @@ public record DataConfig(
         if (file.isBlank()) {
             throw new IllegalArgumentException("data.file must name a CSV file, was empty");
         }
+        for (String column : text) {
+            if (column == null) {
+                throw new IllegalArgumentException("data.text must name columns, but has an empty (null) entry: " + text);
+            }
+        }
         text = List.copyOf(text);
         if (text.isEmpty()) {
             throw new IllegalArgumentException("data.text must name at least one column, was an empty list");

@@ -107,7 +107,9 @@ public record TrainConfig(
             return fromYaml(null, null, null, null, null, null, null);
         }
         try {
-            return YAML.readValue(yaml, TrainConfig.class);
+            TrainConfig config = YAML.readValue(yaml, TrainConfig.class);
+            // a document that is only a null scalar ("~", "null", a bare anchor) sets no key, as blank text does
+            return config != null ? config : fromYaml(null, null, null, null, null, null, null);
         } catch (JsonMappingException e) {
             throw configError(source, yaml, e);
         } catch (JsonProcessingException e) {
@@ -129,7 +131,7 @@ public record TrainConfig(
             unknown.getKnownPropertyIds().forEach(id -> known.add(String.valueOf(id)));
             known.sort(null);
             what = "unknown key \"" + key + "\"; known keys here: " + String.join(", ", known);
-        } else if (e instanceof ValueInstantiationException && e.getCause() != null) {
+        } else if (e instanceof ValueInstantiationException && e.getCause() != null && e.getCause().getMessage() != null) {
             what = e.getCause().getMessage();
         } else if (e instanceof InvalidFormatException invalid) {
             what = key + ": expected " + describe(invalid.getTargetType()) + ", was \"" + invalid.getValue() + "\"";

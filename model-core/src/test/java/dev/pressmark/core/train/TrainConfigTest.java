@@ -98,6 +98,23 @@ class TrainConfigTest {
     }
 
     @Test
+    void a_document_that_is_only_null_gives_the_defaults_as_blank_text_does() {
+        // found by fuzzing (TrainConfigFuzzTestInputs/.../crash-d529e0e5...): a bare anchor parsed to a null config
+        TrainConfig blank = TrainConfig.parse("", "train.yaml");
+        assertThat(TrainConfig.parse("~\n", "train.yaml")).isEqualTo(blank);
+        assertThat(TrainConfig.parse("null", "train.yaml")).isEqualTo(blank);
+        assertThat(TrainConfig.parse("&anchor", "train.yaml")).isEqualTo(blank);
+    }
+
+    @Test
+    void a_null_text_column_is_named_with_its_line() {
+        // found by the fuzz test's seed nulls-in-lists (TrainConfigFuzzTestInputs): it used to escape as a NullPointerException
+        assertThatThrownBy(() -> TrainConfig.parse("data:\n  text: [title, ~]\n", "train.yaml"))
+                .isInstanceOf(PressmarkException.class)
+                .hasMessage("train.yaml: line 2: data.text must name columns, but has an empty (null) entry: [title, null]");
+    }
+
+    @Test
     void a_bad_model_name_quotes_the_pattern() {
         assertThatThrownBy(() -> TrainConfig.parse("name: Routing!", "train.yaml"))
                 .hasMessageEndingWith("name must match [a-z0-9][a-z0-9-]{0,63}, was \"Routing!\"");
