@@ -60,9 +60,11 @@ final class WeightsCodec {
         if (classes < 2 || scores != (classes == 2 ? 1 : classes) || features < 0) {
             throw corrupt("inconsistent header: " + classes + " classes, " + scores + " scores, " + features + " features");
         }
-        long expected = HEADER_BYTES + 8L * scores * (features + 1L);
-        if (bytes.length != expected) {
-            throw corrupt("holds " + bytes.length + " bytes, its header calls for " + expected);
+        // below 2^62, so this product cannot overflow; the same count in bytes could, and did let a
+        // 28-byte file with 2^30 scores and 2^31 - 1 features past the size check
+        long values = (long) scores * (features + 1L);
+        if (values != (bytes.length - HEADER_BYTES) / 8 || (bytes.length - HEADER_BYTES) % 8 != 0) {
+            throw corrupt("holds " + bytes.length + " bytes, its header calls for " + HEADER_BYTES + " + 8 × " + values);
         }
         double[][] w = new double[scores][features + 1];
         for (int k = 0; k < scores; k++) {
