@@ -4,6 +4,7 @@ import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import io.javalin.http.Context;
 import java.io.ByteArrayOutputStream;
+import java.io.CharConversionException;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.UncheckedIOException;
@@ -35,11 +36,21 @@ final class Requests {
     /** The body as JSON, after checking that it says it is JSON and fits the JSON body limit. */
     JsonNode jsonBody(Context ctx) throws IOException {
         requireType(ctx, Set.of(JSON));
-        byte[] body = body(ctx, maxJsonBytes);
+        return parseJson(body(ctx, maxJsonBytes));
+    }
+
+    /** A body already read within its limit, as JSON; a body that is not a JSON text is a 400. */
+    JsonNode parseJson(byte[] body) throws IOException {
         if (body.length == 0) {
             throw ApiProblem.malformedJson("the body is empty; it must be a JSON object");
         }
-        return json.readTree(body);
+        try {
+            return json.readTree(body);
+        } catch (CharConversionException e) {
+            // The parser guesses UTF-16 or UTF-32 from the first four bytes and reports a code unit it
+            // cannot decode as a plain IOException rather than a parse error, which would be a 500.
+            throw ApiProblem.malformedJson("the body is not valid JSON text: " + e.getMessage());
+        }
     }
 
     /** The body as a bundle file, up to the bundle body limit. */

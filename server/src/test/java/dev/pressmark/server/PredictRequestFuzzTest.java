@@ -25,7 +25,8 @@ import java.util.stream.Stream;
 /**
  * Arbitrary bytes as the body of {@code POST /models/{name}/predict} and {@code .../explain},
  * through the steps a handler takes after the content type and the size limit have been checked:
- * the JSON parse, {@link Requests#items}, the model's predict and explain, and the response views.
+ * {@link Requests#parseJson}, {@link Requests#items}, the model's predict and explain, and the
+ * response views.
  * Whatever the body, the outcome is either a complete response or a failure that {@link Problems}
  * maps to a 4xx problem; a 5xx would mean a client can make the service fail.
  *
@@ -84,7 +85,7 @@ final class PredictRequestFuzzTest {
     /** What {@code ModelRoutes.predict} does with the body, ending in the bytes it would send. */
     private static JsonNode predict(byte[] body) throws IOException {
         Bundle bundle = SERVED.bundle();
-        List<Map<String, String>> items = REQUESTS.items(parse(body), bundle.inputFields());
+        List<Map<String, String>> items = REQUESTS.items(REQUESTS.parseJson(body), bundle.inputFields());
         List<Prediction> predictions = bundle.predict(items);
         assertThat(predictions).hasSize(items.size());
         return roundTrip(VIEWS.predictions(MODEL, SERVED, predictions));
@@ -93,20 +94,12 @@ final class PredictRequestFuzzTest {
     /** What {@code ModelRoutes.explain} does with the body. */
     private static JsonNode explain(byte[] body) throws IOException {
         Bundle bundle = SERVED.bundle();
-        List<Map<String, String>> items = REQUESTS.items(parse(body), bundle.inputFields());
+        List<Map<String, String>> items = REQUESTS.items(REQUESTS.parseJson(body), bundle.inputFields());
         List<Explanation> explanations = new ArrayList<>(items.size());
         for (Map<String, String> item : items) {
             explanations.add(bundle.explain(item, K));
         }
         return roundTrip(VIEWS.explanations(MODEL, SERVED, explanations));
-    }
-
-    /** {@code Requests.jsonBody} after its content-type and size checks, which need a live request. */
-    private static JsonNode parse(byte[] body) throws IOException {
-        if (body.length == 0) {
-            throw ApiProblem.malformedJson("the body is empty; it must be a JSON object");
-        }
-        return JSON.readTree(body);
     }
 
     /** The response must be JSON a client can read back. */
