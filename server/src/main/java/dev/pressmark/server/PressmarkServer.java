@@ -49,6 +49,7 @@ public final class PressmarkServer implements AutoCloseable {
         ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json),
                 new Access(config.adminToken(), config.readerToken()));
         Problems problems = new Problems(json);
+        ApiDocs docs = new ApiDocs(live, config);
         Javalin app = Javalin.create(c -> {
             c.showJavalinBanner = false;
             c.useVirtualThreads = false;
@@ -80,6 +81,10 @@ public final class PressmarkServer implements AutoCloseable {
         app.post("/models/{name}/explain", routes::explain);
         app.put("/models/{name}/active", routes::activate);
         app.post("/models/{name}/rollback", routes::rollback);
+        app.get("/openapi.json", docs::json);
+        app.get("/openapi.yaml", docs::yaml);
+        app.get("/docs", docs::page);
+        app.get(ApiDocs.ASSETS + "{file}", docs::asset);
         try {
             app.start(config.host(), config.port());
         } catch (JavalinBindException e) {
