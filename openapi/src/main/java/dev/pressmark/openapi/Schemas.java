@@ -39,8 +39,11 @@ final class Schemas {
         return schema;
     }
 
+    /** A JSON number the server writes from a float64. */
     static JsonSchema number(String description) {
-        return typed("number", description);
+        JsonSchema schema = typed("number", description);
+        schema.setFormat("double");
+        return schema;
     }
 
     static JsonSchema bool(String description) {
