@@ -11,6 +11,9 @@ import dev.pressmark.core.train.BundleAssembler;
 import dev.pressmark.core.train.LabelledData;
 import dev.pressmark.core.train.TrainConfig;
 import dev.pressmark.core.train.TrainingRun;
+import dev.pressmark.openapi.Descriptors;
+import dev.pressmark.openapi.ModelDescriptor;
+import dev.pressmark.openapi.ModelExample;
 import io.swagger.parser.OpenAPIParser;
 import io.swagger.v3.oas.models.OpenAPI;
 import io.swagger.v3.oas.models.media.Schema;
@@ -163,6 +166,18 @@ class ApiDocsTest {
             assertThat(answer.json().get("results")).extracting(r -> r.get("label").asText())
                     .containsExactlyElementsOf(Bundle.read(threeLabels).labels());
         }
+    }
+
+    @Test
+    void a_binary_model_s_examples_are_made_for_each_of_its_two_labels() {
+        Bundle binary = Bundle.read(twoLabels);
+        ModelDescriptor described = Descriptors.of("routing", "2.0.0", binary);
+        assertThat(described.examples()).hasSize(2);
+        // the bundle itself, not the descriptor, says what each example item is
+        assertThat(binary.predict(described.examples().get(0).item()).label()).isEqualTo("furniture");
+        assertThat(binary.predict(described.examples().get(1).item()).label()).isEqualTo("lighting");
+        assertThat(described.examples()).extracting(ModelExample::label).containsExactly("furniture", "lighting");
+        assertThat(described.probabilities()).isTrue();
     }
 
     @Test
