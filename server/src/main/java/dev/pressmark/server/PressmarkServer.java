@@ -46,8 +46,8 @@ public final class PressmarkServer implements AutoCloseable {
             live.close();
             throw new IllegalStateException("interrupted while loading the active models", e);
         }
-        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json),
-                new Access(config.adminToken(), config.readerToken()));
+        Access access = new Access(config.adminToken(), config.readerToken());
+        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access);
         Problems problems = new Problems(json);
         Javalin app = Javalin.create(c -> {
             c.showJavalinBanner = false;
@@ -80,6 +80,7 @@ public final class PressmarkServer implements AutoCloseable {
         app.post("/models/{name}/explain", routes::explain);
         app.put("/models/{name}/active", routes::activate);
         app.post("/models/{name}/rollback", routes::rollback);
+        new Console(store, live, access, config.readerToken().isPresent()).register(app);
         try {
             app.start(config.host(), config.port());
         } catch (JavalinBindException e) {
