@@ -237,12 +237,13 @@
       const test = (state.details.get(v.tag).metrics || {}).test || {};
       const chosen = v.tag === state.chosen;
       const row = el('tr', { class: (v.active ? 'is-active' : '') + (chosen ? ' is-chosen' : ''), 'data-tag': v.tag },
-        el('th', { scope: 'row' }, el('code', { text: v.tag })),
-        el('td', {}, el('time', { datetime: v.created_at, text: v.created_at.replace('T', ' ').replace(/(:\d\d)(\.\d+)?Z$/, '$1 UTC') })),
-        el('td', {}, el('code', { title: v.sha256, text: v.sha256.slice(0, 12) })),
-        ...KEY_METRICS.map((m) => el('td', { class: 'num', text: fixed(test[m], 3) })),
-        el('td', {}, v.active ? el('span', { class: 'badge active', text: '\u25CF active' })
-          : (v.retired ? el('span', { class: 'badge', text: 'retired' }) : '')),
+        el('th', { scope: 'row', class: 'tag' }, el('code', { text: v.tag }),
+          v.active ? el('span', { class: 'badge active', text: '\u25CF active' }) : (v.retired ? el('span', { class: 'badge', text: 'retired' }) : null)),
+        el('td', { 'data-label': 'created' }, el('time', {
+          datetime: v.created_at, title: v.created_at, text: v.created_at.replace('T', ' ').replace(/:\d\d(\.\d+)?Z$/, '')
+        })),
+        el('td', { 'data-label': 'sha256', class: 'sha' }, el('code', { title: v.sha256, text: v.sha256.slice(0, 10) })),
+        ...KEY_METRICS.map((m) => el('td', { class: 'num', 'data-label': METRIC_NAMES[m], text: fixed(test[m], 3) })),
         el('td', { class: 'actions' },
           el('button', {
             type: 'button', class: 'quiet small', 'aria-pressed': chosen ? 'true' : 'false',
@@ -307,8 +308,7 @@
     const tag = state.chosen;
     const detail = state.details.get(tag);
     if (!detail) return;
-    $('charts').hidden = false;
-    $('charts-tag').textContent = state.model + ' ' + tag;
+    for (const span of document.querySelectorAll('.chart-tag')) span.textContent = tag;
     const base = '/console/models/' + encodeURIComponent(state.model) + '/versions/' + encodeURIComponent(tag) + '/charts.svg';
     const features = $('features');
     features.replaceChildren();

@@ -62,8 +62,10 @@ class ConsoleTest {
             String html = page.body();
             assertThat(count(html, "<script\\b")).isEqualTo(1);
             assertThat(html).contains("<script src=\"/console/app.js\" defer></script>");
-            assertThat(count(html, "<link\\b")).isEqualTo(1);
+            assertThat(count(html, "<link\\b")).isEqualTo(2);
             assertThat(html).contains("<link rel=\"stylesheet\" href=\"/console/app.css\">");
+            // An empty icon, so that the browser asks for no favicon.ico
+            assertThat(html).contains("<link rel=\"icon\" href=\"data:,\">");
             assertThat(count(html, "<style\\b")).isZero();
             assertThat(count(html, "\\sstyle\\s*=")).isZero();
             assertThat(count(html, "\\son[a-z]+\\s*=")).isZero();
