@@ -18,6 +18,8 @@ import java.util.Map;
  */
 public final class HtmlReport {
 
+    private static final String SVG_NAMESPACE = "http://www.w3.org/2000/svg";
+
     /** How many features per sign and class the bars show. */
     public static final int TOP_FEATURES = 20;
 
@@ -58,7 +60,7 @@ public final class HtmlReport {
 
     private static void confusion(StringBuilder html, List<String> labels, JsonNode counts) {
         html.append("<h2>Confusion matrix (test part; rows truth, columns prediction)</h2>\n");
-        confusionChart(html, labels, counts);
+        confusionChart(html, labels, counts, false);
     }
 
     /**
@@ -68,11 +70,11 @@ public final class HtmlReport {
      */
     public static String confusionSvg(Bundle bundle) {
         StringBuilder svg = new StringBuilder(4096);
-        confusionChart(svg, bundle.labels(), bundle.manifest().path("metrics").path("test_confusion").path("counts"));
+        confusionChart(svg, bundle.labels(), bundle.manifest().path("metrics").path("test_confusion").path("counts"), true);
         return svg.toString();
     }
 
-    private static void confusionChart(StringBuilder html, List<String> labels, JsonNode counts) {
+    private static void confusionChart(StringBuilder html, List<String> labels, JsonNode counts, boolean standalone) {
         int k = labels.size();
         int cell = 56;
         int left = 130;
@@ -83,7 +85,7 @@ public final class HtmlReport {
                 max = Math.max(max, count.asLong());
             }
         }
-        openSvg(html, "confusion matrix", left + cell * k + 10, top + cell * k + 10);
+        openSvg(html, "confusion matrix", left + cell * k + 10, top + cell * k + 10, standalone);
         for (int p = 0; p < k; p++) {
             html.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" class=\"axis\" text-anchor=\"middle\">%s</text>%n",
                     left + cell * p + cell / 2, top - 8, escape(shorten(labels.get(p)))));
@@ -110,7 +112,7 @@ public final class HtmlReport {
         int left = 150;
         List<Map.Entry<String, JsonNode>> metrics = new ArrayList<>(cv.properties());
         html.append("<h2>Per-fold spread</h2>\n");
-        openSvg(html, "per-fold values", left + width + 20, rowHeight * metrics.size() + 30);
+        openSvg(html, "per-fold values", left + width + 20, rowHeight * metrics.size() + 30, false);
         for (int tick = 0; tick <= 4; tick++) {
             double x = left + width * tick / 4.0;
             html.append(String.format(Locale.ROOT, "<line x1=\"%.1f\" y1=\"0\" x2=\"%.1f\" y2=\"%d\" class=\"grid\"/><text x=\"%.1f\" y=\"%d\" class=\"axis\" text-anchor=\"middle\">%.2f</text>%n",
@@ -136,9 +138,9 @@ public final class HtmlReport {
         for (String label : scoredLabels(bundle)) {
             html.append("<section><h3>").append(escape(label)).append("</h3>\n");
             html.append("<p class=\"bar-title\">").append(escape("towards " + label)).append("</p>\n");
-            html.append(featureBarsSvg(bundle, label, true, TOP_FEATURES));
+            featureBars(html, bundle, label, true, TOP_FEATURES, false);
             html.append("<p class=\"bar-title\">").append(escape("away from " + label)).append("</p>\n");
-            html.append(featureBarsSvg(bundle, label, false, TOP_FEATURES));
+            featureBars(html, bundle, label, false, TOP_FEATURES, false);
             html.append("</section>\n");
         }
         html.append("</div>\n");
@@ -160,6 +162,12 @@ public final class HtmlReport {
      * features towards it are the second label's away from it.
      */
     public static String featureBarsSvg(Bundle bundle, String label, boolean towards, int count) {
+        StringBuilder svg = new StringBuilder(4096);
+        featureBars(svg, bundle, label, towards, count, true);
+        return svg.toString();
+    }
+
+    private static void featureBars(StringBuilder html, Bundle bundle, String label, boolean towards, int count, boolean standalone) {
         if (count < 1) {
             throw new IllegalArgumentException("count must be >= 1, was " + count);
         }
@@ -183,13 +191,11 @@ public final class HtmlReport {
             chosen = new ArrayList<>(order.subList(Math.max(0, order.size() - count), order.size()));
             java.util.Collections.reverse(chosen);
         }
-        StringBuilder svg = new StringBuilder(4096);
-        bars(svg, (towards ? "towards " : "away from ") + label, chosen, weights, score, flipped, bundle.pipeline().features());
-        return svg.toString();
+        bars(html, (towards ? "towards " : "away from ") + label, chosen, weights, score, flipped, bundle.pipeline().features(), standalone);
     }
 
     private static void bars(StringBuilder html, String title, List<Integer> features, LinearWeights weights, int score, boolean flipped,
-                             FeatureSpace space) {
+                             FeatureSpace space, boolean standalone) {
         double max = 1e-12;
         for (int j : features) {
             max = Math.max(max, Math.abs(weights.weight(score, j)));
@@ -197,7 +203,7 @@ public final class HtmlReport {
         int left = 170;
         int width = 200;
         int row = 16;
-        openSvg(html, title, left + width + 70, row * features.size() + 4);
+        openSvg(html, title, left + width + 70, row * features.size() + 4, standalone);
         for (int i = 0; i < features.size(); i++) {
             int j = features.get(i);
             double w = flipped ? -weights.weight(score, j) : weights.weight(score, j);
@@ -211,10 +217,13 @@ public final class HtmlReport {
         html.append("</svg>\n");
     }
 
-    /** An SVG element that stands alone (its own namespace) and scales down to its container (its view box). */
-    private static void openSvg(StringBuilder html, String label, int width, int height) {
-        html.append(String.format(Locale.ROOT, "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"chart\" role=\"img\" aria-label=\"%s\" "
-                + "width=\"%d\" height=\"%d\" viewBox=\"0 0 %d %d\">%n", escape(label), width, height, width, height));
+    /**
+     * An SVG element that scales down to its container (its view box). A standalone one names its
+     * namespace so that it parses as XML on its own; inside the report's HTML the parser supplies it.
+     */
+    private static void openSvg(StringBuilder html, String label, int width, int height, boolean standalone) {
+        html.append(String.format(Locale.ROOT, "<svg %sclass=\"chart\" role=\"img\" aria-label=\"%s\" width=\"%d\" height=\"%d\" "
+                + "viewBox=\"0 0 %d %d\">%n", standalone ? "xmlns=\"" + SVG_NAMESPACE + "\" " : "", escape(label), width, height, width, height));
     }
 
     private static String pretty(JsonNode node) {
