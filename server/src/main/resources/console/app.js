@@ -445,7 +445,8 @@
     parts.push(el('p', { class: 'muted small', text: '+ pushed towards ' + result.label + ', ' + MINUS + ' away from it; the number is how far it moved the score.' }));
     parts.push(result.contributions.length ? chips : el('p', { class: 'muted', text: 'No known subword in this text.' }));
     if (result.unknown_tokens > 0) {
-      parts.push(el('p', { class: 'muted small', text: result.unknown_tokens + ' token(s) the vocabulary could not cover.' }));
+      const n = result.unknown_tokens;
+      parts.push(el('p', { class: 'muted small', text: n + (n === 1 ? ' token' : ' tokens') + ' the vocabulary could not cover.' }));
     }
     out.replaceChildren(...parts);
   }

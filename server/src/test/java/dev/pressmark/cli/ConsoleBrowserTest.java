@@ -168,6 +168,8 @@ class ConsoleBrowserTest {
 
             viewport(driver, 390, 844);
             screenshot(driver, "390x844");
+            ((JavascriptExecutor) driver).executeScript("document.getElementById('try-heading').scrollIntoView()");
+            screenshot(driver, "390x844-try");
             Object wide = ((JavascriptExecutor) driver).executeScript("const w = document.documentElement.clientWidth;"
                     + " return [...document.querySelectorAll('body *')].filter(e => e.getBoundingClientRect().right > w + 0.5"
                     + " && !e.parentElement.closest('.table-wrap')).map(e => e.tagName + (e.id ? '#' + e.id : '') + '.' + e.className"
