@@ -50,8 +50,8 @@ public final class PressmarkServer implements AutoCloseable {
             metrics.close();
             throw new IllegalStateException("interrupted while loading the active models", e);
         }
-        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json),
-                new Access(config.adminToken(), config.readerToken()), metrics);
+        Access access = new Access(config.adminToken(), config.readerToken());
+        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics);
         RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
         Problems problems = new Problems(json);
         Javalin app = Javalin.create(c -> {
@@ -87,6 +87,7 @@ public final class PressmarkServer implements AutoCloseable {
         app.put("/models/{name}/active", routes::activate);
         app.post("/models/{name}/rollback", routes::rollback);
         app.get("/metrics", ctx -> ctx.contentType(Metrics.CONTENT_TYPE).result(metrics.scrape()));
+        new Console(store, live, access, config.readerToken().isPresent()).register(app);
         try {
             app.start(config.host(), config.port());
         } catch (JavalinBindException e) {
