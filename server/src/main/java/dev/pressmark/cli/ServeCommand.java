@@ -42,6 +42,10 @@ final class ServeCommand implements Callable<Integer> {
             description = "The most items one predict or explain request may carry (default: ${DEFAULT-VALUE}).")
     int maxItems;
 
+    @Option(names = "--access-log", negatable = true, defaultValue = "" + ServerConfig.DEFAULT_ACCESS_LOG, fallbackValue = "true",
+            description = "One log line per request on stderr, logger dev.pressmark.access (default: on).")
+    boolean accessLog;
+
     @Mixin
     StoreOption store;
 
@@ -51,7 +55,7 @@ final class ServeCommand implements Callable<Integer> {
                 : Optional.ofNullable(System.getenv(ADMIN_TOKEN_ENV)).filter(t -> !t.isBlank()).map(BearerToken::of);
         Optional<BearerToken> reader = readerTokenFile == null ? Optional.empty() : Optional.of(token(readerTokenFile));
         ServerConfig config = new ServerConfig(host, port, maxItems, ServerConfig.DEFAULT_MAX_JSON_BYTES, ServerConfig.DEFAULT_MAX_BUNDLE_BYTES, admin,
-                reader, ServerConfig.DEFAULT_MAX_THREADS);
+                reader, ServerConfig.DEFAULT_MAX_THREADS, accessLog);
         BundleStore opened = store.open();
         PressmarkServer server;
         try {

@@ -6,7 +6,7 @@ import picocli.CommandLine.Option;
 /** The {@code --store URL} option that every store command shares, and the actor it records. */
 final class StoreOption {
 
-    @Option(names = "--store", paramLabel = "URL", defaultValue = "${env:PRESSMARK_STORE:-" + BundleStore.DEFAULT_URL + "}",
+    @Option(names = "--store", paramLabel = "URL", defaultValue = "${env:" + BundleStore.URL_ENV + ":-" + BundleStore.DEFAULT_URL + "}",
             description = {"The store: sqlite:PATH or jdbc:postgresql://HOST[:PORT]/DATABASE",
                 "(default: env PRESSMARK_STORE, else " + BundleStore.DEFAULT_URL + "; created on first use)."})
     String url;

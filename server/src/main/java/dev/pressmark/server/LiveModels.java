@@ -46,6 +46,7 @@ final class LiveModels implements AutoCloseable {
     }
 
     private final BundleStore store;
+    private final Metrics metrics;
     private final ConcurrentHashMap<String, AtomicReference<LiveVersion>> active = new ConcurrentHashMap<>();
     private final ConcurrentHashMap<String, LoadFailure> failures = new ConcurrentHashMap<>();
     private final Map<String, LiveVersion> named = new LinkedHashMap<>(16, 0.75f, true);
@@ -53,15 +54,16 @@ final class LiveModels implements AutoCloseable {
     private final Thread follower;
     private volatile boolean stopped;
 
-    private LiveModels(BundleStore store) {
+    private LiveModels(BundleStore store, Metrics metrics) {
         this.store = store;
+        this.metrics = metrics;
         this.follower = new Thread(this::follow, "pressmark-change-feed");
         this.follower.setDaemon(true);
     }
 
     /** Loads every model's active version, then starts following the change feed. */
-    static LiveModels start(BundleStore store) {
-        LiveModels models = new LiveModels(store);
+    static LiveModels start(BundleStore store, Metrics metrics) {
+        LiveModels models = new LiveModels(store, metrics);
         models.follower.start();
         return models;
     }
@@ -137,6 +139,7 @@ final class LiveModels implements AutoCloseable {
             long start = System.nanoTime();
             LiveVersion loaded = load(model, version.tag());
             current.set(loaded);
+            metrics.serving(model, loaded.tag());
             failures.remove(model);
             LOG.info("serving {} {} (sha256 {}), loaded in {} ms", model, loaded.tag(), loaded.sha256(), (System.nanoTime() - start) / 1_000_000);
         } catch (RuntimeException e) {
@@ -147,8 +150,10 @@ final class LiveModels implements AutoCloseable {
     }
 
     private LiveVersion load(String model, String tag) {
+        long start = System.nanoTime();
         LoadedBundle loaded = store.load(model, tag);
         Bundle bundle = Bundle.from(loaded.contents(), model + " " + tag);
+        metrics.bundleLoaded(model, System.nanoTime() - start);
         return new LiveVersion(bundle, loaded.version());
     }
 

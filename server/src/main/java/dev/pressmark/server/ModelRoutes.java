@@ -4,6 +4,7 @@ import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.Explanation;
+import dev.pressmark.core.bundle.Prediction;
 import dev.pressmark.store.Activation;
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.ModelSummary;
@@ -28,13 +29,15 @@ final class ModelRoutes {
     private final Requests requests;
     private final Views views;
     private final Access access;
+    private final Metrics metrics;
 
-    ModelRoutes(BundleStore store, LiveModels live, Requests requests, Views views, Access access) {
+    ModelRoutes(BundleStore store, LiveModels live, Requests requests, Views views, Access access, Metrics metrics) {
         this.store = store;
         this.live = live;
         this.requests = requests;
         this.views = views;
         this.access = access;
+        this.metrics = metrics;
     }
 
     void health(Context ctx) {
@@ -106,8 +109,12 @@ final class ModelRoutes {
     }
 
     private void predict(Context ctx, String name, LiveVersion served) throws IOException {
+        ctx.attribute(RequestRecorder.VERSION, served.tag());
         List<Map<String, String>> items = requests.items(requests.jsonBody(ctx), served.bundle().inputFields());
-        ctx.json(views.predictions(name, served, served.bundle().predict(items)));
+        ctx.attribute(RequestRecorder.ITEMS, items.size());
+        List<Prediction> predictions = served.bundle().predict(items);
+        metrics.predictions(name, served.tag(), predictions);
+        ctx.json(views.predictions(name, served, predictions));
     }
 
     void explain(Context ctx) throws IOException {
@@ -115,8 +122,10 @@ final class ModelRoutes {
         String name = ctx.pathParam("name");
         int k = Requests.intQuery(ctx, "k", DEFAULT_K, 0, MAX_K);
         LiveVersion served = activeLive(name);
+        ctx.attribute(RequestRecorder.VERSION, served.tag());
         Bundle bundle = served.bundle();
         List<Map<String, String>> items = requests.items(requests.jsonBody(ctx), bundle.inputFields());
+        ctx.attribute(RequestRecorder.ITEMS, items.size());
         List<Explanation> explanations = new ArrayList<>(items.size());
         for (Map<String, String> item : items) {
             explanations.add(bundle.explain(item, k));

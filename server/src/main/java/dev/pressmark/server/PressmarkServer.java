@@ -27,10 +27,12 @@ public final class PressmarkServer implements AutoCloseable {
 
     private final Javalin app;
     private final LiveModels live;
+    private final Metrics metrics;
 
-    private PressmarkServer(Javalin app, LiveModels live) {
+    private PressmarkServer(Javalin app, LiveModels live, Metrics metrics) {
         this.app = app;
         this.live = live;
+        this.metrics = metrics;
     }
 
     public static PressmarkServer start(BundleStore store, ServerConfig config) {
@@ -38,16 +40,19 @@ public final class PressmarkServer implements AutoCloseable {
         Objects.requireNonNull(config, "config");
         // A body with anything after its JSON value is malformed, not a value plus ignored noise.
         ObjectMapper json = new ObjectMapper().enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS);
-        LiveModels live = LiveModels.start(store);
+        Metrics metrics = new Metrics();
+        LiveModels live = LiveModels.start(store, metrics);
         try {
             live.awaitInitialLoad(INITIAL_LOAD_WAIT);
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
             live.close();
+            metrics.close();
             throw new IllegalStateException("interrupted while loading the active models", e);
         }
-        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json),
-                new Access(config.adminToken(), config.readerToken()));
+        Access access = new Access(config.adminToken(), config.readerToken());
+        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics);
+        RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
         Problems problems = new Problems(json);
         ApiDocs docs = new ApiDocs(live, config);
         Javalin app = Javalin.create(c -> {
@@ -60,6 +65,7 @@ public final class PressmarkServer implements AutoCloseable {
             pool.setName("pressmark-http");
             c.jetty.threadPool = pool;
             c.router.ignoreTrailingSlashes = true;
+            c.requestLogger.http(recorder);
         });
         app.exception(Exception.class, problems::handle);
         // The framework answers a path no route matches by itself, in plain text; answer that as a problem detail too.
@@ -81,6 +87,8 @@ public final class PressmarkServer implements AutoCloseable {
         app.post("/models/{name}/explain", routes::explain);
         app.put("/models/{name}/active", routes::activate);
         app.post("/models/{name}/rollback", routes::rollback);
+        app.get("/metrics", ctx -> ctx.contentType(Metrics.CONTENT_TYPE).result(metrics.scrape()));
+        new Console(store, live, access, config.readerToken().isPresent()).register(app);
         app.get("/openapi.json", docs::json);
         app.get("/openapi.yaml", docs::yaml);
         app.get("/docs", docs::page);
@@ -89,13 +97,15 @@ public final class PressmarkServer implements AutoCloseable {
             app.start(config.host(), config.port());
         } catch (JavalinBindException e) {
             live.close();
+            metrics.close();
             throw new PressmarkException("port-in-use", config.host() + ":" + config.port()
                     + ": cannot listen there; another process holds the port (choose another with --port)", e);
         } catch (RuntimeException e) {
             live.close();
+            metrics.close();
             throw e;
         }
-        PressmarkServer server = new PressmarkServer(app, live);
+        PressmarkServer server = new PressmarkServer(app, live, metrics);
         LOG.info("listening on http://{}:{} (store {}; admin endpoints {}; reading endpoints {})", config.host(), server.port(),
                 store.describe(), config.adminToken().isPresent() ? "enabled" : "disabled",
                 config.readerToken().isPresent() ? "need the reader token" : "open");
@@ -111,5 +121,6 @@ public final class PressmarkServer implements AutoCloseable {
     public void close() {
         app.stop();
         live.close();
+        metrics.close();
     }
 }

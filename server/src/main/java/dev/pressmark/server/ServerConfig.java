@@ -14,9 +14,10 @@ import java.util.Optional;
  * @param adminToken the admin bearer token; without one the admin endpoints answer 403
  * @param readerToken the reader bearer token; without one the reading endpoints are open
  * @param maxThreads the size of the HTTP thread pool
+ * @param accessLog whether each request is logged, one line, on the logger {@code dev.pressmark.access}
  */
 public record ServerConfig(String host, int port, int maxItems, long maxJsonBytes, long maxBundleBytes, Optional<BearerToken> adminToken,
-        Optional<BearerToken> readerToken, int maxThreads) {
+        Optional<BearerToken> readerToken, int maxThreads, boolean accessLog) {
 
     public static final String DEFAULT_HOST = "127.0.0.1";
     public static final int DEFAULT_PORT = 8080;
@@ -27,6 +28,8 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     public static final long DEFAULT_MAX_JSON_BYTES = 8L << 20;
     /** The largest bundle upload by default: 256 MiB, the bundle format's limit for one entry. */
     public static final long DEFAULT_MAX_BUNDLE_BYTES = 256L << 20;
+    /** The access log is on by default: one line per request is what an operator reads first. */
+    public static final boolean DEFAULT_ACCESS_LOG = true;
 
     public ServerConfig {
         Objects.requireNonNull(host, "host");
@@ -52,26 +55,30 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     /** The defaults, with no tokens. */
     public static ServerConfig defaults() {
         return new ServerConfig(DEFAULT_HOST, DEFAULT_PORT, DEFAULT_MAX_ITEMS, DEFAULT_MAX_JSON_BYTES, DEFAULT_MAX_BUNDLE_BYTES, Optional.empty(),
-                Optional.empty(), DEFAULT_MAX_THREADS);
+                Optional.empty(), DEFAULT_MAX_THREADS, DEFAULT_ACCESS_LOG);
     }
 
     public ServerConfig withPort(int newPort) {
-        return new ServerConfig(host, newPort, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads);
+        return new ServerConfig(host, newPort, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog);
     }
 
     public ServerConfig withMaxItems(int newMaxItems) {
-        return new ServerConfig(host, port, newMaxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads);
+        return new ServerConfig(host, port, newMaxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog);
     }
 
     public ServerConfig withBodyLimits(long newMaxJsonBytes, long newMaxBundleBytes) {
-        return new ServerConfig(host, port, maxItems, newMaxJsonBytes, newMaxBundleBytes, adminToken, readerToken, maxThreads);
+        return new ServerConfig(host, port, maxItems, newMaxJsonBytes, newMaxBundleBytes, adminToken, readerToken, maxThreads, accessLog);
     }
 
     public ServerConfig withAdminToken(Optional<BearerToken> token) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, token, readerToken, maxThreads);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, token, readerToken, maxThreads, accessLog);
     }
 
     public ServerConfig withReaderToken(Optional<BearerToken> token) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, token, maxThreads);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, token, maxThreads, accessLog);
+    }
+
+    public ServerConfig withAccessLog(boolean on) {
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, on);
     }
 }

@@ -123,6 +123,23 @@ class ServeCommandTest {
     }
 
     @Test
+    void writes_the_access_log_to_stderr_by_default_and_not_with_no_access_log() throws Exception {
+        Child on = serve(null);
+        try (on) {
+            // two requests, so that the first one's line is surely written before the process is stopped
+            assertThat(send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + on.port() + "/health"))).statusCode()).isEqualTo(200);
+            assertThat(send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + on.port() + "/metrics"))).statusCode()).isEqualTo(200);
+        }
+        assertThat(on.err().get(30, TimeUnit.SECONDS)).containsPattern("INFO dev\\.pressmark\\.access - method=GET path=/health status=200 ms=\\d+\\.\\d\\d\n");
+        Child off = serve(null, "--no-access-log");
+        try (off) {
+            assertThat(send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + off.port() + "/health"))).statusCode()).isEqualTo(200);
+            assertThat(send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + off.port() + "/metrics"))).statusCode()).isEqualTo(200);
+        }
+        assertThat(off.err().get(30, TimeUnit.SECONDS)).contains("listening on").doesNotContain("dev.pressmark.access");
+    }
+
+    @Test
     void a_port_that_is_taken_is_a_one_line_failure_with_exit_code_1() throws Exception {
         try (ServerSocket taken = new ServerSocket(0, 1, InetAddress.getLoopbackAddress())) {
             CommandRun run = CommandRun.of(dir, "", "serve", "--port", String.valueOf(taken.getLocalPort()),

@@ -18,6 +18,11 @@ public interface BundleStore extends AutoCloseable {
 
     /** The default store: an SQLite file in the working directory. */
     String DEFAULT_URL = "sqlite:./pressmark.db";
+    /** The environment variable naming the store when no {@code --store} option is given. */
+    String URL_ENV = "PRESSMARK_STORE";
+    /** The environment variables a PostgreSQL URL without {@code user} or {@code password} parameters takes them from. */
+    String USER_ENV = "PRESSMARK_STORE_USER";
+    String PASSWORD_ENV = "PRESSMARK_STORE_PASSWORD";
 
     /**
      * Opens (and on first use creates) the store at {@code url}: {@code sqlite:PATH},

@@ -16,8 +16,8 @@ import org.postgresql.Driver;
 record StoreUrl(Dialect dialect, String jdbcUrl, Path sqliteFile, String host, int port, String database,
         String user, String password) {
 
-    static final String USER_ENV = "PRESSMARK_STORE_USER";
-    static final String PASSWORD_ENV = "PRESSMARK_STORE_PASSWORD";
+    static final String USER_ENV = BundleStore.USER_ENV;
+    static final String PASSWORD_ENV = BundleStore.PASSWORD_ENV;
     static final String SUPPORTED = "sqlite:PATH, jdbc:sqlite:PATH, jdbc:postgresql://HOST[:PORT]/DATABASE";
     static final int DEFAULT_POSTGRES_PORT = 5432;
 

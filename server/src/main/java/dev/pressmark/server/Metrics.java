@@ -1,0 +1,123 @@
+package dev.pressmark.server;
+
+import dev.pressmark.core.bundle.Prediction;
+import io.micrometer.core.instrument.Counter;
+import io.micrometer.core.instrument.MultiGauge;
+import io.micrometer.core.instrument.Tags;
+import io.micrometer.core.instrument.Timer;
+import io.micrometer.core.instrument.binder.jvm.ClassLoaderMetrics;
+import io.micrometer.core.instrument.binder.jvm.JvmGcMetrics;
+import io.micrometer.core.instrument.binder.jvm.JvmMemoryMetrics;
+import io.micrometer.core.instrument.binder.jvm.JvmThreadMetrics;
+import io.micrometer.core.instrument.binder.system.ProcessorMetrics;
+import io.micrometer.core.instrument.binder.system.UptimeMetrics;
+import io.micrometer.prometheusmetrics.PrometheusConfig;
+import io.micrometer.prometheusmetrics.PrometheusMeterRegistry;
+import java.time.Duration;
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.TimeUnit;
+
+/**
+ * The service's meters, in one Prometheus registry that {@code GET /metrics} scrapes. Every label
+ * takes its values from a bounded set: routes are templates, models and versions are ones the
+ * store holds, labels are the models' own.
+ */
+final class Metrics implements AutoCloseable {
+
+    /** The Prometheus text exposition format, version 0.0.4. */
+    static final String CONTENT_TYPE = "text/plain; version=0.0.4; charset=utf-8";
+    /** The route label of a request that no endpoint matched. */
+    static final String UNMATCHED = "unmatched";
+
+    static final String REQUESTS = "pressmark.http.requests";
+    static final String PREDICTIONS = "pressmark.predictions";
+    static final String BUNDLE_LOAD = "pressmark.bundle.load";
+    static final String ACTIVE_VERSION = "pressmark.active.version.info";
+
+    /**
+     * The latency histogram's upper bounds. A small request is answered in about a millisecond, a
+     * large batch in hundreds; eleven fixed buckets cover that. Micrometer's percentile histogram
+     * would add some 58 buckets per series even clipped to 0.5 ms..1 s, on every route, model and
+     * status, so only these are published.
+     */
+    private static final Duration[] LATENCY_BUCKETS = {
+        Duration.ofMillis(1).dividedBy(2), Duration.ofMillis(1), Duration.ofMillis(2), Duration.ofMillis(5), Duration.ofMillis(10),
+        Duration.ofMillis(25), Duration.ofMillis(50), Duration.ofMillis(100), Duration.ofMillis(250), Duration.ofMillis(500),
+        Duration.ofSeconds(1),
+    };
+
+    private final PrometheusMeterRegistry registry = new PrometheusMeterRegistry(PrometheusConfig.DEFAULT);
+    private final JvmGcMetrics gc = new JvmGcMetrics();
+    private final MultiGauge activeVersions;
+    /** The version serving each model, for the info gauge; replaced whole on each change. */
+    private final Map<String, String> serving = new ConcurrentHashMap<>();
+
+    Metrics() {
+        new JvmMemoryMetrics().bindTo(registry);
+        gc.bindTo(registry);
+        new JvmThreadMetrics().bindTo(registry);
+        new ClassLoaderMetrics().bindTo(registry);
+        new ProcessorMetrics().bindTo(registry);
+        new UptimeMetrics().bindTo(registry);
+        activeVersions = MultiGauge.builder(ACTIVE_VERSION)
+                .description("1 for the version each model serves")
+                .register(registry);
+    }
+
+    /** One answered request; {@code model} and {@code version} are empty where they do not apply. */
+    void request(String method, String route, String model, String version, int status, long nanos) {
+        Timer.builder(REQUESTS)
+                .description("HTTP requests answered, by route template, model, served version, method and status")
+                .tags("route", route, "model", model, "version", version, "method", method, "status", Integer.toString(status))
+                .serviceLevelObjectives(LATENCY_BUCKETS)
+                .register(registry)
+                .record(nanos, TimeUnit.NANOSECONDS);
+    }
+
+    /** The labels one predict request gave, counted per label so a large batch costs one increment per label. */
+    void predictions(String model, String version, List<Prediction> predictions) {
+        Map<String, long[]> counts = new HashMap<>();
+        for (Prediction prediction : predictions) {
+            counts.computeIfAbsent(prediction.label(), l -> new long[1])[0]++;
+        }
+        counts.forEach((label, count) -> Counter.builder(PREDICTIONS)
+                .description("predictions made, by model, version and predicted label")
+                .tags("model", model, "version", version, "label", label)
+                .register(registry)
+                .increment(count[0]));
+    }
+
+    /** How long loading and checking one stored version took. */
+    void bundleLoaded(String model, long nanos) {
+        Timer.builder(BUNDLE_LOAD)
+                .description("time to read, verify and open a stored version for serving")
+                .tags("model", model)
+                .register(registry)
+                .record(nanos, TimeUnit.NANOSECONDS);
+    }
+
+    /** {@code version} now serves {@code model}: the gauge's series for the model's previous version goes away. */
+    void serving(String model, String version) {
+        synchronized (serving) {
+            serving.put(model, version);
+            List<MultiGauge.Row<?>> rows = new ArrayList<>(serving.size());
+            serving.forEach((m, v) -> rows.add(MultiGauge.Row.of(Tags.of("model", m, "version", v), 1)));
+            activeVersions.register(rows, true);
+        }
+    }
+
+    /** The scrape, in {@link #CONTENT_TYPE}. */
+    String scrape() {
+        return registry.scrape(CONTENT_TYPE);
+    }
+
+    @Override
+    public void close() {
+        gc.close();
+        registry.close();
+    }
+}
