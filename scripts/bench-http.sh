@@ -87,6 +87,9 @@ start_server() {
   # a plain command, not a function, in the background: $! is then the JVM itself (taskset and env exec it)
   local launch=(env "$@" java ${JAVA_OPTS:-} -jar "$jar" serve --port 0 --store "sqlite:$work/store.db")
   if [ -n "$server_cpu" ]; then launch=(taskset -c "$server_cpu" "${launch[@]}"); fi
+  # made here, not by the background redirect, so that await_ready never reads a file not there yet
+  : > "$work/$name.out"
+  : > "$work/$name.log"
   "${launch[@]}" > "$work/$name.out" 2> "$work/$name.log" &
   server_pid=$!
 }

@@ -1,10 +1,12 @@
 package dev.pressmark.server;
 
+import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.store.BundleStore;
 import io.javalin.Javalin;
+import io.javalin.http.HttpResponseException;
 import io.javalin.json.JavalinJackson;
 import io.javalin.util.JavalinBindException;
 import java.time.Duration;
@@ -39,7 +41,9 @@ public final class PressmarkServer implements AutoCloseable {
         Objects.requireNonNull(store, "store");
         Objects.requireNonNull(config, "config");
         // A body with anything after its JSON value is malformed, not a value plus ignored noise.
-        ObjectMapper json = new ObjectMapper().enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS);
+        // and a key given twice is ambiguous, so it is refused rather than resolved silently to the last value.
+        ObjectMapper json = new ObjectMapper().enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS)
+                .enable(JsonParser.Feature.STRICT_DUPLICATE_DETECTION);
         Metrics metrics = new Metrics();
         LiveModels live = LiveModels.start(store, metrics);
         try {
@@ -65,9 +69,14 @@ public final class PressmarkServer implements AutoCloseable {
             pool.setName("pressmark-http");
             c.jetty.threadPool = pool;
             c.router.ignoreTrailingSlashes = true;
+            // A known path with the wrong method is a 405 naming the allowed methods, not a 404.
+            c.http.prefer405over404 = true;
+            c.jetty.modifyServer(server -> server.setErrorHandler(new JettyProblems(json)));
             c.requestLogger.http(recorder);
         });
         app.exception(Exception.class, problems::handle);
+        // The framework's own refusals (405 among them) go to its plain-text mapper unless their type is named here.
+        app.exception(HttpResponseException.class, problems::handle);
         // The framework answers a path no route matches by itself, in plain text; answer that as a problem detail too.
         app.error(404, ctx -> {
             String type = ctx.res().getContentType();

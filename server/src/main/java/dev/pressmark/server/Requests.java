@@ -6,7 +6,6 @@ import io.javalin.http.Context;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.io.InputStream;
-import java.io.UncheckedIOException;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -145,7 +144,9 @@ final class Requests {
             }
             return out.toByteArray();
         } catch (IOException e) {
-            throw new UncheckedIOException("reading the request body failed", e);
+            // The client stopped sending (or closed) before the body was complete: its fault, not the server's.
+            throw new ApiProblem(400, "incomplete-body", "Incomplete body", "the body ended before it was complete"
+                    + (declared >= 0 ? " (" + declared + " bytes were declared)" : ""), List.of());
         }
     }
 
