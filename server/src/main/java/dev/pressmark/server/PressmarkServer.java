@@ -45,15 +45,9 @@ public final class PressmarkServer implements AutoCloseable {
         ObjectMapper json = new ObjectMapper().enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS)
                 .enable(JsonParser.Feature.STRICT_DUPLICATE_DETECTION);
         Metrics metrics = new Metrics();
+        // The models load on the follower's thread while the HTTP side starts on this one; start-up waits for both.
+        // A request that comes in between loads the model it names itself, and /health/ready says 503 until then.
         LiveModels live = LiveModels.start(store, metrics);
-        try {
-            live.awaitInitialLoad(INITIAL_LOAD_WAIT);
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            live.close();
-            metrics.close();
-            throw new IllegalStateException("interrupted while loading the active models", e);
-        }
         Access access = new Access(config.adminToken(), config.readerToken());
         ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics);
         RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
@@ -113,6 +107,15 @@ public final class PressmarkServer implements AutoCloseable {
             live.close();
             metrics.close();
             throw e;
+        }
+        try {
+            live.awaitInitialLoad(INITIAL_LOAD_WAIT);
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            app.stop();
+            live.close();
+            metrics.close();
+            throw new IllegalStateException("interrupted while loading the active models", e);
         }
         PressmarkServer server = new PressmarkServer(app, live, metrics);
         LOG.info("listening on http://{}:{} (store {}; admin endpoints {}; reading endpoints {})", config.host(), server.port(),
