@@ -52,6 +52,7 @@ public final class PressmarkServer implements AutoCloseable {
         ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics);
         RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
         Problems problems = new Problems(json);
+        Admission admission = new Admission(config.maxConcurrent());
         ApiDocs docs = new ApiDocs(live, config);
         Javalin app = Javalin.create(c -> {
             c.showJavalinBanner = false;
@@ -66,6 +67,13 @@ public final class PressmarkServer implements AutoCloseable {
             // A known path with the wrong method is a 405 naming the allowed methods, not a 404.
             c.http.prefer405over404 = true;
             c.jetty.modifyServer(server -> server.setErrorHandler(new JettyProblems(json)));
+            // Off unless origins are named: a browser page elsewhere may not call the service.
+            if (!config.corsOrigins().isEmpty()) {
+                c.bundledPlugins.enableCors(cors -> cors.addRule(rule -> {
+                    rule.allowHost(config.corsOrigins().get(0), config.corsOrigins().subList(1, config.corsOrigins().size()).toArray(String[]::new));
+                    rule.exposeHeader("Retry-After");
+                }));
+            }
             c.requestLogger.http(recorder);
         });
         app.exception(Exception.class, problems::handle);
@@ -84,12 +92,12 @@ public final class PressmarkServer implements AutoCloseable {
         app.get("/models/{name}", routes::model);
         app.get("/models/{name}/versions", routes::versions);
         app.get("/models/{name}/versions/{tag}", routes::version);
-        app.put("/models/{name}/versions/{tag}", routes::publish);
-        app.post("/models/{name}/predict", routes::predictActive);
-        app.post("/models/{name}/versions/{tag}/predict", routes::predictNamed);
-        app.post("/models/{name}/explain", routes::explain);
-        app.put("/models/{name}/active", routes::activate);
-        app.post("/models/{name}/rollback", routes::rollback);
+        app.put("/models/{name}/versions/{tag}", admission.bounded(routes::publish));
+        app.post("/models/{name}/predict", admission.bounded(routes::predictActive));
+        app.post("/models/{name}/versions/{tag}/predict", admission.bounded(routes::predictNamed));
+        app.post("/models/{name}/explain", admission.bounded(routes::explain));
+        app.put("/models/{name}/active", admission.bounded(routes::activate));
+        app.post("/models/{name}/rollback", admission.bounded(routes::rollback));
         app.get("/metrics", ctx -> ctx.contentType(Metrics.CONTENT_TYPE).result(metrics.scrape()));
         new Console(store, live, access, config.readerToken().isPresent()).register(app);
         app.get("/openapi.json", docs::json);

@@ -36,7 +36,8 @@ final class Problems {
 
     void handle(Exception failure, Context ctx) {
         ApiProblem problem = toProblem(failure);
-        if (problem.status() >= 500) {
+        // A refusal for load is expected behaviour, not a failure to investigate.
+        if (problem.status() >= 500 && !"busy".equals(problem.slug())) {
             LOG.error("{} {} failed", ctx.method(), ctx.path(), failure);
         }
         ObjectNode body = json.createObjectNode();
