@@ -117,7 +117,8 @@ final class ModelPaths {
         List<String> predictionRequired = new ArrayList<>(List.of("label", "score"));
         List<Object> prediction = new ArrayList<>(List.of(
                 "label", ref(component("Label")),
-                "score", number("The predicted label's decision value.")));
+                "score", number("The predicted label's decision value."),
+                "truncated_tokens", integer("Present when a field was longer than the server scores: how many of its tokens were cut off the end.", 1)));
         if (model.probabilities()) {
             List<Object> perLabel = new ArrayList<>();
             for (String label : model.labels()) {

@@ -131,7 +131,8 @@ final class Shapes {
         components.addSchemas(PREDICTION, object("One item's prediction.", List.of("label", "score"),
                 "label", string("The predicted label."),
                 "score", number("The predicted label's decision value."),
-                "probabilities", map("Each label's probability, when the model gives them.", number(null))));
+                "probabilities", map("Each label's probability, when the model gives them.", number(null)),
+                "truncated_tokens", integer("Present when a field was longer than the server scores: how many of its tokens were cut off the end.", 1)));
         components.addSchemas(PREDICT_RESPONSE, object("Predictions, in item order, with the version that made them.",
                 List.of("model", "version", "results"),
                 "model", string("The model's name."),
@@ -145,7 +146,8 @@ final class Shapes {
                 "intercept", number("The score's intercept."),
                 "contributions", array("Largest magnitude first.", ref(CONTRIBUTION)),
                 "features_used", integer("How many features the item had.", 0),
-                "unknown_tokens", integer("How many of its subwords the model could not use.", 0)));
+                "unknown_tokens", integer("How many of its subwords the model could not use.", 0),
+                "truncated_tokens", integer("Present when a field was longer than the server scores: how many of its tokens were cut off the end.", 1)));
         components.addSchemas(EXPLAIN_RESPONSE, object("Explanations, in item order, with the version that made them.",
                 List.of("model", "version", "results"),
                 "model", string("The model's name."),

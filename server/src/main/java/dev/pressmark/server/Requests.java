@@ -23,12 +23,19 @@ final class Requests {
     private final int maxItems;
     private final long maxJsonBytes;
     private final long maxBundleBytes;
+    private final int maxTokensPerField;
 
     Requests(ObjectMapper json, ServerConfig config) {
         this.json = json;
         this.maxItems = config.maxItems();
         this.maxJsonBytes = config.maxJsonBytes();
         this.maxBundleBytes = config.maxBundleBytes();
+        this.maxTokensPerField = config.maxTokensPerField();
+    }
+
+    /** How many tokens of each text field are scored. */
+    int maxTokensPerField() {
+        return maxTokensPerField;
     }
 
     /** The body as JSON, after checking that it says it is JSON and fits the JSON body limit. */

@@ -87,6 +87,31 @@ class LimitsTest {
         }
     }
 
+    @Test
+    void an_over_long_field_is_cut_to_the_configured_tokens_and_the_answer_says_by_how_much() throws Exception {
+        try (Served s = served(ServerConfig.defaults().withPort(0).withMaxTokensPerField(4))) {
+            String title = "aqua valve flow pipe drain volt amp switch";
+            Http.Answer answer = s.http.postJson(PREDICT, "{\"items\":[{\"title\":\"" + title + "\"},{\"title\":\"aqua\"}]}");
+            assertThat(answer.status()).isEqualTo(200);
+            var bundleInProcess = dev.pressmark.core.bundle.Bundle.read(bundle);
+            var expected = bundleInProcess.predict(List.of(java.util.Map.of("title", title)), 4).get(0);
+            assertThat(expected.truncatedTokens()).isPositive();
+            var first = answer.json().path("results").get(0);
+            assertThat(first.path("truncated_tokens").asInt()).isEqualTo(expected.truncatedTokens());
+            assertThat(first.path("score").asDouble()).isEqualTo(expected.score());
+            assertThat(answer.json().path("results").get(1).has("truncated_tokens")).isFalse();
+            Http.Answer explained = s.http.postJson("/models/routing/explain?k=3", "{\"items\":[{\"title\":\"" + title + "\"}]}");
+            assertThat(explained.json().path("results").get(0).path("truncated_tokens").asInt()).isEqualTo(expected.truncatedTokens());
+        }
+        try (Served s = served(ServerConfig.defaults().withPort(0))) {
+            String huge = "valve ".repeat(500_000);
+            Http.Answer answer = s.http.postJson(PREDICT, "{\"items\":[{\"title\":\"" + huge + "\"}]}");
+            assertThat(answer.status()).isEqualTo(200);
+            assertThat(answer.json().path("results").get(0).path("truncated_tokens").asInt())
+                    .isGreaterThanOrEqualTo(500_000 - ServerConfig.DEFAULT_MAX_TOKENS_PER_FIELD);
+        }
+    }
+
     private static String retryAfter(Served s) throws Exception {
         var response = java.net.http.HttpClient.newHttpClient().send(HttpRequest.newBuilder(
                 java.net.URI.create("http://127.0.0.1:" + s.server.port() + PREDICT)).header("Content-Type", "application/json")
