@@ -29,6 +29,6 @@ echo "quick-start: training on 20,000 invented listings in $work" >&2
 pressmark train --config train.yaml --out routing.pmb
 pressmark publish routing.pmb --name routing --tag 1.0.0 --activate --store "sqlite:$work/pressmark.db"
 pressmark versions routing --store "sqlite:$work/pressmark.db"
-echo "quick-start: predictions, one with a brand and a typing slip the data never had:" >&2
-pressmark predict routing.pmb "Torvikline ball valve 3/4in" "Aquaholt dimmer swtich, pack of 4" "Brassmoraward hex bolt M8"
+echo "quick-start: predictions for brands the data never had, a typing slip, and parts every department sells:" >&2
+pressmark predict routing.pmb "Quorubwick service kit 3/4in" "Zentazlin dimmer swtich, pack of 4" "Kragopeau mounting bracket M8"
 echo "quick-start: the report is $work/routing.pmb.html" >&2

@@ -29,6 +29,7 @@ import picocli.CommandLine.Option;
             VerifyCommand.class,
             HistoryCommand.class,
             ServeCommand.class,
+            DemoCommand.class,
             CommandLine.HelpCommand.class})
 public final class Main {
 

@@ -9,6 +9,8 @@ import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Optional;
 import java.util.concurrent.Callable;
 import java.util.concurrent.CountDownLatch;
@@ -46,6 +48,18 @@ final class ServeCommand implements Callable<Integer> {
             description = "One log line per request on stderr, logger dev.pressmark.access (default: on).")
     boolean accessLog;
 
+    @Option(names = "--max-concurrent", paramLabel = "N", defaultValue = "" + ServerConfig.DEFAULT_MAX_CONCURRENT,
+            description = "The most model requests served at once; more are answered 503 with Retry-After (default: ${DEFAULT-VALUE}).")
+    int maxConcurrent;
+
+    @Option(names = "--max-tokens-per-field", paramLabel = "N", defaultValue = "" + ServerConfig.DEFAULT_MAX_TOKENS_PER_FIELD,
+            description = "Score at most N tokens of each text field; longer ones are cut and the answer says by how much (default: ${DEFAULT-VALUE}).")
+    int maxTokensPerField;
+
+    @Option(names = "--cors-origin", paramLabel = "ORIGIN",
+            description = "Let pages from ORIGIN (scheme://host[:port]) call the service from a browser; repeatable (default: CORS off).")
+    List<String> corsOrigins = new ArrayList<>();
+
     @Mixin
     StoreOption store;
 
@@ -55,7 +69,8 @@ final class ServeCommand implements Callable<Integer> {
                 : Optional.ofNullable(System.getenv(ADMIN_TOKEN_ENV)).filter(t -> !t.isBlank()).map(BearerToken::of);
         Optional<BearerToken> reader = readerTokenFile == null ? Optional.empty() : Optional.of(token(readerTokenFile));
         ServerConfig config = new ServerConfig(host, port, maxItems, ServerConfig.DEFAULT_MAX_JSON_BYTES, ServerConfig.DEFAULT_MAX_BUNDLE_BYTES, admin,
-                reader, ServerConfig.DEFAULT_MAX_THREADS, accessLog);
+                reader, ServerConfig.DEFAULT_MAX_THREADS, accessLog, maxConcurrent, corsOrigins,
+                maxTokensPerField);
         BundleStore opened = store.open();
         PressmarkServer server;
         try {

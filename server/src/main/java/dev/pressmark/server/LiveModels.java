@@ -163,6 +163,18 @@ final class LiveModels implements AutoCloseable {
         return ref == null ? Optional.empty() : Optional.ofNullable(ref.get());
     }
 
+    /** Every model's version being served now, by model name. */
+    Map<String, LiveVersion> serving() {
+        Map<String, LiveVersion> serving = new TreeMap<>();
+        active.forEach((model, ref) -> {
+            LiveVersion version = ref.get();
+            if (version != null) {
+                serving.put(model, version);
+            }
+        });
+        return serving;
+    }
+
     /** A named version: the active one if the tag matches, else loaded (and kept in a small cache). */
     LiveVersion named(String model, String tag) {
         Optional<LiveVersion> serving = active(model);

@@ -112,7 +112,7 @@ final class ModelRoutes {
         ctx.attribute(RequestRecorder.VERSION, served.tag());
         List<Map<String, String>> items = requests.items(requests.jsonBody(ctx), served.bundle().inputFields());
         ctx.attribute(RequestRecorder.ITEMS, items.size());
-        List<Prediction> predictions = served.bundle().predict(items);
+        List<Prediction> predictions = served.bundle().predict(items, requests.maxTokensPerField());
         metrics.predictions(name, served.tag(), predictions);
         ctx.json(views.predictions(name, served, predictions));
     }
@@ -128,7 +128,7 @@ final class ModelRoutes {
         ctx.attribute(RequestRecorder.ITEMS, items.size());
         List<Explanation> explanations = new ArrayList<>(items.size());
         for (Map<String, String> item : items) {
-            explanations.add(bundle.explain(item, k));
+            explanations.add(bundle.explain(item, k, requests.maxTokensPerField()));
         }
         ctx.json(views.explanations(name, served, explanations));
     }

@@ -1,10 +1,12 @@
 package dev.pressmark.server;
 
+import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.store.BundleStore;
 import io.javalin.Javalin;
+import io.javalin.http.HttpResponseException;
 import io.javalin.json.JavalinJackson;
 import io.javalin.util.JavalinBindException;
 import java.time.Duration;
@@ -39,21 +41,19 @@ public final class PressmarkServer implements AutoCloseable {
         Objects.requireNonNull(store, "store");
         Objects.requireNonNull(config, "config");
         // A body with anything after its JSON value is malformed, not a value plus ignored noise.
-        ObjectMapper json = new ObjectMapper().enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS);
+        // and a key given twice is ambiguous, so it is refused rather than resolved silently to the last value.
+        ObjectMapper json = new ObjectMapper().enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS)
+                .enable(JsonParser.Feature.STRICT_DUPLICATE_DETECTION);
         Metrics metrics = new Metrics();
+        // The models load on the follower's thread while the HTTP side starts on this one; start-up waits for both.
+        // A request that comes in between loads the model it names itself, and /health/ready says 503 until then.
         LiveModels live = LiveModels.start(store, metrics);
-        try {
-            live.awaitInitialLoad(INITIAL_LOAD_WAIT);
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            live.close();
-            metrics.close();
-            throw new IllegalStateException("interrupted while loading the active models", e);
-        }
-        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json),
-                new Access(config.adminToken(), config.readerToken()), metrics);
+        Access access = new Access(config.adminToken(), config.readerToken());
+        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics);
         RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
         Problems problems = new Problems(json);
+        Admission admission = new Admission(config.maxConcurrent());
+        ApiDocs docs = new ApiDocs(live, config);
         Javalin app = Javalin.create(c -> {
             c.showJavalinBanner = false;
             c.useVirtualThreads = false;
@@ -64,9 +64,21 @@ public final class PressmarkServer implements AutoCloseable {
             pool.setName("pressmark-http");
             c.jetty.threadPool = pool;
             c.router.ignoreTrailingSlashes = true;
+            // A known path with the wrong method is a 405 naming the allowed methods, not a 404.
+            c.http.prefer405over404 = true;
+            c.jetty.modifyServer(server -> server.setErrorHandler(new JettyProblems(json)));
+            // Off unless origins are named: a browser page elsewhere may not call the service.
+            if (!config.corsOrigins().isEmpty()) {
+                c.bundledPlugins.enableCors(cors -> cors.addRule(rule -> {
+                    rule.allowHost(config.corsOrigins().get(0), config.corsOrigins().subList(1, config.corsOrigins().size()).toArray(String[]::new));
+                    rule.exposeHeader("Retry-After");
+                }));
+            }
             c.requestLogger.http(recorder);
         });
         app.exception(Exception.class, problems::handle);
+        // The framework's own refusals (405 among them) go to its plain-text mapper unless their type is named here.
+        app.exception(HttpResponseException.class, problems::handle);
         // The framework answers a path no route matches by itself, in plain text; answer that as a problem detail too.
         app.error(404, ctx -> {
             String type = ctx.res().getContentType();
@@ -80,13 +92,18 @@ public final class PressmarkServer implements AutoCloseable {
         app.get("/models/{name}", routes::model);
         app.get("/models/{name}/versions", routes::versions);
         app.get("/models/{name}/versions/{tag}", routes::version);
-        app.put("/models/{name}/versions/{tag}", routes::publish);
-        app.post("/models/{name}/predict", routes::predictActive);
-        app.post("/models/{name}/versions/{tag}/predict", routes::predictNamed);
-        app.post("/models/{name}/explain", routes::explain);
-        app.put("/models/{name}/active", routes::activate);
-        app.post("/models/{name}/rollback", routes::rollback);
+        app.put("/models/{name}/versions/{tag}", admission.bounded(routes::publish));
+        app.post("/models/{name}/predict", admission.bounded(routes::predictActive));
+        app.post("/models/{name}/versions/{tag}/predict", admission.bounded(routes::predictNamed));
+        app.post("/models/{name}/explain", admission.bounded(routes::explain));
+        app.put("/models/{name}/active", admission.bounded(routes::activate));
+        app.post("/models/{name}/rollback", admission.bounded(routes::rollback));
         app.get("/metrics", ctx -> ctx.contentType(Metrics.CONTENT_TYPE).result(metrics.scrape()));
+        new Console(store, live, access, config.readerToken().isPresent()).register(app);
+        app.get("/openapi.json", docs::json);
+        app.get("/openapi.yaml", docs::yaml);
+        app.get("/docs", docs::page);
+        app.get(ApiDocs.ASSETS + "{file}", docs::asset);
         try {
             app.start(config.host(), config.port());
         } catch (JavalinBindException e) {
@@ -98,6 +115,15 @@ public final class PressmarkServer implements AutoCloseable {
             live.close();
             metrics.close();
             throw e;
+        }
+        try {
+            live.awaitInitialLoad(INITIAL_LOAD_WAIT);
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            app.stop();
+            live.close();
+            metrics.close();
+            throw new IllegalStateException("interrupted while loading the active models", e);
         }
         PressmarkServer server = new PressmarkServer(app, live, metrics);
         LOG.info("listening on http://{}:{} (store {}; admin endpoints {}; reading endpoints {})", config.host(), server.port(),

@@ -36,7 +36,8 @@ final class Problems {
 
     void handle(Exception failure, Context ctx) {
         ApiProblem problem = toProblem(failure);
-        if (problem.status() >= 500) {
+        // A refusal for load is expected behaviour, not a failure to investigate.
+        if (problem.status() >= 500 && !"busy".equals(problem.slug())) {
             LOG.error("{} {} failed", ctx.method(), ctx.path(), failure);
         }
         ObjectNode body = json.createObjectNode();
@@ -53,6 +54,9 @@ final class Problems {
         }
         if (problem.status() == 401) {
             ctx.header("WWW-Authenticate", "Bearer");
+        }
+        if (failure instanceof HttpResponseException e && e.getStatus() == 405 && e.getDetails().get("availableMethods") != null) {
+            ctx.header("Allow", e.getDetails().get("availableMethods"));
         }
         ctx.status(problem.status()).contentType(CONTENT_TYPE).result(body.toString());
     }
@@ -100,7 +104,8 @@ final class Problems {
         int status = e.getStatus();
         return switch (status) {
             case 404 -> ApiProblem.notFound("no-such-endpoint", e.getMessage());
-            case 405 -> new ApiProblem(405, "method-not-allowed", "Method not allowed", e.getMessage(), List.of());
+            case 405 -> new ApiProblem(405, "method-not-allowed", "Method not allowed", e.getDetails().get("availableMethods") == null
+                    ? e.getMessage() : "this path answers " + e.getDetails().get("availableMethods") + " only", List.of());
             case 413 -> ApiProblem.tooLarge(e.getMessage());
             default -> new ApiProblem(status, "http-" + status, "HTTP " + status, e.getMessage(), List.of());
         };

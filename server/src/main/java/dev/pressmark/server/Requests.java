@@ -7,7 +7,6 @@ import java.io.ByteArrayOutputStream;
 import java.io.CharConversionException;
 import java.io.IOException;
 import java.io.InputStream;
-import java.io.UncheckedIOException;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -25,12 +24,19 @@ final class Requests {
     private final int maxItems;
     private final long maxJsonBytes;
     private final long maxBundleBytes;
+    private final int maxTokensPerField;
 
     Requests(ObjectMapper json, ServerConfig config) {
         this.json = json;
         this.maxItems = config.maxItems();
         this.maxJsonBytes = config.maxJsonBytes();
         this.maxBundleBytes = config.maxBundleBytes();
+        this.maxTokensPerField = config.maxTokensPerField();
+    }
+
+    /** How many tokens of each text field are scored. */
+    int maxTokensPerField() {
+        return maxTokensPerField;
     }
 
     /** The body as JSON, after checking that it says it is JSON and fits the JSON body limit. */
@@ -156,7 +162,9 @@ final class Requests {
             }
             return out.toByteArray();
         } catch (IOException e) {
-            throw new UncheckedIOException("reading the request body failed", e);
+            // The client stopped sending (or closed) before the body was complete: its fault, not the server's.
+            throw new ApiProblem(400, "incomplete-body", "Incomplete body", "the body ended before it was complete"
+                    + (declared >= 0 ? " (" + declared + " bytes were declared)" : ""), List.of());
         }
     }
 

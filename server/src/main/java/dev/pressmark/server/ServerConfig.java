@@ -1,5 +1,6 @@
 package dev.pressmark.server;
 
+import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
 
@@ -15,9 +16,14 @@ import java.util.Optional;
  * @param readerToken the reader bearer token; without one the reading endpoints are open
  * @param maxThreads the size of the HTTP thread pool
  * @param accessLog whether each request is logged, one line, on the logger {@code dev.pressmark.access}
+ * @param maxConcurrent the most model requests (predict, explain, publish, activate, rollback) served at once;
+ *     beyond it they are answered 503 with {@code Retry-After} at once, while health, metrics and docs still answer
+ * @param corsOrigins the origins whose pages may call the service from a browser; empty (the default) turns CORS off
+ * @param maxTokensPerField how many tokens of each text field are scored; a longer field is cut, and the answer says by how much
  */
 public record ServerConfig(String host, int port, int maxItems, long maxJsonBytes, long maxBundleBytes, Optional<BearerToken> adminToken,
-        Optional<BearerToken> readerToken, int maxThreads, boolean accessLog) {
+        Optional<BearerToken> readerToken, int maxThreads, boolean accessLog, int maxConcurrent, List<String> corsOrigins,
+        int maxTokensPerField) {
 
     public static final String DEFAULT_HOST = "127.0.0.1";
     public static final int DEFAULT_PORT = 8080;
@@ -30,11 +36,27 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     public static final long DEFAULT_MAX_BUNDLE_BYTES = 256L << 20;
     /** The access log is on by default: one line per request is what an operator reads first. */
     public static final boolean DEFAULT_ACCESS_LOG = true;
+    /** Leaves a few of the default threads for health checks and metrics when model requests pile up. */
+    public static final int DEFAULT_MAX_CONCURRENT = 20;
+    /** Far beyond a title or a subject line; a pasted document is cut here instead of costing its whole length. */
+    public static final int DEFAULT_MAX_TOKENS_PER_FIELD = 512;
 
     public ServerConfig {
         Objects.requireNonNull(host, "host");
         Objects.requireNonNull(adminToken, "adminToken");
         Objects.requireNonNull(readerToken, "readerToken");
+        corsOrigins = List.copyOf(Objects.requireNonNull(corsOrigins, "corsOrigins"));
+        for (String origin : corsOrigins) {
+            if (!origin.matches("https?://[^/\\s]+")) {
+                throw new IllegalArgumentException("a CORS origin is scheme://host[:port] with no path, was \"" + origin + "\"");
+            }
+        }
+        if (maxTokensPerField < 1) {
+            throw new IllegalArgumentException("maxTokensPerField must be >= 1, was " + maxTokensPerField);
+        }
+        if (maxConcurrent < 1) {
+            throw new IllegalArgumentException("maxConcurrent must be >= 1, was " + maxConcurrent);
+        }
         if (port < 0 || port > 65_535) {
             throw new IllegalArgumentException("port must be in [0, 65535], was " + port);
         }
@@ -55,30 +77,44 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     /** The defaults, with no tokens. */
     public static ServerConfig defaults() {
         return new ServerConfig(DEFAULT_HOST, DEFAULT_PORT, DEFAULT_MAX_ITEMS, DEFAULT_MAX_JSON_BYTES, DEFAULT_MAX_BUNDLE_BYTES, Optional.empty(),
-                Optional.empty(), DEFAULT_MAX_THREADS, DEFAULT_ACCESS_LOG);
+                Optional.empty(), DEFAULT_MAX_THREADS, DEFAULT_ACCESS_LOG, DEFAULT_MAX_CONCURRENT, List.of(),
+                DEFAULT_MAX_TOKENS_PER_FIELD);
     }
 
     public ServerConfig withPort(int newPort) {
-        return new ServerConfig(host, newPort, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog);
+        return new ServerConfig(host, newPort, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
     }
 
     public ServerConfig withMaxItems(int newMaxItems) {
-        return new ServerConfig(host, port, newMaxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog);
+        return new ServerConfig(host, port, newMaxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
     }
 
     public ServerConfig withBodyLimits(long newMaxJsonBytes, long newMaxBundleBytes) {
-        return new ServerConfig(host, port, maxItems, newMaxJsonBytes, newMaxBundleBytes, adminToken, readerToken, maxThreads, accessLog);
+        return new ServerConfig(host, port, maxItems, newMaxJsonBytes, newMaxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
     }
 
     public ServerConfig withAdminToken(Optional<BearerToken> token) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, token, readerToken, maxThreads, accessLog);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, token, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
     }
 
     public ServerConfig withReaderToken(Optional<BearerToken> token) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, token, maxThreads, accessLog);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, token, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
+    }
+
+    public ServerConfig withMaxConcurrent(int n) {
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, n, corsOrigins, maxTokensPerField);
+    }
+
+    public ServerConfig withCorsOrigins(List<String> origins) {
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, origins, maxTokensPerField);
+    }
+
+    public ServerConfig withMaxTokensPerField(int n) {
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent,
+                corsOrigins, n);
     }
 
     public ServerConfig withAccessLog(boolean on) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, on);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, on, maxConcurrent, corsOrigins, maxTokensPerField);
     }
 }

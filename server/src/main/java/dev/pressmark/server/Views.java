@@ -86,6 +86,9 @@ final class Views {
 
     private ObjectNode prediction(Prediction p) {
         ObjectNode node = json.createObjectNode().put("label", p.label()).put("score", p.score());
+        if (p.truncatedTokens() > 0) {
+            node.put("truncated_tokens", p.truncatedTokens());
+        }
         if (p.probabilities() != null) {
             ObjectNode probabilities = node.putObject("probabilities");
             for (Map.Entry<String, Double> e : p.probabilities().entrySet()) {

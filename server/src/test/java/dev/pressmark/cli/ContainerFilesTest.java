@@ -48,7 +48,12 @@ class ContainerFilesTest {
     void every_command_line_in_the_container_files_is_accepted_by_the_program() throws IOException {
         List<List<String>> commands = new ArrayList<>();
         Dockerfile dockerfile = Dockerfile.read(DOCKER.resolve("Dockerfile"));
-        assertThat(dockerfile.entrypoint()).containsExactly("java", "-jar", "/opt/pressmark/pressmark.jar");
+        List<String> entrypoint = dockerfile.entrypoint();
+        assertThat(entrypoint.get(0)).isEqualTo("java");
+        assertThat(entrypoint.subList(entrypoint.size() - 2, entrypoint.size())).containsExactly("-jar", "/opt/pressmark/pressmark.jar");
+        // The class-data archive the image maps at start is the one its build step records.
+        assertThat(entrypoint).contains("-XX:SharedArchiveFile=/opt/pressmark/pressmark.jsa");
+        assertThat(String.join(" ", dockerfile.instruction("RUN"))).contains("-XX:ArchiveClassesAtExit=/opt/pressmark/pressmark.jsa");
         commands.add(dockerfile.cmd());
         JsonNode compose = compose();
         for (String replica : List.of("replica-a", "replica-b")) {

@@ -39,7 +39,8 @@ class ServeCommandTest {
     private record Child(Process process, int port, CompletableFuture<String> err) implements AutoCloseable {
         @Override
         public void close() {
-            process.destroy();
+            // Through the handle: Process.destroy() also closes the pipes, which can cut off the stderr reader mid-read.
+            process.toHandle().destroy();
             try {
                 if (!process.waitFor(30, TimeUnit.SECONDS)) {
                     process.destroyForcibly();

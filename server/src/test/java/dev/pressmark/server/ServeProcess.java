@@ -115,7 +115,8 @@ final class ServeProcess implements AutoCloseable {
     }
 
     private static void stop(Process process) {
-        process.destroy();
+        // Through the handle: Process.destroy() also closes the pipes, which can cut off the stderr reader mid-read.
+        process.toHandle().destroy();
         try {
             if (!process.waitFor(STOPPED_WITHIN.toSeconds(), TimeUnit.SECONDS)) {
                 process.destroyForcibly();

@@ -49,8 +49,11 @@ final class StoreDatabase {
         }
         HikariDataSource pool = pool(url);
         try {
-            checkIsStoreOrEmpty(pool, url);
-            migrate(pool, url);
+            // Flyway costs over a second of start-up (it loads some thousand classes); a store whose history already
+            // records this program's newest migration has nothing for it to do.
+            if (checkIsStoreOrEmpty(pool, url) < SCHEMA_VERSION) {
+                migrate(pool, url);
+            }
             return pool;
         } catch (RuntimeException e) {
             pool.close();
@@ -139,11 +142,12 @@ final class StoreDatabase {
         return newline < 0 ? message : message.substring(0, newline);
     }
 
-    private static void checkIsStoreOrEmpty(HikariDataSource pool, StoreUrl url) {
+    /** The schema version the store's history records as applied; 0 for an empty database. */
+    private static int checkIsStoreOrEmpty(HikariDataSource pool, StoreUrl url) {
         try (Connection connection = pool.getConnection()) {
             List<String> tables = tables(connection, url.dialect());
             if (tables.isEmpty()) {
-                return;
+                return 0;
             }
             if (!tables.contains(HISTORY_TABLE)) {
                 throw new StoreException(StoreException.NOT_A_STORE, url.describe() + " is not a pressmark store: it holds other tables ("
@@ -154,6 +158,7 @@ final class StoreDatabase {
                 throw new StoreException(StoreException.SCHEMA_NEWER, url.describe() + " has store schema version " + version
                         + ", newer than this program's " + SCHEMA_VERSION + "; use a newer pressmark");
             }
+            return version;
         } catch (SQLException e) {
             throw openFailure(url, e);
         }

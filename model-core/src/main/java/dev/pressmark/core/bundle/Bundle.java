@@ -30,6 +30,8 @@ public final class Bundle {
     public static final String LABELS = "labels";
     public static final String INPUT_FIELDS = "input_fields";
     public static final String CLASSIFIER = "classifier";
+    /** No cut: every token of every field is scored. */
+    public static final int ALL_TOKENS = Integer.MAX_VALUE;
 
     private static final ObjectMapper JSON = new ObjectMapper();
 
@@ -169,14 +171,47 @@ public final class Bundle {
 
     /** Predicts every item; each item maps every input field to its text. */
     public List<Prediction> predict(List<Map<String, String>> items) {
+        return predict(items, ALL_TOKENS);
+    }
+
+    /**
+     * Predicts every item with each field cut to its first {@code maxTokensPerField} tokens, so that
+     * a huge text costs no more to score than a long one; {@link Prediction#truncatedTokens} tells
+     * how much was cut.
+     */
+    public List<Prediction> predict(List<Map<String, String>> items, int maxTokensPerField) {
+        requirePositive(maxTokensPerField);
         List<String[]> rows = rows(items);
         List<List<List<String>>> tokens = TextPipeline.tokenize(pipeline.tokenizer(), rows);
+        int[] cut = cut(tokens, maxTokensPerField);
         SparseMatrix x = pipeline.features().transform(tokens);
         List<Prediction> predictions = new ArrayList<>(rows.size());
         for (int i = 0; i < rows.size(); i++) {
-            predictions.add(prediction(x, i, pipeline.unknownTokens(tokens.get(i))));
+            predictions.add(prediction(x, i, pipeline.unknownTokens(tokens.get(i)), cut[i]));
         }
         return predictions;
+    }
+
+    /** Cuts every field of every row to {@code max} tokens in place; returns the tokens dropped per row. */
+    private static int[] cut(List<List<List<String>>> tokens, int max) {
+        int[] dropped = new int[tokens.size()];
+        for (int i = 0; i < tokens.size(); i++) {
+            List<List<String>> row = tokens.get(i);
+            for (int c = 0; c < row.size(); c++) {
+                List<String> field = row.get(c);
+                if (field.size() > max) {
+                    dropped[i] += field.size() - max;
+                    row.set(c, field.subList(0, max));
+                }
+            }
+        }
+        return dropped;
+    }
+
+    private static void requirePositive(int maxTokensPerField) {
+        if (maxTokensPerField < 1) {
+            throw new IllegalArgumentException("maxTokensPerField must be >= 1, was " + maxTokensPerField);
+        }
     }
 
     public Prediction predict(Map<String, String> item) {
@@ -185,13 +220,20 @@ public final class Bundle {
 
     /** Predicts {@code item} and lists the {@code k} features that moved its score most. */
     public Explanation explain(Map<String, String> item, int k) {
+        return explain(item, k, ALL_TOKENS);
+    }
+
+    /** {@link #explain(Map, int)} with each field cut to its first {@code maxTokensPerField} tokens. */
+    public Explanation explain(Map<String, String> item, int k, int maxTokensPerField) {
         if (k < 0) {
             throw new IllegalArgumentException("k must be >= 0, was " + k);
         }
+        requirePositive(maxTokensPerField);
         List<String[]> rows = rows(List.of(item));
         List<List<List<String>>> tokens = TextPipeline.tokenize(pipeline.tokenizer(), rows);
+        int[] cut = cut(tokens, maxTokensPerField);
         SparseMatrix x = pipeline.features().transform(tokens);
-        Prediction prediction = prediction(x, 0, pipeline.unknownTokens(tokens.get(0)));
+        Prediction prediction = prediction(x, 0, pipeline.unknownTokens(tokens.get(0)), cut[0]);
         LinearWeights weights = model.weights();
         int predicted = labels.indexOf(prediction.label());
         int score = weights.numScores() == 1 ? 0 : predicted;
@@ -206,7 +248,7 @@ public final class Bundle {
         return new Explanation(prediction, sign * weights.intercept(score), all.subList(0, Math.min(k, all.size())), all.size());
     }
 
-    private Prediction prediction(SparseMatrix x, int row, int unknownTokens) {
+    private Prediction prediction(SparseMatrix x, int row, int unknownTokens, int truncatedTokens) {
         LinearWeights weights = model.weights();
         double[] scores = new double[weights.numScores()];
         weights.decisionValues(x, row, scores);
@@ -221,7 +263,7 @@ public final class Bundle {
                 probabilities.put(labels.get(k), p[k]);
             }
         }
-        return new Prediction(labels.get(predicted), score, probabilities, unknownTokens);
+        return new Prediction(labels.get(predicted), score, probabilities, unknownTokens, truncatedTokens);
     }
 
     private List<String[]> rows(List<Map<String, String>> items) {

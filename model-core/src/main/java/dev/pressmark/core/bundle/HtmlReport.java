@@ -18,6 +18,8 @@ import java.util.Map;
  */
 public final class HtmlReport {
 
+    private static final String SVG_NAMESPACE = "http://www.w3.org/2000/svg";
+
     /** How many features per sign and class the bars show. */
     public static final int TOP_FEATURES = 20;
 
@@ -57,6 +59,22 @@ public final class HtmlReport {
     }
 
     private static void confusion(StringBuilder html, List<String> labels, JsonNode counts) {
+        html.append("<h2>Confusion matrix (test part; rows truth, columns prediction)</h2>\n");
+        confusionChart(html, labels, counts, false);
+    }
+
+    /**
+     * The test part's confusion matrix as a heat map, one standalone {@code <svg>} element: rows
+     * are the true labels, columns the predicted ones, the diagonal in one hue and the errors in
+     * another, each cell's shade its count over the largest count.
+     */
+    public static String confusionSvg(Bundle bundle) {
+        StringBuilder svg = new StringBuilder(4096);
+        confusionChart(svg, bundle.labels(), bundle.manifest().path("metrics").path("test_confusion").path("counts"), true);
+        return svg.toString();
+    }
+
+    private static void confusionChart(StringBuilder html, List<String> labels, JsonNode counts, boolean standalone) {
         int k = labels.size();
         int cell = 56;
         int left = 130;
@@ -67,9 +85,7 @@ public final class HtmlReport {
                 max = Math.max(max, count.asLong());
             }
         }
-        html.append("<h2>Confusion matrix (test part; rows truth, columns prediction)</h2>\n");
-        html.append(String.format(Locale.ROOT, "<svg class=\"chart\" role=\"img\" aria-label=\"confusion matrix\" width=\"%d\" height=\"%d\">%n",
-                left + cell * k + 10, top + cell * k + 10));
+        openSvg(html, "confusion matrix", left + cell * k + 10, top + cell * k + 10, standalone);
         for (int p = 0; p < k; p++) {
             html.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" class=\"axis\" text-anchor=\"middle\">%s</text>%n",
                     left + cell * p + cell / 2, top - 8, escape(shorten(labels.get(p)))));
@@ -96,8 +112,7 @@ public final class HtmlReport {
         int left = 150;
         List<Map.Entry<String, JsonNode>> metrics = new ArrayList<>(cv.properties());
         html.append("<h2>Per-fold spread</h2>\n");
-        html.append(String.format(Locale.ROOT, "<svg class=\"chart\" role=\"img\" aria-label=\"per-fold values\" width=\"%d\" height=\"%d\">%n",
-                left + width + 20, rowHeight * metrics.size() + 30));
+        openSvg(html, "per-fold values", left + width + 20, rowHeight * metrics.size() + 30, false);
         for (int tick = 0; tick <= 4; tick++) {
             double x = left + width * tick / 4.0;
             html.append(String.format(Locale.ROOT, "<line x1=\"%.1f\" y1=\"0\" x2=\"%.1f\" y2=\"%d\" class=\"grid\"/><text x=\"%.1f\" y=\"%d\" class=\"axis\" text-anchor=\"middle\">%.2f</text>%n",
@@ -119,25 +134,68 @@ public final class HtmlReport {
     }
 
     private static void features(StringBuilder html, Bundle bundle) {
-        LinearWeights weights = bundle.model().weights();
-        FeatureSpace space = bundle.pipeline().features();
         html.append("<h2>Features with the largest weights</h2>\n<div class=\"bars\">\n");
-        for (int score = 0; score < weights.numScores(); score++) {
-            String label = bundle.labelOfScore(score);
-            final int s = score;
-            List<Integer> order = bundle.featuresByWeight(score);
-            List<Integer> positive = order.subList(0, Math.min(TOP_FEATURES, order.size()));
-            List<Integer> negative = new ArrayList<>(order.subList(Math.max(0, order.size() - TOP_FEATURES), order.size()));
-            java.util.Collections.reverse(negative);
+        for (String label : scoredLabels(bundle)) {
             html.append("<section><h3>").append(escape(label)).append("</h3>\n");
-            bars(html, "towards " + label, positive, weights, s, space);
-            bars(html, "away from " + label, negative, weights, s, space);
+            html.append("<p class=\"bar-title\">").append(escape("towards " + label)).append("</p>\n");
+            featureBars(html, bundle, label, true, TOP_FEATURES, false);
+            html.append("<p class=\"bar-title\">").append(escape("away from " + label)).append("</p>\n");
+            featureBars(html, bundle, label, false, TOP_FEATURES, false);
             html.append("</section>\n");
         }
         html.append("</div>\n");
     }
 
-    private static void bars(StringBuilder html, String title, List<Integer> features, LinearWeights weights, int score, FeatureSpace space) {
+    /** The labels the model has a score for: every label, or only the second of a binary model. */
+    private static List<String> scoredLabels(Bundle bundle) {
+        List<String> labels = new ArrayList<>();
+        for (int score = 0; score < bundle.model().weights().numScores(); score++) {
+            labels.add(bundle.labelOfScore(score));
+        }
+        return labels;
+    }
+
+    /**
+     * The {@code count} features with the largest weights towards {@code label} (or, with {@code
+     * towards} false, away from it) as horizontal bars, one standalone {@code <svg>} element; each
+     * bar's length is its weight over the largest shown. For a binary model, the first label's
+     * features towards it are the second label's away from it.
+     */
+    public static String featureBarsSvg(Bundle bundle, String label, boolean towards, int count) {
+        StringBuilder svg = new StringBuilder(4096);
+        featureBars(svg, bundle, label, towards, count, true);
+        return svg.toString();
+    }
+
+    private static void featureBars(StringBuilder html, Bundle bundle, String label, boolean towards, int count, boolean standalone) {
+        if (count < 1) {
+            throw new IllegalArgumentException("count must be >= 1, was " + count);
+        }
+        LinearWeights weights = bundle.model().weights();
+        int score;
+        boolean flipped = false;
+        if (weights.numScores() == 1 && bundle.labels().size() == 2 && bundle.labels().get(0).equals(label)) {
+            score = 0;
+            flipped = true;
+        } else {
+            score = scoredLabels(bundle).indexOf(label);
+        }
+        if (score < 0) {
+            throw new IllegalArgumentException("label must be one of " + String.join(", ", bundle.labels()) + ", was \"" + label + "\"");
+        }
+        List<Integer> order = bundle.featuresByWeight(score);
+        List<Integer> chosen;
+        if (towards != flipped) {
+            chosen = order.subList(0, Math.min(count, order.size()));
+        } else {
+            chosen = new ArrayList<>(order.subList(Math.max(0, order.size() - count), order.size()));
+            java.util.Collections.reverse(chosen);
+        }
+        bars(html, (towards ? "towards " : "away from ") + label, chosen, weights, score, flipped, bundle.pipeline().features(), standalone);
+    }
+
+    private static void bars(StringBuilder html, String title, List<Integer> features, LinearWeights weights, int score, boolean flipped,
+                             FeatureSpace space, boolean standalone) {
         double max = 1e-12;
         for (int j : features) {
             max = Math.max(max, Math.abs(weights.weight(score, j)));
@@ -145,12 +203,10 @@ public final class HtmlReport {
         int left = 170;
         int width = 200;
         int row = 16;
-        html.append("<p class=\"bar-title\">").append(escape(title)).append("</p>\n");
-        html.append(String.format(Locale.ROOT, "<svg class=\"chart\" role=\"img\" aria-label=\"%s\" width=\"%d\" height=\"%d\">%n",
-                escape(title), left + width + 70, row * features.size() + 4));
+        openSvg(html, title, left + width + 70, row * features.size() + 4, standalone);
         for (int i = 0; i < features.size(); i++) {
             int j = features.get(i);
-            double w = weights.weight(score, j);
+            double w = flipped ? -weights.weight(score, j) : weights.weight(score, j);
             double length = width * Math.abs(w) / max;
             html.append(String.format(Locale.ROOT,
                     "<text x=\"%d\" y=\"%d\" class=\"axis\" text-anchor=\"end\">%s</text><rect x=\"%d\" y=\"%d\" width=\"%.1f\" height=\"%d\" class=\"%s\"/>"
@@ -159,6 +215,15 @@ public final class HtmlReport {
                     w >= 0 ? "pos" : "neg", left + length + 4, i * row + 12, format(w)));
         }
         html.append("</svg>\n");
+    }
+
+    /**
+     * An SVG element that scales down to its container (its view box). A standalone one names its
+     * namespace so that it parses as XML on its own; inside the report's HTML the parser supplies it.
+     */
+    private static void openSvg(StringBuilder html, String label, int width, int height, boolean standalone) {
+        html.append(String.format(Locale.ROOT, "<svg %sclass=\"chart\" role=\"img\" aria-label=\"%s\" width=\"%d\" height=\"%d\" "
+                + "viewBox=\"0 0 %d %d\">%n", standalone ? "xmlns=\"" + SVG_NAMESPACE + "\" " : "", escape(label), width, height, width, height));
     }
 
     private static String pretty(JsonNode node) {

@@ -1,0 +1,12 @@
+// Renders the service's own document. A separate file rather than an inline script, so that a
+// content security policy can allow scripts from this origin only.
+window.addEventListener("load", function () {
+  window.ui = SwaggerUIBundle({
+    url: "/openapi.json",
+    dom_id: "#docs",
+    deepLinking: true,
+    layout: "BaseLayout",
+    // no outside validator: the page talks to this server only
+    validatorUrl: null
+  });
+});
