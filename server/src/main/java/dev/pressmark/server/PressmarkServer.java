@@ -37,13 +37,19 @@ public final class PressmarkServer implements AutoCloseable {
         this.metrics = metrics;
     }
 
+    /**
+     * The service's JSON reader and writer. A body with anything after its JSON value is malformed,
+     * not a value plus ignored noise; a key given twice is ambiguous, so it is refused rather than
+     * resolved silently to the last value.
+     */
+    static ObjectMapper jsonMapper() {
+        return new ObjectMapper().enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS).enable(JsonParser.Feature.STRICT_DUPLICATE_DETECTION);
+    }
+
     public static PressmarkServer start(BundleStore store, ServerConfig config) {
         Objects.requireNonNull(store, "store");
         Objects.requireNonNull(config, "config");
-        // A body with anything after its JSON value is malformed, not a value plus ignored noise.
-        // and a key given twice is ambiguous, so it is refused rather than resolved silently to the last value.
-        ObjectMapper json = new ObjectMapper().enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS)
-                .enable(JsonParser.Feature.STRICT_DUPLICATE_DETECTION);
+        ObjectMapper json = jsonMapper();
         Metrics metrics = new Metrics();
         // The models load on the follower's thread while the HTTP side starts on this one; start-up waits for both.
         // A request that comes in between loads the model it names itself, and /health/ready says 503 until then.

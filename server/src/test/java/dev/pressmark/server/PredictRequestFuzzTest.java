@@ -3,7 +3,6 @@ package dev.pressmark.server;
 import static org.assertj.core.api.Assertions.assertThat;
 
 import com.code_intelligence.jazzer.junit.FuzzTest;
-import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.core.bundle.Bundle;
@@ -43,7 +42,7 @@ final class PredictRequestFuzzTest {
     private static final String MODEL = "routing";
 
     /** Configured as {@code PressmarkServer.start} configures the service's mapper. */
-    private static final ObjectMapper JSON = new ObjectMapper().enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS);
+    private static final ObjectMapper JSON = PressmarkServer.jsonMapper();
     private static final Requests REQUESTS = new Requests(JSON, ServerConfig.defaults().withMaxItems(MAX_ITEMS));
     private static final Views VIEWS = new Views(JSON);
     private static final LiveVersion SERVED = trainOnce();
