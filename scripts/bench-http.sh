@@ -32,7 +32,7 @@ while [ $# -gt 0 ]; do
   shift
 done
 # quick mode trains on fewer rows: the model has the same vocabulary and feature sizes, and training is most of its time
-if [ "$quick" = 1 ]; then duration=3s; warmup=1s; rows=5000; else duration=15s; warmup=10s; rows=20000; fi
+if [ "$quick" = 1 ]; then duration=3s; warmup=1s; rows=5000; else duration=15s; warmup=20s; rows=20000; fi
 threads="${BENCH_THREADS:-2}"
 # 16: enough to keep the server busy, and below its default bound of 20 model requests at once (beyond it a
 # request is answered 503 by design, which wrk would count as a failure).
@@ -156,7 +156,7 @@ stop_server
 # --- (a) cold start ------------------------------------------------------------------------
 echo "bench-http: (a) cold start" >&2
 [ -f "$archive" ] || die "the set-up server wrote no class-data archive"
-# Three starts each, without and with the archive; the median of each. The last start stays up for the load runs.
+# Three starts each, without and with the archive; the median of each.
 # not in a subshell: start_server's server_pid and port must reach this shell
 cold_start() {
   local t0
@@ -166,6 +166,9 @@ cold_start() {
   runs+=("$(( ($(now_us) - t0) / 1000 ))")
 }
 median3() { printf '%s\n' "$@" | sort -n | sed -n 2p; }
+# Starts use the whole machine (no wrk runs then); only the load runs pin the server to its core.
+pinned_cpu="$server_cpu"
+server_cpu=""
 runs=()
 JAVA_OPTS="$plain_opts"
 for i in 1 2 3; do cold_start; stop_server; done
@@ -173,10 +176,11 @@ cold_ms="$(median3 "${runs[@]}")"
 cold_runs="${runs[*]}"
 runs=()
 JAVA_OPTS="$plain_opts -XX:SharedArchiveFile=$archive -Xlog:cds=off -Xlog:cds+dynamic=off"
-for i in 1 2 3; do
-  [ "$i" = 1 ] || stop_server
-  cold_start
-done
+for i in 1 2 3; do cold_start; stop_server; done
+server_cpu="$pinned_cpu"
+# the server for the load runs: the archive, pinned (its start is not measured)
+start_server serve PRESSMARK_ADMIN_TOKEN=
+await_ready serve
 cold_cds_ms="$(median3 "${runs[@]}")"
 cold_cds_runs="${runs[*]}"
 base="http://127.0.0.1:$port"
@@ -288,7 +292,7 @@ report="$(cat <<EOF
 ## pressmark HTTP benchmark ($( [ "$quick" = 1 ] && echo quick || echo full ) mode)
 
 $(date -u +%Y-%m-%dT%H:%M:%SZ), commit $(git -C "$root" rev-parse --short HEAD 2>/dev/null || echo unknown), $(nproc) cores, $(java -version 2>&1 | sed -n 1p), $(wrk --version 2>&1 | sed -n 1p | cut -d' ' -f1-2).
-Store: SQLite, $VERSIONS versions of one bundle, v$VERSIONS active. Pinning: $pinning.
+Store: SQLite, $VERSIONS versions of one bundle, v$VERSIONS active. Pinning (load runs only): $pinning.
 wrk: $threads threads, $connections connections, $duration per run after a $warmup warm-up; JAVA_OPTS: ${plain_opts:-(none)} (plus the archive options where named).
 
 | measure | value | goal |

@@ -51,6 +51,15 @@ final class Metrics implements AutoCloseable {
     };
 
     private final PrometheusMeterRegistry registry = new PrometheusMeterRegistry(PrometheusConfig.DEFAULT);
+    // Finding a meter through the registry builds and sorts its tags on every call; the hot paths look it up here instead.
+    private final ConcurrentHashMap<RequestKey, Timer> timers = new ConcurrentHashMap<>();
+    private final ConcurrentHashMap<PredictionKey, Counter> counters = new ConcurrentHashMap<>();
+
+    private record RequestKey(String method, String route, String model, String version, int status) {
+    }
+
+    private record PredictionKey(String model, String version, String label) {
+    }
     private final JvmGcMetrics gc = new JvmGcMetrics();
     private final MultiGauge activeVersions;
     /** The version serving each model, for the info gauge; replaced whole on each change. */
@@ -70,11 +79,11 @@ final class Metrics implements AutoCloseable {
 
     /** One answered request; {@code model} and {@code version} are empty where they do not apply. */
     void request(String method, String route, String model, String version, int status, long nanos) {
-        Timer.builder(REQUESTS)
+        timers.computeIfAbsent(new RequestKey(method, route, model, version, status), k -> Timer.builder(REQUESTS)
                 .description("HTTP requests answered, by route template, model, served version, method and status")
-                .tags("route", route, "model", model, "version", version, "method", method, "status", Integer.toString(status))
+                .tags("route", k.route(), "model", k.model(), "version", k.version(), "method", k.method(), "status", Integer.toString(k.status()))
                 .serviceLevelObjectives(LATENCY_BUCKETS)
-                .register(registry)
+                .register(registry))
                 .record(nanos, TimeUnit.NANOSECONDS);
     }
 
@@ -84,10 +93,10 @@ final class Metrics implements AutoCloseable {
         for (Prediction prediction : predictions) {
             counts.computeIfAbsent(prediction.label(), l -> new long[1])[0]++;
         }
-        counts.forEach((label, count) -> Counter.builder(PREDICTIONS)
+        counts.forEach((label, count) -> counters.computeIfAbsent(new PredictionKey(model, version, label), k -> Counter.builder(PREDICTIONS)
                 .description("predictions made, by model, version and predicted label")
-                .tags("model", model, "version", version, "label", label)
-                .register(registry)
+                .tags("model", k.model(), "version", k.version(), "label", k.label())
+                .register(registry))
                 .increment(count[0]));
     }
 

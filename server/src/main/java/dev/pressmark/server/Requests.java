@@ -150,8 +150,16 @@ final class Requests {
             throw tooLarge(limitBytes, declared + " bytes");
         }
         try (InputStream in = ctx.req().getInputStream()) {
-            ByteArrayOutputStream out = new ByteArrayOutputStream(declared > 0 ? (int) declared : 8192);
-            byte[] buffer = new byte[64 * 1024];
+            if (declared >= 0) {
+                // The usual case: read exactly the declared bytes into their own array, with no copying buffer.
+                byte[] exact = in.readNBytes((int) declared);
+                if (exact.length < declared) {
+                    throw new IOException("the body ended after " + exact.length + " of " + declared + " bytes");
+                }
+                return exact;
+            }
+            ByteArrayOutputStream out = new ByteArrayOutputStream(8192);
+            byte[] buffer = new byte[16 * 1024];
             long total = 0;
             for (int n; (n = in.read(buffer)) >= 0; ) {
                 total += n;
