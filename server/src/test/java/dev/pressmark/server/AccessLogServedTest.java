@@ -59,8 +59,7 @@ class AccessLogServedTest {
                 .withReaderToken(Optional.of(BearerToken.of(Served.READER)));
         String[] asReader = {"Authorization", "Bearer " + Served.READER, "X-Api-Key", HEADER_SECRET};
         try (Served s = Served.on(dir, config)) {
-            s.store.publish("routing", "1.0.0", svm, "test");
-            s.store.activate("routing", "1.0.0", "test", "first");
+            s.serving(svm);
             int before = accessLines().size();
             assertThat(s.http.get("/health?token=" + QUERY_SECRET).status()).isEqualTo(200);
             assertThat(s.http.postJson("/models/routing/predict", "{\"items\":[{\"title\":\"aquaflow valve\"},{\"title\":\"volt amp\"}]}", asReader)

@@ -104,8 +104,7 @@ class ApiDocsTest {
     @Test
     void the_served_json_and_yaml_parse_without_messages_and_say_the_same() throws IOException {
         try (Served s = Served.on(dir)) {
-            s.store.publish("routing", "1.0.0", threeLabels, "test");
-            s.store.activate("routing", "1.0.0", "test", "first");
+            s.serving(threeLabels);
             awaitServing(s, "1.0.0");
 
             Http.Answer json = s.http.get("/openapi.json");
@@ -129,8 +128,7 @@ class ApiDocsTest {
     @Test
     void activating_a_version_with_other_labels_changes_the_document() {
         try (Served s = Served.on(dir)) {
-            s.store.publish("routing", "1.0.0", threeLabels, "test");
-            s.store.activate("routing", "1.0.0", "test", "first");
+            s.serving(threeLabels);
             awaitServing(s, "1.0.0");
             OpenAPI before = parsedCleanly(s.http.get("/openapi.json").body());
             assertThat(labelEnum(before)).containsExactly("electrical", "garden", "plumbing");
@@ -150,8 +148,7 @@ class ApiDocsTest {
     @Test
     void the_document_s_example_request_gets_the_example_answer_from_the_server() throws IOException {
         try (Served s = Served.on(dir)) {
-            s.store.publish("routing", "1.0.0", threeLabels, "test");
-            s.store.activate("routing", "1.0.0", "test", "first");
+            s.serving(threeLabels);
             awaitServing(s, "1.0.0");
             JsonNode doc = s.http.get("/openapi.json").json();
             JsonNode operation = doc.at("/paths/~1models~1routing~1predict/post");
@@ -185,8 +182,7 @@ class ApiDocsTest {
         ServerConfig config = ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN)))
                 .withReaderToken(Optional.of(BearerToken.of(Served.READER)));
         try (Served s = Served.on(dir, config)) {
-            s.store.publish("routing", "1.0.0", threeLabels, "test");
-            s.store.activate("routing", "1.0.0", "test", "first");
+            s.serving(threeLabels);
             awaitServing(s, "1.0.0");
             assertThat(s.http.get("/models").status()).isEqualTo(401);
             Http.Answer json = s.http.get("/openapi.json");

@@ -28,8 +28,7 @@ class ConsoleTest {
 
     private Served served(ServerConfig config) {
         Served s = Served.on(dir, config);
-        s.store.publish("routing", "1.0.0", svm, "test");
-        s.store.activate("routing", "1.0.0", "test", "first");
+        s.serving(svm);
         return s;
     }
 

@@ -58,8 +58,7 @@ class HostileRequestsTest {
     static void start() {
         bundle = TestBundles.train(dir.resolve("train"), 3, "classifier: {kind: linear-svm, probabilities: platt}");
         served = Served.on(dir, ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN))));
-        served.store.publish("routing", "1.0.0", bundle, "test");
-        served.store.activate("routing", "1.0.0", "test", "first");
+        served.serving(bundle);
     }
 
     @AfterAll

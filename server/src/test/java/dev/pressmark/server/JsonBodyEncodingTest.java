@@ -31,8 +31,7 @@ class JsonBodyEncodingTest {
         // parser read UTF-32, and the code unit 0x6d657405 above U+10FFFF was an IOException that became a 500
         byte[] body = new byte[] {(byte) 0xEF, 0, 0, 0, 5, 't', 'e', 'm', 's', '"', ':', '[', ']', '}'};
         try (Served s = Served.on(dir)) {
-            s.store.publish("routing", "1.0.0", bundle, "test");
-            s.store.activate("routing", "1.0.0", "test", "first");
+            s.serving(bundle);
             for (String path : new String[] {"/models/routing/predict", "/models/routing/explain"}) {
                 Http.Answer answer = s.http.post(path, "application/json", body);
                 assertThat(answer.status()).as(answer.body()).isEqualTo(400);

@@ -41,8 +41,7 @@ class LimitsTest {
             throw new java.io.UncheckedIOException(e);
         }
         Served s = Served.on(own, config);
-        s.store.publish("routing", "1.0.0", bundle, "test");
-        s.store.activate("routing", "1.0.0", "test", "first");
+        s.serving(bundle);
         return s;
     }
 

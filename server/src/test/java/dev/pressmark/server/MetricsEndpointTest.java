@@ -60,8 +60,7 @@ class MetricsEndpointTest {
     @Test
     void each_request_is_counted_once_by_route_template_model_version_method_and_status() throws InterruptedException {
         try (Served s = Served.on(dir)) {
-            s.store.publish("routing", "1.0.0", svm, "test");
-            s.store.activate("routing", "1.0.0", "test", "first");
+            s.serving(svm);
             List<JsonNode> answers = new ArrayList<>();
             for (int n = 1; n <= 3; n++) {
                 answers.add(expect(s.http.postJson("/models/routing/predict", items(n)), 200).json());
@@ -100,8 +99,7 @@ class MetricsEndpointTest {
     @Test
     void every_latency_histogram_is_cumulative_over_the_documented_buckets_and_ends_at_its_count() throws InterruptedException {
         try (Served s = Served.on(dir)) {
-            s.store.publish("routing", "1.0.0", svm, "test");
-            s.store.activate("routing", "1.0.0", "test", "first");
+            s.serving(svm);
             for (int i = 0; i < 5; i++) {
                 expect(s.http.postJson("/models/routing/predict", items(1 + i)), 200);
                 expect(s.http.get("/models/nope-" + i), 404);

@@ -32,8 +32,7 @@ class ProblemDetailsTest {
 
     private Served served(ServerConfig config) {
         Served s = Served.on(dir, config);
-        s.store.publish("routing", "1.0.0", bundle, "test");
-        s.store.activate("routing", "1.0.0", "test", "first");
+        s.serving(bundle);
         return s;
     }
 

@@ -39,6 +39,13 @@ final class Served implements AutoCloseable {
         }
     }
 
+    /** Publishes {@code bundle} as routing 1.0.0 and activates it: the one model most tests serve. */
+    Served serving(byte[] bundle) {
+        store.publish("routing", "1.0.0", bundle, "test");
+        store.activate("routing", "1.0.0", "test", "first");
+        return this;
+    }
+
     @Override
     public void close() {
         server.close();

@@ -42,8 +42,7 @@ class ServerEndpointsTest {
     @Test
     void health_and_readiness_answer_with_their_documented_shapes() {
         try (Served s = Served.on(dir)) {
-            s.store.publish("routing", "1.0.0", svm, "test");
-            s.store.activate("routing", "1.0.0", "test", "first");
+            s.serving(svm);
         }
         try (Served s = Served.on(dir)) {
             Http.Answer health = s.http.get("/health");
@@ -109,8 +108,7 @@ class ServerEndpointsTest {
     @Test
     void predict_answers_as_the_bundle_itself_does_and_names_the_version_that_served() {
         try (Served s = Served.on(dir)) {
-            s.store.publish("routing", "1.0.0", svm, "test");
-            s.store.activate("routing", "1.0.0", "test", "first");
+            s.serving(svm);
             List<Map<String, String>> items = List.of(Map.of("title", "aquavolt valve pro"), Map.of("title", "fernleaf rake kit"),
                     Map.of("title", "voltamp breaker black"));
             List<Prediction> expected = Bundle.read(svm).predict(items);
@@ -154,8 +152,7 @@ class ServerEndpointsTest {
     @Test
     void explain_lists_the_top_k_signed_contributions_and_the_unknown_tokens() {
         try (Served s = Served.on(dir)) {
-            s.store.publish("routing", "1.0.0", svm, "test");
-            s.store.activate("routing", "1.0.0", "test", "first");
+            s.serving(svm);
             Explanation expected = Bundle.read(svm).explain(Map.of("title", "aquavolt valve pro zzzq"), 3);
 
             Http.Answer answer = s.http.postJson("/models/routing/explain?k=3", "{\"items\":[{\"title\":\"aquavolt valve pro zzzq\"}]}");
