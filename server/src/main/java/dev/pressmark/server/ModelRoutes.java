@@ -114,7 +114,7 @@ final class ModelRoutes {
         ctx.attribute(RequestRecorder.ITEMS, items.size());
         List<Prediction> predictions = served.bundle().predict(items, requests.maxTokensPerField());
         metrics.predictions(name, served.tag(), predictions);
-        ctx.json(views.predictions(name, served, predictions));
+        ctx.contentType(Requests.JSON).result(views.predictions(name, served, predictions));
     }
 
     void explain(Context ctx) throws IOException {

@@ -1,5 +1,6 @@
 package dev.pressmark.server;
 
+import com.fasterxml.jackson.core.JsonGenerator;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ArrayNode;
@@ -8,6 +9,7 @@ import dev.pressmark.core.bundle.Contribution;
 import dev.pressmark.core.bundle.Explanation;
 import dev.pressmark.core.bundle.Prediction;
 import dev.pressmark.store.Version;
+import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.util.List;
@@ -56,11 +58,40 @@ final class Views {
         return node;
     }
 
-    ObjectNode predictions(String model, LiveVersion served, List<Prediction> predictions) {
-        ObjectNode root = served(model, served);
-        ArrayNode results = root.putArray("results");
-        predictions.forEach(p -> results.add(prediction(p)));
-        return root;
+    /**
+     * The predict answer as UTF-8 JSON bytes, written straight through a generator: it is the
+     * hottest response, and building a tree first costs more than the model itself. Same shape,
+     * member order and number formatting as {@link #prediction}.
+     */
+    byte[] predictions(String model, LiveVersion served, List<Prediction> predictions) {
+        ByteArrayOutputStream out = new ByteArrayOutputStream(64 + 160 * predictions.size());
+        try (JsonGenerator g = json.getFactory().createGenerator(out)) {
+            g.writeStartObject();
+            g.writeStringField("model", model);
+            g.writeStringField("version", served.tag());
+            g.writeArrayFieldStart("results");
+            for (Prediction p : predictions) {
+                g.writeStartObject();
+                g.writeStringField("label", p.label());
+                g.writeNumberField("score", p.score());
+                if (p.truncatedTokens() > 0) {
+                    g.writeNumberField("truncated_tokens", p.truncatedTokens());
+                }
+                if (p.probabilities() != null) {
+                    g.writeObjectFieldStart("probabilities");
+                    for (Map.Entry<String, Double> e : p.probabilities().entrySet()) {
+                        g.writeNumberField(e.getKey(), e.getValue());
+                    }
+                    g.writeEndObject();
+                }
+                g.writeEndObject();
+            }
+            g.writeEndArray();
+            g.writeEndObject();
+        } catch (IOException e) {
+            throw new UncheckedIOException("writing a predict answer to memory failed", e);
+        }
+        return out.toByteArray();
     }
 
     ObjectNode explanations(String model, LiveVersion served, List<Explanation> explanations) {
