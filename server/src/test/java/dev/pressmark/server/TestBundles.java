@@ -16,11 +16,18 @@ import java.time.Instant;
 import java.util.LinkedHashMap;
 import java.util.Map;
 import java.util.SplittableRandom;
+import java.util.concurrent.ConcurrentHashMap;
 
 /** Small real bundles, trained in the test on generated listing titles. */
 final class TestBundles {
 
     private static final Instant CREATED = Instant.parse("2026-01-01T00:00:00Z");
+    /**
+     * Bundles already trained in this JVM, by seed and classifier section. Training is
+     * deterministic (fixed data, seed and creation time), and most test classes ask for the same
+     * one, so it is trained once per test run rather than once per class.
+     */
+    private static final Map<String, byte[]> TRAINED = new ConcurrentHashMap<>();
 
     private TestBundles() {
     }
@@ -30,6 +37,10 @@ final class TestBundles {
      * classifier section, so that two builds differ in their weights.
      */
     static byte[] train(Path dir, long seed, String classifier) {
+        return TRAINED.computeIfAbsent(seed + "\n" + classifier, key -> trainNew(dir, seed, classifier)).clone();
+    }
+
+    private static byte[] trainNew(Path dir, long seed, String classifier) {
         try {
             Files.createDirectories(dir);
             Path csv = dir.resolve("listings.csv");
