@@ -27,9 +27,7 @@ class ConsoleTest {
     }
 
     private Served served(ServerConfig config) {
-        Served s = Served.on(dir, config);
-        s.serving(svm);
-        return s;
+        return Served.on(dir, config).serving(svm);
     }
 
     private Served served() {

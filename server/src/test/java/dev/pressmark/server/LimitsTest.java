@@ -40,9 +40,7 @@ class LimitsTest {
         } catch (IOException e) {
             throw new java.io.UncheckedIOException(e);
         }
-        Served s = Served.on(own, config);
-        s.serving(bundle);
-        return s;
+        return Served.on(own, config).serving(bundle);
     }
 
     @Test

@@ -31,9 +31,7 @@ class ProblemDetailsTest {
     }
 
     private Served served(ServerConfig config) {
-        Served s = Served.on(dir, config);
-        s.serving(bundle);
-        return s;
+        return Served.on(dir, config).serving(bundle);
     }
 
     private Served served() {
