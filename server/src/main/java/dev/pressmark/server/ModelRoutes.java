@@ -130,7 +130,7 @@ final class ModelRoutes {
         for (Map<String, String> item : items) {
             explanations.add(bundle.explain(item, k, requests.maxTokensPerField()));
         }
-        ctx.json(views.explanations(name, served, explanations));
+        ctx.contentType(Requests.JSON).result(views.explanations(name, served, explanations));
     }
 
     void publish(Context ctx) {

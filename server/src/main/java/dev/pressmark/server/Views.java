@@ -58,75 +58,72 @@ final class Views {
         return node;
     }
 
+    /** One result's members, written into the result object the caller opened. */
+    @FunctionalInterface
+    private interface ResultWriter<T> {
+        void write(JsonGenerator g, T result) throws IOException;
+    }
+
     /**
      * The predict answer as UTF-8 JSON bytes, written straight through a generator: it is the
-     * hottest response, and building a tree first costs more than the model itself. Same shape,
-     * member order and number formatting as {@link #prediction}.
+     * hottest response, and building a tree first costs more than the model itself.
      */
     byte[] predictions(String model, LiveVersion served, List<Prediction> predictions) {
-        ByteArrayOutputStream out = new ByteArrayOutputStream(64 + 160 * predictions.size());
+        return results(model, served, predictions, Views::writePrediction);
+    }
+
+    /** The explain answer: each prediction's members, then the contributions that moved it. */
+    byte[] explanations(String model, LiveVersion served, List<Explanation> explanations) {
+        return results(model, served, explanations, (g, e) -> {
+            writePrediction(g, e.prediction());
+            g.writeNumberField("intercept", e.intercept());
+            g.writeArrayFieldStart("contributions");
+            for (Contribution c : e.contributions()) {
+                g.writeStartObject();
+                g.writeStringField("feature", c.feature());
+                g.writeNumberField("contribution", c.contribution());
+                g.writeEndObject();
+            }
+            g.writeEndArray();
+            g.writeNumberField("features_used", e.featuresUsed());
+            g.writeNumberField("unknown_tokens", e.prediction().unknownTokens());
+        });
+    }
+
+    /** {@code {"model", "version", "results": [...]}} with one object per result. */
+    private <T> byte[] results(String model, LiveVersion served, List<T> results, ResultWriter<T> writer) {
+        ByteArrayOutputStream out = new ByteArrayOutputStream(64 + 160 * results.size());
         try (JsonGenerator g = json.getFactory().createGenerator(out)) {
             g.writeStartObject();
             g.writeStringField("model", model);
             g.writeStringField("version", served.tag());
             g.writeArrayFieldStart("results");
-            for (Prediction p : predictions) {
+            for (T result : results) {
                 g.writeStartObject();
-                g.writeStringField("label", p.label());
-                g.writeNumberField("score", p.score());
-                if (p.truncatedTokens() > 0) {
-                    g.writeNumberField("truncated_tokens", p.truncatedTokens());
-                }
-                if (p.probabilities() != null) {
-                    g.writeObjectFieldStart("probabilities");
-                    for (Map.Entry<String, Double> e : p.probabilities().entrySet()) {
-                        g.writeNumberField(e.getKey(), e.getValue());
-                    }
-                    g.writeEndObject();
-                }
+                writer.write(g, result);
                 g.writeEndObject();
             }
             g.writeEndArray();
             g.writeEndObject();
         } catch (IOException e) {
-            throw new UncheckedIOException("writing a predict answer to memory failed", e);
+            throw new UncheckedIOException("writing an answer to memory failed", e);
         }
         return out.toByteArray();
     }
 
-    ObjectNode explanations(String model, LiveVersion served, List<Explanation> explanations) {
-        ObjectNode root = served(model, served);
-        ArrayNode results = root.putArray("results");
-        for (Explanation e : explanations) {
-            ObjectNode node = prediction(e.prediction());
-            node.put("intercept", e.intercept());
-            ArrayNode contributions = node.putArray("contributions");
-            for (Contribution c : e.contributions()) {
-                contributions.addObject().put("feature", c.feature()).put("contribution", c.contribution());
-            }
-            node.put("features_used", e.featuresUsed());
-            node.put("unknown_tokens", e.prediction().unknownTokens());
-            results.add(node);
-        }
-        return root;
-    }
-
-    private ObjectNode served(String model, LiveVersion served) {
-        return json.createObjectNode().put("model", model).put("version", served.tag());
-    }
-
-    private ObjectNode prediction(Prediction p) {
-        ObjectNode node = json.createObjectNode().put("label", p.label()).put("score", p.score());
+    private static void writePrediction(JsonGenerator g, Prediction p) throws IOException {
+        g.writeStringField("label", p.label());
+        g.writeNumberField("score", p.score());
         if (p.truncatedTokens() > 0) {
-            node.put("truncated_tokens", p.truncatedTokens());
+            g.writeNumberField("truncated_tokens", p.truncatedTokens());
         }
         if (p.probabilities() != null) {
-            ObjectNode probabilities = node.putObject("probabilities");
+            g.writeObjectFieldStart("probabilities");
             for (Map.Entry<String, Double> e : p.probabilities().entrySet()) {
-                probabilities.put(e.getKey(), e.getValue());
+                g.writeNumberField(e.getKey(), e.getValue());
             }
+            g.writeEndObject();
         }
-        return node;
     }
 
     private JsonNode manifest(Version v) {
