@@ -1,6 +1,8 @@
 package dev.pressmark.server;
 
+import com.fasterxml.jackson.core.JsonFactory;
 import com.fasterxml.jackson.core.JsonParser;
+import com.fasterxml.jackson.core.StreamWriteFeature;
 import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.core.PressmarkException;
@@ -40,10 +42,13 @@ public final class PressmarkServer implements AutoCloseable {
     /**
      * The service's JSON reader and writer. A body with anything after its JSON value is malformed,
      * not a value plus ignored noise; a key given twice is ambiguous, so it is refused rather than
-     * resolved silently to the last value.
+     * resolved silently to the last value. Doubles are written with Jackson's shortest-digits
+     * writer (Schubfach), which is several times quicker than {@link Double#toString} on JDK 17 and
+     * reads back to the same double: every predict answer carries a score and a probability per label.
      */
     static ObjectMapper jsonMapper() {
-        return new ObjectMapper().enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS).enable(JsonParser.Feature.STRICT_DUPLICATE_DETECTION);
+        JsonFactory factory = JsonFactory.builder().enable(StreamWriteFeature.USE_FAST_DOUBLE_WRITER).build();
+        return new ObjectMapper(factory).enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS).enable(JsonParser.Feature.STRICT_DUPLICATE_DETECTION);
     }
 
     public static PressmarkServer start(BundleStore store, ServerConfig config) {
