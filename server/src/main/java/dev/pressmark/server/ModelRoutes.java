@@ -110,7 +110,7 @@ final class ModelRoutes {
 
     private void predict(Context ctx, String name, LiveVersion served) throws IOException {
         ctx.attribute(RequestRecorder.VERSION, served.tag());
-        List<Map<String, String>> items = requests.items(requests.jsonBody(ctx), served.bundle().inputFields());
+        List<Map<String, String>> items = requests.items(ctx, served.bundle().inputFields());
         ctx.attribute(RequestRecorder.ITEMS, items.size());
         List<Prediction> predictions = served.bundle().predict(items, requests.maxTokensPerField());
         metrics.predictions(name, served.tag(), predictions);
@@ -124,7 +124,7 @@ final class ModelRoutes {
         LiveVersion served = activeLive(name);
         ctx.attribute(RequestRecorder.VERSION, served.tag());
         Bundle bundle = served.bundle();
-        List<Map<String, String>> items = requests.items(requests.jsonBody(ctx), bundle.inputFields());
+        List<Map<String, String>> items = requests.items(ctx, bundle.inputFields());
         ctx.attribute(RequestRecorder.ITEMS, items.size());
         List<Explanation> explanations = new ArrayList<>(items.size());
         for (Map<String, String> item : items) {

@@ -7,8 +7,6 @@ import java.io.ByteArrayOutputStream;
 import java.io.CharConversionException;
 import java.io.IOException;
 import java.io.InputStream;
-import java.util.ArrayList;
-import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
@@ -21,14 +19,14 @@ final class Requests {
     static final Set<String> BUNDLE_TYPES = Set.of("application/octet-stream", "application/zip");
 
     private final ObjectMapper json;
-    private final int maxItems;
+    private final ItemsReader items;
     private final long maxJsonBytes;
     private final long maxBundleBytes;
     private final int maxTokensPerField;
 
     Requests(ObjectMapper json, ServerConfig config) {
         this.json = json;
-        this.maxItems = config.maxItems();
+        this.items = new ItemsReader(json.getFactory(), config.maxItems());
         this.maxJsonBytes = config.maxJsonBytes();
         this.maxBundleBytes = config.maxBundleBytes();
         this.maxTokensPerField = config.maxTokensPerField();
@@ -53,10 +51,16 @@ final class Requests {
         try {
             return json.readTree(body);
         } catch (CharConversionException e) {
-            // The parser guesses UTF-16 or UTF-32 from the first four bytes and reports a code unit it
-            // cannot decode as a plain IOException rather than a parse error, which would be a 500.
-            throw ApiProblem.malformedJson("the body is not valid JSON text: " + e.getMessage());
+            throw notJsonText(e);
         }
+    }
+
+    /**
+     * The parser guesses UTF-16 or UTF-32 from the first four bytes and reports a code unit it cannot
+     * decode as a plain IOException rather than a parse error, which would be a 500.
+     */
+    private static ApiProblem notJsonText(CharConversionException e) {
+        return ApiProblem.malformedJson("the body is not valid JSON text: " + e.getMessage());
     }
 
     /** The body as a bundle file, up to the bundle body limit. */
@@ -66,45 +70,18 @@ final class Requests {
     }
 
     /** The {@code items} of a predict or explain request, each mapping every input field of the model to its text. */
-    List<Map<String, String>> items(JsonNode body, List<String> inputFields) {
-        if (!body.isObject()) {
-            throw ApiProblem.invalidField("(body)", "must be a JSON object with an \"items\" array");
+    List<Map<String, String>> items(Context ctx, List<String> inputFields) throws IOException {
+        requireType(ctx, Set.of(JSON));
+        return items(body(ctx, maxJsonBytes), inputFields);
+    }
+
+    /** The {@code items} of a body already read within its limit. */
+    List<Map<String, String>> items(byte[] body, List<String> inputFields) throws IOException {
+        try {
+            return items.read(body, inputFields);
+        } catch (CharConversionException e) {
+            throw notJsonText(e);
         }
-        JsonNode items = body.get("items");
-        if (items == null || !items.isArray()) {
-            throw ApiProblem.invalidField("items", "must be an array of objects");
-        }
-        if (items.size() > maxItems) {
-            throw ApiProblem.invalidField("items", "must have at most " + maxItems + " items, had " + items.size());
-        }
-        List<ApiProblem.FieldError> errors = new ArrayList<>();
-        List<Map<String, String>> parsed = new ArrayList<>(items.size());
-        for (int i = 0; i < items.size(); i++) {
-            JsonNode item = items.get(i);
-            if (!item.isObject()) {
-                errors.add(new ApiProblem.FieldError("items[" + i + "]", "must be an object"));
-                continue;
-            }
-            Map<String, String> fields = new LinkedHashMap<>();
-            for (String field : inputFields) {
-                JsonNode value = item.get(field);
-                if (value == null || value.isNull()) {
-                    errors.add(new ApiProblem.FieldError("items[" + i + "]." + field, "is missing; the model needs " + inputFields));
-                } else if (!value.isTextual()) {
-                    errors.add(new ApiProblem.FieldError("items[" + i + "]." + field, "must be a string, was " + value.getNodeType()
-                            .toString().toLowerCase(Locale.ROOT)));
-                } else {
-                    fields.put(field, value.textValue());
-                }
-            }
-            parsed.add(fields);
-        }
-        if (!errors.isEmpty()) {
-            // Enough to fix the request without a reply the size of the request.
-            List<ApiProblem.FieldError> shown = errors.subList(0, Math.min(errors.size(), 20));
-            throw ApiProblem.invalid(errors.size() + " item field(s) are missing or not strings", shown);
-        }
-        return parsed;
     }
 
     /** A string member of a JSON object body. */

@@ -84,7 +84,7 @@ final class PredictRequestFuzzTest {
     /** What {@code ModelRoutes.predict} does with the body, ending in the bytes it would send. */
     private static JsonNode predict(byte[] body) throws IOException {
         Bundle bundle = SERVED.bundle();
-        List<Map<String, String>> items = REQUESTS.items(REQUESTS.parseJson(body), bundle.inputFields());
+        List<Map<String, String>> items = REQUESTS.items(body, bundle.inputFields());
         List<Prediction> predictions = bundle.predict(items);
         assertThat(predictions).hasSize(items.size());
         return readBack(VIEWS.predictions(MODEL, SERVED, predictions));
@@ -93,7 +93,7 @@ final class PredictRequestFuzzTest {
     /** What {@code ModelRoutes.explain} does with the body. */
     private static JsonNode explain(byte[] body) throws IOException {
         Bundle bundle = SERVED.bundle();
-        List<Map<String, String>> items = REQUESTS.items(REQUESTS.parseJson(body), bundle.inputFields());
+        List<Map<String, String>> items = REQUESTS.items(body, bundle.inputFields());
         List<Explanation> explanations = new ArrayList<>(items.size());
         for (Map<String, String> item : items) {
             explanations.add(bundle.explain(item, K));
