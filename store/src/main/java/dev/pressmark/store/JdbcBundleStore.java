@@ -618,7 +618,9 @@ final class JdbcBundleStore implements BundleStore {
         if (lower.contains("readonly") || lower.contains("read-only")) {
             return new StoreException(StoreException.READ_ONLY, url.describe() + ": cannot " + operation + ": the store is read-only", e);
         }
-        if (url.dialect() == Dialect.POSTGRESQL && e.getSQLState() != null && e.getSQLState().startsWith("08")) {
+        // 08: connection exception (SQL standard); the pool's timeout waiting for a connection is transient too
+        if (url.dialect() == Dialect.POSTGRESQL && (e instanceof java.sql.SQLTransientConnectionException
+                || e.getSQLState() != null && e.getSQLState().startsWith("08"))) {
             return StoreDatabase.openFailure(url, e);
         }
         return new StoreException(StoreException.FAILURE, url.describe() + ": cannot " + operation + ": " + StoreUrl.redact(message), e);
