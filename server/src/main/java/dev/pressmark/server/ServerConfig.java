@@ -42,7 +42,7 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     public static final int DEFAULT_MAX_CONCURRENT = 20;
     /** Far beyond a title or a subject line; a pasted document is cut here instead of costing its whole length. */
     public static final int DEFAULT_MAX_TOKENS_PER_FIELD = 512;
-    /** Far beyond what the largest request (10,000 items) takes here: a request past it is stuck or starved, not merely big. */
+    /** Well past the largest request: 10,000 items of 60 words took 2.8 s here, cold, on two busy cores (RequestDeadlineTest). */
     public static final long DEFAULT_REQUEST_TIMEOUT_MS = 10_000;
 
     public ServerConfig {
