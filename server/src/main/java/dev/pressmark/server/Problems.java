@@ -106,6 +106,8 @@ final class Problems {
                     "the store does not answer now; the versions already loaded go on serving predictions", List.of());
             case StoreException.READ_ONLY ->
                     new ApiProblem(503, e.code(), "Store unavailable", "the store cannot serve this request now (" + e.code() + ")", List.of());
+            // 507 Insufficient Storage (RFC 4918, section 11.5): the server cannot store what the request needs stored
+            case StoreException.STORAGE_FULL -> new ApiProblem(507, e.code(), "Store full", e.getMessage(), List.of());
             case StoreException.CORRUPT -> new ApiProblem(500, e.code(), "Stored version corrupt", e.getMessage(), List.of());
             default -> new ApiProblem(500, "internal", "Internal error", "the store failed (" + e.code() + ")", List.of());
         };
