@@ -29,8 +29,9 @@ import java.util.concurrent.locks.LockSupport;
  * publish" with no "published" after it is a kill during a publish; likewise for activations and
  * rollbacks; a kill after an operation's line and before the next "begin" is "between". The kill
  * is aimed: the parent waits for the "begin" line of the kind it still needs and kills after a
- * random pause shorter than that operation usually takes; the count is of where the kills really
- * landed, not of where they were aimed.
+ * random pause shorter than that operation usually takes (after letting 0 to 5 such operations
+ * pass, so that kills also land in later versions and in activations that follow a rollback); the
+ * count is of where the kills really landed, not of where they were aimed.
  */
 final class CrashTrials {
 
@@ -39,6 +40,8 @@ final class CrashTrials {
     /** A bound on the trials, so that a child that never gets to its writes fails the test instead of looping. */
     static final int MAX_TRIALS = 400;
     static final int SIGKILL_EXIT = 128 + 9;
+    /** How many operations of the aimed kind may pass before the one the kill is aimed at: uniform in 0..5. */
+    static final int MAX_OPERATIONS_SKIPPED = 5;
 
     /** Where a kill landed. */
     enum Landing { PUBLISH, ACTIVATE, ROLLBACK, BETWEEN }
@@ -77,8 +80,11 @@ final class CrashTrials {
             Thread reader = drain(child, queue);
             // from the first publish on the child is warm; then wait for the start of an operation of the kind aimed at
             awaitLine(child, queue, lines, "published v0"::equals);
+            // the 1st to 6th such operation, so that kills land in later versions too, and in activations after a rollback
             String begin = aim == Landing.PUBLISH ? "begin publish" : "begin activate";
-            awaitLine(child, queue, lines, l -> l.startsWith(begin));
+            for (int skip = random.nextInt(MAX_OPERATIONS_SKIPPED + 1); skip >= 0; skip--) {
+                awaitLine(child, queue, lines, l -> l.startsWith(begin));
+            }
             int maxPause = aim == Landing.PUBLISH ? maxPublishPauseMicros : maxActivatePauseMicros;
             LockSupport.parkNanos(TimeUnit.MICROSECONDS.toNanos(random.nextInt(maxPause)));
             child.destroyForcibly();
