@@ -34,7 +34,9 @@ final class Ops {
             413, new String[] {"TooLarge", "The body is over the server's limit."},
             415, new String[] {"UnsupportedMediaType", "The body's Content-Type is not one this endpoint reads."},
             500, new String[] {"InternalError", "The server failed; its log has the details."},
-            503, new String[] {"StoreUnavailable", "The store cannot serve the request now."}));
+            503, new String[] {"StoreUnavailable", "Not now: the store does not answer (store-unavailable, with Retry-After), the server is"
+                    + " serving its limit of model requests (busy, with Retry-After), or the request ran past its deadline (deadline-exceeded)."},
+            507, new String[] {"StoreFull", "The disk holding the store is full; nothing was written."}));
 
     private Ops() {
     }

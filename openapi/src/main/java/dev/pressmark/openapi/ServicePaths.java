@@ -113,7 +113,7 @@ final class ServicePaths {
         location.setSchema(Schemas.string(null));
         created.addHeaderObject("Location", location);
         publish.getResponses().addApiResponse("201", created);
-        problems(publish, 400, 409, 413, 415, 500, 503);
+        problems(publish, 400, 409, 413, 415, 500, 503, 507);
         return publish;
     }
 

@@ -3,6 +3,7 @@ package dev.pressmark.cli;
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.server.BearerToken;
 import dev.pressmark.server.PressmarkServer;
+import dev.pressmark.server.ReconnectingStore;
 import dev.pressmark.server.ServerConfig;
 import dev.pressmark.store.BundleStore;
 import java.io.IOException;
@@ -56,6 +57,10 @@ final class ServeCommand implements Callable<Integer> {
             description = "Score at most N tokens of each text field; longer ones are cut and the answer says by how much (default: ${DEFAULT-VALUE}).")
     int maxTokensPerField;
 
+    @Option(names = "--request-timeout-ms", paramLabel = "MS", defaultValue = "" + ServerConfig.DEFAULT_REQUEST_TIMEOUT_MS,
+            description = "A predict or explain request still running after MS milliseconds is answered 503 deadline-exceeded (default: ${DEFAULT-VALUE}).")
+    long requestTimeoutMs;
+
     @Option(names = "--cors-origin", paramLabel = "ORIGIN",
             description = "Let pages from ORIGIN (scheme://host[:port]) call the service from a browser; repeatable (default: CORS off).")
     List<String> corsOrigins = new ArrayList<>();
@@ -70,8 +75,9 @@ final class ServeCommand implements Callable<Integer> {
         Optional<BearerToken> reader = readerTokenFile == null ? Optional.empty() : Optional.of(token(readerTokenFile));
         ServerConfig config = new ServerConfig(host, port, maxItems, ServerConfig.DEFAULT_MAX_JSON_BYTES, ServerConfig.DEFAULT_MAX_BUNDLE_BYTES, admin,
                 reader, ServerConfig.DEFAULT_MAX_THREADS, accessLog, maxConcurrent, corsOrigins,
-                maxTokensPerField);
-        BundleStore opened = store.open();
+                maxTokensPerField, requestTimeoutMs);
+        // A PostgreSQL store that is down does not stop the service: it starts not ready and connects when it can.
+        BundleStore opened = ReconnectingStore.open(store.url);
         PressmarkServer server;
         try {
             server = PressmarkServer.start(opened, config);

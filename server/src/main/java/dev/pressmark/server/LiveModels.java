@@ -51,6 +51,10 @@ final class LiveModels implements AutoCloseable {
     private final ConcurrentHashMap<String, LoadFailure> failures = new ConcurrentHashMap<>();
     private final Map<String, LiveVersion> named = new LinkedHashMap<>(16, 0.75f, true);
     private final CountDownLatch initialLoad = new CountDownLatch(1);
+    /** Open once the first load has been tried, whether or not the store answered. */
+    private final CountDownLatch firstRound = new CountDownLatch(1);
+    /** Why the follower's last call to the store failed; empty while the store answers. */
+    private volatile Optional<String> storeProblem = Optional.empty();
     private final Thread follower;
     private volatile boolean stopped;
 
@@ -82,6 +86,8 @@ final class LiveModels implements AutoCloseable {
                     }
                     sequence = start;
                     initialLoad.countDown();
+                    firstRound.countDown();
+                    storeAnswered();
                     continue;
                 }
                 long next = store.awaitChange(sequence, FEED_WAIT);
@@ -94,20 +100,32 @@ final class LiveModels implements AutoCloseable {
                     sequence = Math.max(sequence, next);
                     changed.forEach(this::refresh);
                 }
+                storeAnswered();
             } catch (InterruptedException e) {
                 Thread.currentThread().interrupt();
                 return;
             } catch (RuntimeException e) {
-                // The store may be briefly unreachable; the next round tries again.
-                LOG.warn("following the store's changes failed: {}", e.getMessage());
+                // The store may be unreachable for a while; the loaded versions go on serving and the next round tries again.
+                if (storeProblem.isEmpty()) {
+                    LOG.warn("the store does not answer; still serving the loaded versions: {}", e.getMessage());
+                }
+                storeProblem = Optional.of(String.valueOf(e.getMessage()));
+                firstRound.countDown();
                 pause();
             }
         }
     }
 
-    /** Waits until the models active at start-up have been loaded (or have failed to). */
+    /** Waits until the models active at start-up have been loaded (or have failed to, or the store did not answer). */
     void awaitInitialLoad(Duration timeout) throws InterruptedException {
-        initialLoad.await(timeout.toMillis(), TimeUnit.MILLISECONDS);
+        firstRound.await(timeout.toMillis(), TimeUnit.MILLISECONDS);
+    }
+
+    private void storeAnswered() {
+        if (storeProblem.isPresent()) {
+            LOG.info("the store answers again");
+            storeProblem = Optional.empty();
+        }
     }
 
     private void pause() {
@@ -202,8 +220,13 @@ final class LiveModels implements AutoCloseable {
         Map<String, String> activeTags = new TreeMap<>();
         Map<String, String> serving = new TreeMap<>();
         Map<String, LoadFailure> failed = new TreeMap<>(failures);
-        Optional<String> storeProblem = Optional.empty();
+        Optional<String> storeProblem = this.storeProblem;
         boolean ready = initialLoad.getCount() == 0;
+        if (storeProblem.isPresent()) {
+            // the follower found the store down: say so now rather than wait for a connection timeout
+            serving().forEach((model, version) -> serving.put(model, version.tag()));
+            return new Readiness(false, storeProblem, activeTags, serving, failed);
+        }
         try {
             for (ModelSummary model : store.models()) {
                 if (model.activeTag().isEmpty()) {

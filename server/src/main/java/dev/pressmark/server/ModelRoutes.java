@@ -23,6 +23,8 @@ final class ModelRoutes {
     static final String ACTOR = "http-admin";
     static final int DEFAULT_K = 10;
     static final int MAX_K = 1_000;
+    /** Items scored between two looks at the request's deadline: small enough to stop soon, large enough to cost nothing. */
+    static final int DEADLINE_BATCH = 256;
 
     private final BundleStore store;
     private final LiveModels live;
@@ -30,8 +32,10 @@ final class ModelRoutes {
     private final Views views;
     private final Access access;
     private final Metrics metrics;
+    private final long requestTimeoutMs;
 
-    ModelRoutes(BundleStore store, LiveModels live, Requests requests, Views views, Access access, Metrics metrics) {
+    ModelRoutes(BundleStore store, LiveModels live, Requests requests, Views views, Access access, Metrics metrics, long requestTimeoutMs) {
+        this.requestTimeoutMs = requestTimeoutMs;
         this.store = store;
         this.live = live;
         this.requests = requests;
@@ -95,29 +99,39 @@ final class ModelRoutes {
     }
 
     void predictActive(Context ctx) throws IOException {
+        Deadline deadline = Deadline.start(requestTimeoutMs);
         access.requireReader(ctx);
         String name = ctx.pathParam("name");
-        predict(ctx, name, activeLive(name));
+        predict(ctx, name, activeLive(name), deadline);
     }
 
     void predictNamed(Context ctx) throws IOException {
+        Deadline deadline = Deadline.start(requestTimeoutMs);
         access.requireReader(ctx);
         String name = ctx.pathParam("name");
         String tag = ctx.pathParam("tag");
         storedVersion(name, tag);
-        predict(ctx, name, live.named(name, tag));
+        predict(ctx, name, live.named(name, tag), deadline);
     }
 
-    private void predict(Context ctx, String name, LiveVersion served) throws IOException {
+    private void predict(Context ctx, String name, LiveVersion served, Deadline deadline) throws IOException {
         ctx.attribute(RequestRecorder.VERSION, served.tag());
         List<Map<String, String>> items = requests.items(ctx, served.bundle().inputFields());
         ctx.attribute(RequestRecorder.ITEMS, items.size());
-        List<Prediction> predictions = served.bundle().predict(items, requests.maxTokensPerField());
+        // each item is scored on its own, so scoring in batches gives the same predictions and a place to stop
+        List<Prediction> predictions = new ArrayList<>(items.size());
+        for (int from = 0; from < items.size(); from += DEADLINE_BATCH) {
+            deadline.check();
+            predictions.addAll(served.bundle().predict(items.subList(from, Math.min(items.size(), from + DEADLINE_BATCH)),
+                    requests.maxTokensPerField()));
+        }
+        deadline.check();
         metrics.predictions(name, served.tag(), predictions);
         answer(ctx, views.predictions(name, served, predictions));
     }
 
     void explain(Context ctx) throws IOException {
+        Deadline deadline = Deadline.start(requestTimeoutMs);
         access.requireReader(ctx);
         String name = ctx.pathParam("name");
         int k = Requests.intQuery(ctx, "k", DEFAULT_K, 0, MAX_K);
@@ -128,6 +142,7 @@ final class ModelRoutes {
         ctx.attribute(RequestRecorder.ITEMS, items.size());
         List<Explanation> explanations = new ArrayList<>(items.size());
         for (Map<String, String> item : items) {
+            deadline.check();
             explanations.add(bundle.explain(item, k, requests.maxTokensPerField()));
         }
         answer(ctx, views.explanations(name, served, explanations));

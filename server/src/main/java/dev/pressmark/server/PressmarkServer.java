@@ -60,7 +60,8 @@ public final class PressmarkServer implements AutoCloseable {
         // A request that comes in between loads the model it names itself, and /health/ready says 503 until then.
         LiveModels live = LiveModels.start(store, metrics);
         Access access = new Access(config.adminToken(), config.readerToken());
-        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics);
+        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics,
+                config.requestTimeoutMs());
         RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
         Problems problems = new Problems(json);
         Admission admission = new Admission(config.maxConcurrent());

@@ -26,6 +26,11 @@ final class Problems {
     /** Problem types are URNs: stable identifiers that need no web page to exist. */
     static final String TYPE_PREFIX = "urn:pressmark:problem:";
 
+    /** The problem type of a request that needs the store while it does not answer. */
+    static final String STORE_UNAVAILABLE = "store-unavailable";
+    /** As long as the server waits at most between two attempts to reach a store that is down. */
+    static final String STORE_RETRY_AFTER_SECONDS = String.valueOf(ReconnectingStore.MAX_RETRY_MS / 1000);
+
     private static final Logger LOG = LoggerFactory.getLogger(Problems.class);
 
     private final ObjectMapper json;
@@ -37,7 +42,8 @@ final class Problems {
     void handle(Exception failure, Context ctx) {
         ApiProblem problem = toProblem(failure);
         // A refusal for load is expected behaviour, not a failure to investigate.
-        if (problem.status() >= 500 && !"busy".equals(problem.slug())) {
+        if (problem.status() >= 500 && !"busy".equals(problem.slug()) && !STORE_UNAVAILABLE.equals(problem.slug())
+                && !Deadline.EXCEEDED.equals(problem.slug())) {
             LOG.error("{} {} failed", ctx.method(), ctx.path(), failure);
         }
         ObjectNode body = json.createObjectNode();
@@ -51,6 +57,9 @@ final class Problems {
             for (ApiProblem.FieldError error : problem.errors()) {
                 errors.addObject().put("field", error.field()).put("message", error.message());
             }
+        }
+        if (STORE_UNAVAILABLE.equals(problem.slug())) {
+            ctx.header("Retry-After", STORE_RETRY_AFTER_SECONDS);
         }
         if (problem.status() == 401) {
             ctx.header("WWW-Authenticate", "Bearer");
@@ -93,8 +102,12 @@ final class Problems {
             case StoreException.TAG_EXISTS -> new ApiProblem(409, "tag-exists", "Tag already published", e.getMessage(), List.of());
             case StoreException.RETIRED, StoreException.ACTIVE, StoreException.NO_ROLLBACK ->
                     new ApiProblem(409, e.code(), "Conflict with the version history", e.getMessage(), List.of());
-            case StoreException.UNREACHABLE, StoreException.READ_ONLY ->
+            case StoreException.UNREACHABLE -> new ApiProblem(503, STORE_UNAVAILABLE, "Store unavailable",
+                    "the store does not answer now; the versions already loaded go on serving predictions", List.of());
+            case StoreException.READ_ONLY ->
                     new ApiProblem(503, e.code(), "Store unavailable", "the store cannot serve this request now (" + e.code() + ")", List.of());
+            // 507 Insufficient Storage (RFC 4918, section 11.5): the server cannot store what the request needs stored
+            case StoreException.STORAGE_FULL -> new ApiProblem(507, e.code(), "Store full", e.getMessage(), List.of());
             case StoreException.CORRUPT -> new ApiProblem(500, e.code(), "Stored version corrupt", e.getMessage(), List.of());
             default -> new ApiProblem(500, "internal", "Internal error", "the store failed (" + e.code() + ")", List.of());
         };

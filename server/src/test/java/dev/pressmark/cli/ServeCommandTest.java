@@ -150,4 +150,14 @@ class ServeCommandTest {
                     .doesNotContain("\tat ");
         }
     }
+
+    /** An SQLite store is a file here, not a server that may come back: a path that cannot be opened stops serve at once. */
+    @Test
+    void an_sqlite_store_that_cannot_be_opened_is_a_one_line_failure_with_exit_code_1_not_a_wait() throws Exception {
+        java.nio.file.Path missing = dir.resolve("no-such-directory").resolve("store.db");
+        CommandRun run = CommandRun.of(dir, "", "serve", "--port", "0", "--store", "sqlite:" + missing);
+        assertThat(run.exitCode()).isEqualTo(1);
+        assertThat(run.err()).contains("pressmark: cannot create the store " + missing).doesNotContain("\tat ");
+        assertThat(run.out()).doesNotContain("serving on");
+    }
 }

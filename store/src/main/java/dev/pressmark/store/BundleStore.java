@@ -35,6 +35,11 @@ public interface BundleStore extends AutoCloseable {
         return JdbcBundleStore.open(StoreUrl.parse(url, System.getenv()));
     }
 
+    /** Where the store at {@code url} is, for messages, as {@link #describe()} says it; opens nothing. */
+    static String describe(String url) {
+        return StoreUrl.parse(url, System.getenv()).describe();
+    }
+
     /**
      * Checks the bundle (every entry's checksum, through the bundle reader), computes the SHA-256
      * of the whole file, and stores it as {@code model}/{@code tag} in one transaction. A tag that

@@ -585,20 +585,27 @@ final class JdbcBundleStore implements BundleStore {
     private <T> T write(String operation, Work<T> work) {
         try (Connection c = pool.getConnection()) {
             c.setAutoCommit(false);
+            T result;
             try {
-                T result = work.run(c);
+                result = work.run(c);
                 c.commit();
-                return result;
             } catch (SQLException | RuntimeException e) {
+                // SQLite rolls a transaction back by itself on some errors (SQLITE_FULL among them); then both the rollback
+                // and the commit that the driver's setAutoCommit(true) issues fail, and must not hide the error that matters
                 try {
                     c.rollback();
                 } catch (SQLException rollbackFailure) {
                     e.addSuppressed(rollbackFailure);
                 }
+                try {
+                    c.setAutoCommit(true);
+                } catch (SQLException resetFailure) {
+                    e.addSuppressed(resetFailure);
+                }
                 throw e;
-            } finally {
-                c.setAutoCommit(true);
             }
+            c.setAutoCommit(true);
+            return result;
         } catch (SQLException e) {
             throw failure(operation, e);
         }
@@ -618,9 +625,21 @@ final class JdbcBundleStore implements BundleStore {
         if (lower.contains("readonly") || lower.contains("read-only")) {
             return new StoreException(StoreException.READ_ONLY, url.describe() + ": cannot " + operation + ": the store is read-only", e);
         }
-        if (url.dialect() == Dialect.POSTGRESQL && e.getSQLState() != null && e.getSQLState().startsWith("08")) {
+        // 08: connection exception (SQL standard); the pool's timeout waiting for a connection is transient too
+        // SQLITE_FULL, or PostgreSQL's 53100 disk_full (PostgreSQL documentation, Appendix A, "Error Codes")
+        if (lower.contains("sqlite_full") || lower.contains("disk is full") || "53100".equals(e.getSQLState())) {
+            return new StoreException(StoreException.STORAGE_FULL, url.describe() + ": cannot " + operation
+                    + ": the disk holding the store is full; nothing was written (" + StoreUrl.redact(firstLine(message)) + ")", e);
+        }
+        if (url.dialect() == Dialect.POSTGRESQL && (e instanceof java.sql.SQLTransientConnectionException
+                || e.getSQLState() != null && e.getSQLState().startsWith("08"))) {
             return StoreDatabase.openFailure(url, e);
         }
         return new StoreException(StoreException.FAILURE, url.describe() + ": cannot " + operation + ": " + StoreUrl.redact(message), e);
+    }
+
+    private static String firstLine(String message) {
+        int newline = message.indexOf('\n');
+        return newline < 0 ? message : message.substring(0, newline);
     }
 }

@@ -16,6 +16,8 @@ public final class StoreException extends PressmarkException {
     public static final String READ_ONLY = "store-read-only";
     public static final String SCHEMA_NEWER = "store-schema-newer";
     public static final String FAILURE = "store-failure";
+    /** The disk (or the database's space) ran out during a write, which was rolled back. */
+    public static final String STORAGE_FULL = "store-full";
     public static final String INVALID_NAME = "invalid-model-name";
     public static final String INVALID_TAG = "invalid-tag";
     public static final String NOT_A_BUNDLE = "not-a-bundle";

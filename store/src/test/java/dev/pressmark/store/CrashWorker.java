@@ -8,9 +8,10 @@ import java.util.Map;
 import java.util.SplittableRandom;
 
 /**
- * The child process of {@link SqliteCrashTest}: publishes and activates versions of one model
- * in a loop, rolling back every third step, until it is killed. Prints "ready" once the store is
- * open, then one line for every operation that returned, so the parent knows what was committed.
+ * The child process of the crash trials ({@link CrashTrials}): publishes and activates versions of
+ * one model in a loop, rolling back every third step, until it is killed. Prints "ready" once the
+ * store is open, then "begin OPERATION" before every operation and one line for every operation
+ * that returned, so the parent knows what was committed and what was under way when it killed.
  */
 public final class CrashWorker {
 
@@ -29,17 +30,26 @@ public final class CrashWorker {
             System.out.flush();
             for (int i = 0; ; i++) {
                 String tag = "v" + i;
-                store.publish(model, tag, bundle(model, random), "crash-worker");
-                System.out.println("published " + tag);
+                byte[] bundle = bundle(model, random);
+                say("begin publish " + tag);
+                store.publish(model, tag, bundle, "crash-worker");
+                say("published " + tag);
+                say("begin activate " + tag);
                 store.activate(model, tag, "crash-worker", "");
-                System.out.println("activated " + tag);
+                say("activated " + tag);
                 if (i % 3 == 2) {
+                    say("begin rollback");
                     String back = store.rollback(model, "crash-worker").tag();
-                    System.out.println("rolled-back-to " + back);
+                    say("rolled-back-to " + back);
                 }
-                System.out.flush();
             }
         }
+    }
+
+    /** One progress line, flushed at once: the parent reads what the child was doing from the last line before the kill. */
+    private static void say(String line) {
+        System.out.println(line);
+        System.out.flush();
     }
 
     private static byte[] bundle(String model, SplittableRandom random) {
