@@ -1,5 +1,6 @@
 package dev.pressmark.server;
 
+import dev.pressmark.store.PromotionPolicy;
 import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
@@ -20,10 +21,12 @@ import java.util.Optional;
  *     beyond it they are answered 503 with {@code Retry-After} at once, while health, metrics and docs still answer
  * @param corsOrigins the origins whose pages may call the service from a browser; empty (the default) turns CORS off
  * @param maxTokensPerField how many tokens of each text field are scored; a longer field is cut, and the answer says by how much
+ * @param promotion when {@code PUT /models/{name}/active} refuses a candidate unless forced
+ * @param tapCapacity how many answered requests may wait for the traffic listeners (shadow scoring); beyond it they are dropped and counted
  */
 public record ServerConfig(String host, int port, int maxItems, long maxJsonBytes, long maxBundleBytes, Optional<BearerToken> adminToken,
         Optional<BearerToken> readerToken, int maxThreads, boolean accessLog, int maxConcurrent, List<String> corsOrigins,
-        int maxTokensPerField) {
+        int maxTokensPerField, PromotionPolicy promotion, int tapCapacity) {
 
     public static final String DEFAULT_HOST = "127.0.0.1";
     public static final int DEFAULT_PORT = 8080;
@@ -40,6 +43,8 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     public static final int DEFAULT_MAX_CONCURRENT = 20;
     /** Far beyond a title or a subject line; a pasted document is cut here instead of costing its whole length. */
     public static final int DEFAULT_MAX_TOKENS_PER_FIELD = 512;
+    /** Some seconds of sampled traffic at a few hundred requests a second; the queue holds references, not copies. */
+    public static final int DEFAULT_TAP_CAPACITY = 1_024;
 
     public ServerConfig {
         Objects.requireNonNull(host, "host");
@@ -50,6 +55,10 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
             if (!origin.matches("https?://[^/\\s]+")) {
                 throw new IllegalArgumentException("a CORS origin is scheme://host[:port] with no path, was \"" + origin + "\"");
             }
+        }
+        Objects.requireNonNull(promotion, "promotion");
+        if (tapCapacity < 1) {
+            throw new IllegalArgumentException("tapCapacity must be >= 1 request, was " + tapCapacity);
         }
         if (maxTokensPerField < 1) {
             throw new IllegalArgumentException("maxTokensPerField must be >= 1, was " + maxTokensPerField);
@@ -78,43 +87,53 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     public static ServerConfig defaults() {
         return new ServerConfig(DEFAULT_HOST, DEFAULT_PORT, DEFAULT_MAX_ITEMS, DEFAULT_MAX_JSON_BYTES, DEFAULT_MAX_BUNDLE_BYTES, Optional.empty(),
                 Optional.empty(), DEFAULT_MAX_THREADS, DEFAULT_ACCESS_LOG, DEFAULT_MAX_CONCURRENT, List.of(),
-                DEFAULT_MAX_TOKENS_PER_FIELD);
+                DEFAULT_MAX_TOKENS_PER_FIELD, PromotionPolicy.defaults(), DEFAULT_TAP_CAPACITY);
     }
 
     public ServerConfig withPort(int newPort) {
-        return new ServerConfig(host, newPort, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, newPort, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, promotion, tapCapacity);
     }
 
     public ServerConfig withMaxItems(int newMaxItems) {
-        return new ServerConfig(host, port, newMaxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, port, newMaxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, promotion, tapCapacity);
     }
 
     public ServerConfig withBodyLimits(long newMaxJsonBytes, long newMaxBundleBytes) {
-        return new ServerConfig(host, port, maxItems, newMaxJsonBytes, newMaxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, port, maxItems, newMaxJsonBytes, newMaxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, promotion, tapCapacity);
     }
 
     public ServerConfig withAdminToken(Optional<BearerToken> token) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, token, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, token, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, promotion, tapCapacity);
     }
 
     public ServerConfig withReaderToken(Optional<BearerToken> token) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, token, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, token, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, promotion, tapCapacity);
     }
 
     public ServerConfig withMaxConcurrent(int n) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, n, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, n, corsOrigins, maxTokensPerField, promotion, tapCapacity);
     }
 
     public ServerConfig withCorsOrigins(List<String> origins) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, origins, maxTokensPerField);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, origins, maxTokensPerField, promotion, tapCapacity);
     }
 
     public ServerConfig withMaxTokensPerField(int n) {
         return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent,
-                corsOrigins, n);
+                corsOrigins, n, promotion, tapCapacity);
+    }
+
+    public ServerConfig withPromotion(PromotionPolicy policy) {
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent,
+                corsOrigins, maxTokensPerField, policy, tapCapacity);
+    }
+
+    public ServerConfig withTapCapacity(int requests) {
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent,
+                corsOrigins, maxTokensPerField, promotion, requests);
     }
 
     public ServerConfig withAccessLog(boolean on) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, on, maxConcurrent, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, on, maxConcurrent, corsOrigins, maxTokensPerField, promotion, tapCapacity);
     }
 }
