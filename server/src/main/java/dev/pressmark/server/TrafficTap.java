@@ -56,6 +56,8 @@ final class TrafficTap implements AutoCloseable {
     /** Replaced whole on each change, so that the request path reads it with no lock and no iterator. */
     private volatile Listener[] listeners = NONE;
     private final AtomicLong dropped = new AtomicLong();
+    private final AtomicLong queuedTotal = new AtomicLong();
+    private final AtomicLong deliveredTotal = new AtomicLong();
     private final Set<String> failuresLogged = ConcurrentHashMap.newKeySet();
     private final Thread worker;
 
@@ -117,9 +119,12 @@ final class TrafficTap implements AutoCloseable {
             return true;
         }
         Listener[] chosen = n == to.length ? to : Arrays.copyOf(to, n);
+        // counted before it is queued, so that idle() is never true while a delivery is on its way
+        queuedTotal.incrementAndGet();
         if (queue.offer(new Delivery(chosen, model, tag, served, items, results))) {
             return true;
         }
+        queuedTotal.decrementAndGet();
         dropped.incrementAndGet();
         metrics.tapDropped(model);
         for (Listener listener : chosen) {
@@ -137,9 +142,9 @@ final class TrafficTap implements AutoCloseable {
         return dropped.get();
     }
 
-    /** Requests waiting for the worker now. */
-    int queued() {
-        return queue.size();
+    /** Whether every queued request has been delivered to its listeners. */
+    boolean idle() {
+        return deliveredTotal.get() == queuedTotal.get();
     }
 
     private boolean wantsSafely(Listener listener, String model) {
@@ -170,6 +175,7 @@ final class TrafficTap implements AutoCloseable {
                     failed(listener, e);
                 }
             }
+            deliveredTotal.incrementAndGet();
         }
     }
 
@@ -184,7 +190,7 @@ final class TrafficTap implements AutoCloseable {
     /** Stops the worker after what is queued now, waiting at most {@code timeoutMs}. */
     void drain(long timeoutMs) {
         long deadline = System.nanoTime() + TimeUnit.MILLISECONDS.toNanos(timeoutMs);
-        while (!queue.isEmpty() && System.nanoTime() < deadline) {
+        while (!idle() && System.nanoTime() < deadline) {
             try {
                 Thread.sleep(5);
             } catch (InterruptedException e) {
