@@ -197,6 +197,11 @@ final class ShadowScoring implements TrafficTap.Listener, AutoCloseable {
 
     private void begin(Shadow shadow) {
         Optional<LiveVersion> active = live.active(shadow.model());
+        if (active.isEmpty()) {
+            // activated a moment ago and not loaded yet: load it now, so that a shadow started over HTTP runs when the answer says so
+            live.refresh(shadow.model());
+            active = live.active(shadow.model());
+        }
         if (active.isEmpty() || active.get().tag().equals(shadow.tag())) {
             return; // nothing to compare with yet, or the candidate serves already: the store will stop this shadow
         }

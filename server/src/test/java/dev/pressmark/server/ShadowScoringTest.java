@@ -2,6 +2,7 @@ package dev.pressmark.server;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import com.fasterxml.jackson.core.type.TypeReference;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ArrayNode;
@@ -123,7 +124,7 @@ class ShadowScoringTest {
             assertThat(report.get("dropped").asLong()).isZero();
             assertThat(report.get("agreeing").asLong()).isEqualTo(agreeing);
             assertThat(report.get("agreement").asDouble()).isEqualTo((double) agreeing / total);
-            assertThat(JSON.convertValue(report.get("labels"), Map.class)).isEqualTo(JSON.convertValue(table, Map.class));
+            assertThat(JSON.convertValue(report.get("labels"), new TypeReference<Map<String, Map<String, Long>>>() { })).isEqualTo(table);
             assertThat(report.at("/score_difference/count").asLong()).isEqualTo(100);
             assertThat(report.at("/score_difference/basis").asText()).isEqualTo("probability");
             long binned = 0;
