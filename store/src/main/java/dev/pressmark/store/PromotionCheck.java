@@ -25,7 +25,8 @@ import java.util.Optional;
  * {@code maxDrop}; when the active version has it and the candidate lacks it (nothing shows it
  * is no worse); or when {@code minAgreement} is above 0 and a shadow summary of this candidate
  * with at least {@code minSamples} items agrees less often. It passes when nothing is active,
- * when the active version does not record the metric, and when a shadow has too few items.
+ * when the active version does not record the metric, and when a shadow has too few items or
+ * compared the candidate with another version than the one active now.
  */
 public final class PromotionCheck {
 
@@ -79,7 +80,9 @@ public final class PromotionCheck {
         } else {
             compareMetric(candidate, active.get(), policy, refusals, notes);
         }
-        shadow.filter(s -> s.candidate().equals(candidate.tag())).ifPresent(s -> compareShadow(candidate, s, policy, refusals, notes));
+        // a shadow counts only if it compared this candidate with the version active now
+        shadow.filter(s -> s.candidate().equals(candidate.tag()) && active.isPresent() && s.active().equals(active.get().tag()))
+                .ifPresent(s -> compareShadow(candidate, s, policy, refusals, notes));
         return new Outcome(refusals, notes);
     }
 

@@ -123,6 +123,9 @@ class PromotionCheckTest {
         assertThat(PromotionCheck.check(candidate, active, Optional.of(shadow("1.1.0", 200, 0)), DEFAULTS).passed()).isTrue();
         // a shadow of another candidate says nothing about this one
         assertThat(PromotionCheck.check(candidate, active, Optional.of(shadow("2.0.0", 200, 0)), strict).passed()).isTrue();
+        // nor does one that compared it with a version no longer active
+        assertThat(PromotionCheck.check(candidate, Optional.of(withTest("0.9.0", 0.90)), Optional.of(shadow("1.1.0", 200, 0)), strict).passed())
+                .isTrue();
     }
 
     @Test
