@@ -5,13 +5,16 @@
 #   (c) p50/p99 of predict paced at half the predict peak of (b)
 #   (d) one 1,000-item predict request
 #   (e) the server's resident memory during and after (b)
+#   (f) with --shadow: one-item predict peak with a shadow candidate scoring a fraction 0.2 of the
+#       requests, between two runs without one, in the same server
 # It trains a bundle on invented listing titles, publishes it as 20 versions (v1..v20) into a
 # temporary SQLite store, activates v20 and serves that store. It prints a Markdown table (and
 # writes it to --out FILE) with the wrk command lines. Slow numbers never fail it; a broken set-up
 # (no wrk, a server that does not start, a request that does not answer 200) does.
 #
-# Usage: scripts/bench-http.sh [--quick] [--out FILE] [--no-pin]
+# Usage: scripts/bench-http.sh [--quick] [--shadow] [--out FILE] [--no-pin]
 #   --quick   3 s per measurement and 1 s warm-ups (under a minute in all); the default is 15 s and 10 s
+#   --shadow  also measure (f); the candidate is v19, the same bundle under another tag, so it costs what the active one does
 #   --no-pin  do not pin the server and wrk to separate cores with taskset
 # Environment: JAVA_OPTS for the server JVM; BENCH_THREADS, BENCH_CONNECTIONS (default 2 and 32).
 set -euo pipefail
@@ -21,12 +24,15 @@ jar="$root/server/target/pressmark.jar"
 quick=0
 out=""
 pin=1
+shadow=0
+SHADOW_FRACTION=0.2
 while [ $# -gt 0 ]; do
   case "$1" in
     --quick) quick=1 ;;
     --out) out="${2:?--out needs a file}"; shift; case "$out" in /*) ;; *) out="$PWD/$out" ;; esac ;;
     --no-pin) pin=0 ;;
-    -h|--help) sed -n '2,16p' "$0" | sed 's/^# \{0,1\}//'; exit 0 ;;
+    --shadow) shadow=1 ;;
+    -h|--help) sed -n '2,19p' "$0" | sed 's/^# \{0,1\}//'; exit 0 ;;
     *) echo "bench-http: unknown argument $1 (see --help)" >&2; exit 2 ;;
   esac
   shift
@@ -279,6 +285,41 @@ else
   batch_p99="$(pct batch 99)"
   batch_source="wrk latency on 1 connection (no access log in the server's output)"
 fi
+
+# --- (f) shadow scoring --------------------------------------------------------------------
+shadow_rows=""
+if [ "$shadow" = 1 ]; then
+  echo "bench-http: (f) predict peak without, with (fraction $SHADOW_FRACTION) and again without a shadow candidate" >&2
+  store_url="sqlite:$work/store.db"
+  run_wrk shadow-off-1 "${common[@]}" -d"$duration" -s "$root/scripts/wrk-post-json.lua" "$predict_url" -- "$work/one.json"
+  java -jar "$jar" shadow routing "v$((VERSIONS - 1))" --fraction "$SHADOW_FRACTION" --store "$store_url" > "$work/shadow-start.out" 2>&1 \
+    || { cat "$work/shadow-start.out" >&2; die "starting the shadow failed"; }
+  # the server reads the store's shadows every second
+  deadline=$(( $(now_us) + 10000000 ))
+  until curl -sf "$base/models/routing/shadow" | grep -q '"running":true'; do
+    [ "$(now_us)" -lt "$deadline" ] || die "the server did not take up the shadow within 10 s"
+    sleep 0.2
+  done
+  run_wrk shadow-warm "${common[@]}" -d"$warmup" -s "$root/scripts/wrk-post-json.lua" "$predict_url" -- "$work/one.json"
+  run_wrk shadow-on "${common[@]}" -d"$duration" -s "$root/scripts/wrk-post-json.lua" "$predict_url" -- "$work/one.json"
+  record "${common[@]}" -d"$duration" -s "$root/scripts/wrk-post-json.lua" "$predict_url" -- "$work/one.json" "  # with the shadow running"
+  shadow_report="$(curl -sf "$base/models/routing/shadow")" || die "GET /models/routing/shadow failed"
+  java -jar "$jar" shadow routing --stop --store "$store_url" > "$work/shadow-stop.out" 2>&1 \
+    || { cat "$work/shadow-stop.out" >&2; die "stopping the shadow failed"; }
+  deadline=$(( $(now_us) + 10000000 ))
+  until curl -sf "$base/models/routing/shadow" | grep -q '"running":false'; do
+    [ "$(now_us)" -lt "$deadline" ] || die "the server did not stop the shadow within 10 s"
+    sleep 0.2
+  done
+  run_wrk shadow-off-2 "${common[@]}" -d"$duration" -s "$root/scripts/wrk-post-json.lua" "$predict_url" -- "$work/one.json"
+  json_number() { printf '%s' "$shadow_report" | grep -o "\"$1\":[0-9.eE+-]*" | head -n 1 | cut -d: -f2; }
+  off1="$(rps shadow-off-1)"; on="$(rps shadow-on)"; off2="$(rps shadow-off-2)"
+  shadow_ratio="$(awk -v on="$on" -v a="$off1" -v b="$off2" 'BEGIN { printf "%.2f", on / ((a + b) / 2) }')"
+  shadow_rows="| (f) POST predict, 1 item, peak without a shadow, before / after | $off1 / $off2 req/s | |
+| (f) the same with a shadow candidate on a fraction $SHADOW_FRACTION | $on req/s | |
+| (f) with / without (mean of before and after) | $shadow_ratio | |
+| (f) shadow samples / dropped when measured | $(json_number samples) / $(json_number dropped) items | |"
+fi
 stop_server
 
 # --- report --------------------------------------------------------------------------------
@@ -307,6 +348,7 @@ wrk: $threads threads, $connections connections, $duration per run after a $warm
 | (d) $BATCH_ITEMS-item predict, p50 / p99 | $batch_p50 / $batch_p99 ms | < 20 ms |
 | (e) server VmRSS, largest during (b) | $(mb "$rss_during_kb") | |
 | (e) server VmRSS / VmHWM after (b) | $(mb "$rss_after_kb") / $(mb "$hwm_after_kb") | |
+${shadow_rows}
 
 (d) is $batch_source. Socket errors: health $(socket_errors health); predict $(socket_errors predict); paced $(socket_errors paced); batch $(socket_errors batch).
 

@@ -29,8 +29,9 @@ final class Ops {
             400, new String[] {"BadRequest", "The request is malformed or a part of it is invalid; errors names each bad field."},
             401, new String[] {"Unauthorized", "The bearer token is missing or wrong."},
             403, new String[] {"Forbidden", "The admin endpoints are disabled: the server has no admin token."},
-            404, new String[] {"NotFound", "No such model, version or active version."},
-            409, new String[] {"Conflict", "The change conflicts with the version history (tag exists, retired, nothing to roll back to)."},
+            404, new String[] {"NotFound", "No such model, version, active version or shadow."},
+            409, new String[] {"Conflict", "The change conflicts with the version history (tag exists, retired, nothing to roll back to,"
+                    + " shadow of the active version) or the promotion check refused it (checks says why)."},
             413, new String[] {"TooLarge", "The body is over the server's limit."},
             415, new String[] {"UnsupportedMediaType", "The body's Content-Type is not one this endpoint reads."},
             500, new String[] {"InternalError", "The server failed; its log has the details."},

@@ -92,6 +92,7 @@ final class ServicePaths {
 
         addPredictions(paths);
         addAdmin(paths);
+        addShadow(paths);
         addDocs(paths);
     }
 
@@ -164,17 +165,38 @@ final class ServicePaths {
 
     private static void addAdmin(Paths paths) {
         Operation activate = admin(operation("activateVersion", ADMIN, "Activate a version",
-                "Makes a published version the one served; this server loads it before answering, the others follow the store."));
+                "Makes a published version the one served after the promotion check against the active one (a 409 whose checks member"
+                        + " says why, unless forced with a reason); this server loads it before answering, the others follow the store."));
         activate.setRequestBody(jsonBody(Shapes.ACTIVATE_REQUEST));
         activate.getResponses().addApiResponse("200", json("Activated.", ref(Shapes.ACTIVATION)));
         problems(activate, 400, 404, 409, 415, 500, 503);
         paths.addPathItem("/models/{name}/active", new PathItem().put(activate).parameters(new ArrayList<>(List.of(name()))));
 
         Operation rollback = admin(operation("rollback", ADMIN, "Roll back",
-                "Re-activates the version that was active before the current one."));
+                "Re-activates the version that was active before the current one; never held back by the promotion check."));
         rollback.getResponses().addApiResponse("200", json("Rolled back.", ref(Shapes.ACTIVATION)));
         problems(rollback, 400, 404, 409, 500, 503);
         paths.addPathItem("/models/{name}/rollback", new PathItem().post(rollback).parameters(new ArrayList<>(List.of(name()))));
+    }
+
+    private void addShadow(Paths paths) {
+        Operation start = admin(operation("startShadow", ADMIN, "Start shadow scoring",
+                "Scores the candidate beside the active version on a fraction of the requests the active version answers, off the request path,"
+                        + " on every server of the store within about 2 s; the answers stay the active version's. A new start is a new run."));
+        start.setRequestBody(jsonBody(Shapes.SHADOW_REQUEST));
+        start.getResponses().addApiResponse("200", json("Started; the run's report so far.", ref(Shapes.SHADOW_REPORT)));
+        problems(start, 400, 404, 409, 415, 500, 503);
+
+        Operation report = reading(operation("getShadow", MODELS, "Report the shadow run",
+                "The model's newest shadow run, running or stopped, every replica's report summed; this server's part is taken now."));
+        report.getResponses().addApiResponse("200", json("The run's report.", ref(Shapes.SHADOW_REPORT)));
+        problems(report, 400, 404, 500, 503);
+
+        Operation stop = admin(operation("stopShadow", ADMIN, "Stop shadow scoring",
+                "Stops the run on every server; answers with its final report. An activation or rollback also stops it."));
+        stop.getResponses().addApiResponse("200", json("Stopped; the final report.", ref(Shapes.SHADOW_REPORT)));
+        problems(stop, 400, 404, 500, 503);
+        paths.addPathItem("/models/{name}/shadow", new PathItem().get(report).put(start).delete(stop).parameters(new ArrayList<>(List.of(name()))));
     }
 
     private static void addDocs(Paths paths) {

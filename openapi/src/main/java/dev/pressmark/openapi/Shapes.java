@@ -35,6 +35,11 @@ final class Shapes {
     static final String VERSION_LIST = "VersionList";
     static final String ACTIVATE_REQUEST = "ActivateRequest";
     static final String ACTIVATION = "Activation";
+    static final String PROMOTION_CHECK = "PromotionCheck";
+    static final String PROMOTION_REFUSAL = "PromotionRefusal";
+    static final String SHADOW_REQUEST = "ShadowRequest";
+    static final String SHADOW_REPORT = "ShadowReport";
+    static final String SCORE_DIFFERENCE = "ScoreDifference";
     static final String CONTRIBUTION = "Contribution";
     static final String ITEM = "Item";
     static final String PREDICT_REQUEST = "PredictRequest";
@@ -58,7 +63,8 @@ final class Shapes {
                 "status", integer("The HTTP status code.", 100),
                 "detail", string("What went wrong with this request."),
                 "instance", format(string("The path of the request."), "uri-reference"),
-                "errors", array("The bad parts of the request, when there were any.", ref(FIELD_ERROR))));
+                "errors", array("The bad parts of the request, when there were any.", ref(FIELD_ERROR)),
+                "checks", array("The promotion checks that refused an activation (409 promotion-refused).", ref(PROMOTION_REFUSAL))));
         components.addSchemas(FIELD_ERROR, object("One bad part of a request.", List.of("field", "message"),
                 "field", string("A JSON path such as items[2].title, a query or path parameter, or a header."),
                 "message", string("What is wrong with it.")));
@@ -91,8 +97,11 @@ final class Shapes {
                 "active", nullable(ref(VERSION_SUMMARY))));
         components.addSchemas(MODEL_LIST, object("Every model in the store, by name.", List.of("models"),
                 "models", array("By name.", ref(MODEL_ENTRY))));
-        components.addSchemas(ACTIVATE_REQUEST, object("The version to activate.", List.of("tag"),
-                "tag", pattern(string("A published tag of the model."), TAG_PATTERN)));
+        components.addSchemas(ACTIVATE_REQUEST, additionalProperties(object("The version to activate.", List.of("tag"),
+                "tag", pattern(string("A published tag of the model."), TAG_PATTERN),
+                "force", bool("Activate even when the promotion check refuses; needs a reason. Default false."),
+                "reason", string("Why, for the events; required with force.")), false));
+        addRollout(components);
         components.addSchemas(CONTRIBUTION, object("How much one feature moved the predicted label's score.", List.of("feature", "contribution"),
                 "feature", string("column:subword."),
                 "contribution", number("Weight times feature value; positive speaks for the predicted label.")));
@@ -118,8 +127,64 @@ final class Shapes {
             required.add("serving");
             properties.add("serving");
             properties.add(nullable(string("The tag this server serves after loading; null when it could not load one.")));
+            properties.add("promotion_check");
+            properties.add(ref(PROMOTION_CHECK));
         }
         return object(description, required, properties.toArray());
+    }
+
+    /** Shadow scoring and the promotion check. */
+    private static void addRollout(Components components) {
+        components.addSchemas(PROMOTION_REFUSAL, object("One check that refused a candidate.",
+                List.of("kind", "metric", "source", "active", "candidate", "limit", "message"),
+                "kind", stringEnum("Which check.", List.of("metric-drop", "metric-missing", "shadow-agreement")),
+                "metric", string("The manifest metric compared, or agreement."),
+                "source", stringEnum("Where the values come from: the held-out test split, the cross-validation mean, or the shadow report.",
+                        List.of("test", "cv", "shadow")),
+                "active", nullable(number("The active version's value.")),
+                "candidate", nullable(number("The candidate's value (its shadow agreement for shadow-agreement).")),
+                "limit", number("The allowed drop, or the least agreement."),
+                "message", string("The refusal in words.")));
+        components.addSchemas(PROMOTION_CHECK, object("What the promotion check found for an activation.", List.of("passed", "checks", "notes"),
+                "passed", bool("Whether every check passed."),
+                "forced", bool("Whether the activation was forced past a refusal."),
+                "checks", array("The checks that refused.", ref(PROMOTION_REFUSAL)),
+                "notes", array("What could not be compared, and why.", string(null))));
+        JsonSchema fraction = number("The share of requests scored by the candidate, in (0, 1]; default 0.2.");
+        fraction.setExclusiveMinimumValue(java.math.BigDecimal.ZERO);
+        fraction.setMaximum(java.math.BigDecimal.ONE);
+        components.addSchemas(SHADOW_REQUEST, additionalProperties(object("The candidate to score beside the active version.", List.of("tag"),
+                "tag", pattern(string("A published tag of the model, not the active one."), TAG_PATTERN),
+                "fraction", fraction), false));
+        components.addSchemas(SCORE_DIFFERENCE, object("Candidate minus active, per item: the probability of the active version's label when"
+                        + " both give probabilities, else the winning score. Quantiles are of |difference|, as bin edges at or above the true value.",
+                List.of("basis", "count", "sum", "mean", "max_abs", "p50", "p90", "p99", "bounds", "counts"),
+                "basis", stringEnum("What is compared.", List.of("probability", "score", "mixed")),
+                "count", integer("Items.", 0),
+                "sum", number("Sum of the differences."),
+                "mean", nullable(number("Mean difference; null before any item.")),
+                "max_abs", number("Largest |difference|."),
+                "p50", nullable(number("Upper bound of the median |difference|.")),
+                "p90", nullable(number("Upper bound of the 90th percentile of |difference|.")),
+                "p99", nullable(number("Upper bound of the 99th percentile of |difference|.")),
+                "bounds", array("Upper edges of the bins of |difference|.", number(null)),
+                "counts", array("Items per bin; one more than bounds, the last above the last edge.", integer(null, 0))));
+        components.addSchemas(SHADOW_REPORT, object("A model's newest shadow run, every replica's report summed.",
+                List.of("model", "active", "candidate", "running", "fraction", "started_at", "replicas", "samples", "dropped", "agreeing",
+                        "agreement", "labels", "score_difference"),
+                "model", string("The model's name."),
+                "active", string("The active version the candidate was compared with."),
+                "candidate", string("The candidate's tag."),
+                "running", bool("Whether the run goes on; false once stopped, promoted or replaced."),
+                "fraction", nullable(number("The share of requests sampled; null once stopped.")),
+                "started_at", format(string("When the run started."), "date-time"),
+                "replicas", integer("How many servers reported.", 0),
+                "samples", integer("Items the candidate scored.", 0),
+                "dropped", integer("Items of sampled requests never scored because the queue was full.", 0),
+                "agreeing", integer("Items on which both gave the same label.", 0),
+                "agreement", nullable(number("agreeing / samples; null before any item.")),
+                "labels", map("Active label to candidate label to items.", map(null, integer(null, 0))),
+                "score_difference", ref(SCORE_DIFFERENCE)));
     }
 
     /** The shapes of predict and explain for any model: the fields and labels are the model's, so here only strings. */

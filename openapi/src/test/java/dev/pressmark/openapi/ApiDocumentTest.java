@@ -104,6 +104,7 @@ class ApiDocumentTest {
                 Map.entry("/models/{name}/explain", List.of(PathItem.HttpMethod.POST)),
                 Map.entry("/models/{name}/active", List.of(PathItem.HttpMethod.PUT)),
                 Map.entry("/models/{name}/rollback", List.of(PathItem.HttpMethod.POST)),
+                Map.entry("/models/{name}/shadow", List.of(PathItem.HttpMethod.GET, PathItem.HttpMethod.PUT, PathItem.HttpMethod.DELETE)),
                 Map.entry("/openapi.json", List.of(PathItem.HttpMethod.GET)),
                 Map.entry("/openapi.yaml", List.of(PathItem.HttpMethod.GET)),
                 Map.entry("/docs", List.of(PathItem.HttpMethod.GET)),

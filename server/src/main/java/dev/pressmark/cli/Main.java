@@ -26,6 +26,8 @@ import picocli.CommandLine.Option;
             VersionsCommand.class,
             ActivateCommand.class,
             RollbackCommand.class,
+            ShadowCommand.class,
+            ShadowReportCommand.class,
             VerifyCommand.class,
             HistoryCommand.class,
             ServeCommand.class,

@@ -6,6 +6,7 @@ import dev.pressmark.server.PressmarkServer;
 import dev.pressmark.server.ReconnectingStore;
 import dev.pressmark.server.ServerConfig;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.PromotionPolicy;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
@@ -65,6 +66,22 @@ final class ServeCommand implements Callable<Integer> {
             description = "Let pages from ORIGIN (scheme://host[:port]) call the service from a browser; repeatable (default: CORS off).")
     List<String> corsOrigins = new ArrayList<>();
 
+    @Option(names = "--promotion-metric", paramLabel = "KEY", defaultValue = PromotionPolicy.DEFAULT_METRIC,
+            description = "The manifest metric an activation over HTTP compares (default: ${DEFAULT-VALUE}).")
+    String promotionMetric;
+
+    @Option(names = "--promotion-max-drop", paramLabel = "X", defaultValue = "" + PromotionPolicy.DEFAULT_MAX_DROP,
+            description = "Refuse an activation over HTTP whose metric is lower than the active version's by more than X (default: ${DEFAULT-VALUE}).")
+    double promotionMaxDrop;
+
+    @Option(names = "--promotion-min-agreement", paramLabel = "A", defaultValue = "" + PromotionPolicy.DEFAULT_MIN_AGREEMENT,
+            description = "Refuse one whose shadow agreed with the active version on less than this share of items (default: ${DEFAULT-VALUE}, off).")
+    double promotionMinAgreement;
+
+    @Option(names = "--promotion-min-samples", paramLabel = "N", defaultValue = "" + PromotionPolicy.DEFAULT_MIN_SAMPLES,
+            description = "Items a shadow needs before its agreement counts (default: ${DEFAULT-VALUE}).")
+    long promotionMinSamples;
+
     @Mixin
     StoreOption store;
 
@@ -75,7 +92,9 @@ final class ServeCommand implements Callable<Integer> {
         Optional<BearerToken> reader = readerTokenFile == null ? Optional.empty() : Optional.of(token(readerTokenFile));
         ServerConfig config = new ServerConfig(host, port, maxItems, ServerConfig.DEFAULT_MAX_JSON_BYTES, ServerConfig.DEFAULT_MAX_BUNDLE_BYTES, admin,
                 reader, ServerConfig.DEFAULT_MAX_THREADS, accessLog, maxConcurrent, corsOrigins,
-                maxTokensPerField, requestTimeoutMs);
+                maxTokensPerField, requestTimeoutMs,
+                new PromotionPolicy(promotionMetric, promotionMaxDrop, promotionMinAgreement, promotionMinSamples),
+                ServerConfig.DEFAULT_TAP_CAPACITY, ServerConfig.DEFAULT_DRIFT_SAMPLE);
         // A PostgreSQL store that is down does not stop the service: it starts not ready and connects when it can.
         BundleStore opened = ReconnectingStore.open(store.url);
         PressmarkServer server;

@@ -1,5 +1,6 @@
 package dev.pressmark.server;
 
+import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.util.List;
 import java.util.Objects;
 
@@ -23,6 +24,8 @@ final class ApiProblem extends RuntimeException {
     private final String slug;
     private final String title;
     private final transient List<FieldError> errors;
+    /** Further members of the problem detail (RFC 9457 section 3.2), such as the checks that refused a promotion. */
+    private transient ObjectNode members;
 
     ApiProblem(int status, String slug, String title, String detail, List<FieldError> errors) {
         super(detail);
@@ -63,6 +66,20 @@ final class ApiProblem extends RuntimeException {
     static ApiProblem unsupportedMediaType(String detail) {
         return new ApiProblem(415, "unsupported-media-type", "Unsupported media type", detail,
                 List.of(new FieldError("Content-Type", detail)));
+    }
+
+    /** The same problem with extension members, written beside the standard ones. */
+    ApiProblem withMembers(ObjectNode extra) {
+        this.members = extra;
+        return this;
+    }
+
+    ObjectNode members() {
+        return members;
+    }
+
+    static ApiProblem conflict(String slug, String title, String detail) {
+        return new ApiProblem(409, slug, title, detail, List.of());
     }
 
     int status() {

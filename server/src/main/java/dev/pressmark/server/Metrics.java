@@ -37,6 +37,10 @@ final class Metrics implements AutoCloseable {
     static final String PREDICTIONS = "pressmark.predictions";
     static final String BUNDLE_LOAD = "pressmark.bundle.load";
     static final String ACTIVE_VERSION = "pressmark.active.version.info";
+    static final String TAP_DROPPED = "pressmark.tap.dropped";
+    static final String TAP_LISTENER_FAILURES = "pressmark.tap.listener.failures";
+    static final String SHADOW_SAMPLES = "pressmark.shadow.samples";
+    static final String SHADOW_DROPPED = "pressmark.shadow.dropped";
 
     /**
      * The latency histogram's upper bounds. A small request is answered in about a millisecond, a
@@ -117,6 +121,42 @@ final class Metrics implements AutoCloseable {
             serving.forEach((m, v) -> rows.add(MultiGauge.Row.of(Tags.of("model", m, "version", v), 1)));
             activeVersions.register(rows, true);
         }
+    }
+
+    /** A request the traffic tap could not queue for its listeners. */
+    void tapDropped(String model) {
+        Counter.builder(TAP_DROPPED)
+                .description("answered requests the traffic tap dropped because its queue was full, by model")
+                .tags("model", model)
+                .register(registry)
+                .increment();
+    }
+
+    /** A traffic listener threw; {@code kind} is the exception's simple class name. */
+    void tapListenerFailed(String kind) {
+        Counter.builder(TAP_LISTENER_FAILURES)
+                .description("failures of traffic listeners, by exception kind; requests are never affected")
+                .tags("kind", kind)
+                .register(registry)
+                .increment();
+    }
+
+    /** Items a shadow candidate scored beside the active version. */
+    void shadowSamples(String model, String candidate, long items) {
+        Counter.builder(SHADOW_SAMPLES)
+                .description("items scored by a shadow candidate beside the active version, by model and candidate")
+                .tags("model", model, "candidate", candidate)
+                .register(registry)
+                .increment(items);
+    }
+
+    /** Items of sampled requests the shadow never scored, the tap's queue being full. */
+    void shadowDropped(String model, String candidate, long items) {
+        Counter.builder(SHADOW_DROPPED)
+                .description("items of sampled requests a shadow candidate never scored because the queue was full")
+                .tags("model", model, "candidate", candidate)
+                .register(registry)
+                .increment(items);
     }
 
     /** The scrape, in {@link #CONTENT_TYPE}. */

@@ -8,6 +8,9 @@ import dev.pressmark.core.bundle.Prediction;
 import dev.pressmark.store.Activation;
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.ModelSummary;
+import dev.pressmark.store.PromotionCheck;
+import dev.pressmark.store.PromotionPolicy;
+import dev.pressmark.store.ShadowStatus;
 import dev.pressmark.store.Version;
 import io.javalin.http.Context;
 import java.io.IOException;
@@ -33,8 +36,12 @@ final class ModelRoutes {
     private final Access access;
     private final Metrics metrics;
     private final long requestTimeoutMs;
+    private final TrafficTap tap;
+    private final ShadowScoring shadows;
+    private final PromotionPolicy promotion;
 
-    ModelRoutes(BundleStore store, LiveModels live, Requests requests, Views views, Access access, Metrics metrics, long requestTimeoutMs) {
+    ModelRoutes(BundleStore store, LiveModels live, Requests requests, Views views, Access access, Metrics metrics, long requestTimeoutMs,
+            TrafficTap tap, ShadowScoring shadows, PromotionPolicy promotion) {
         this.requestTimeoutMs = requestTimeoutMs;
         this.store = store;
         this.live = live;
@@ -42,6 +49,9 @@ final class ModelRoutes {
         this.views = views;
         this.access = access;
         this.metrics = metrics;
+        this.tap = tap;
+        this.shadows = shadows;
+        this.promotion = promotion;
     }
 
     void health(Context ctx) {
@@ -102,7 +112,7 @@ final class ModelRoutes {
         Deadline deadline = Deadline.start(requestTimeoutMs);
         access.requireReader(ctx);
         String name = ctx.pathParam("name");
-        predict(ctx, name, activeLive(name), deadline);
+        predict(ctx, name, activeLive(name), deadline, true);
     }
 
     void predictNamed(Context ctx) throws IOException {
@@ -111,10 +121,11 @@ final class ModelRoutes {
         String name = ctx.pathParam("name");
         String tag = ctx.pathParam("tag");
         storedVersion(name, tag);
-        predict(ctx, name, live.named(name, tag), deadline);
+        predict(ctx, name, live.named(name, tag), deadline, false);
     }
 
-    private void predict(Context ctx, String name, LiveVersion served, Deadline deadline) throws IOException {
+    /** Answers a predict request; one the active version answered goes to the traffic tap too, when a listener wants the model. */
+    private void predict(Context ctx, String name, LiveVersion served, Deadline deadline, boolean tapped) throws IOException {
         ctx.attribute(RequestRecorder.VERSION, served.tag());
         List<Map<String, String>> items = requests.items(ctx, served.bundle().inputFields());
         ctx.attribute(RequestRecorder.ITEMS, items.size());
@@ -128,6 +139,9 @@ final class ModelRoutes {
         deadline.check();
         metrics.predictions(name, served.tag(), predictions);
         answer(ctx, views.predictions(name, served, predictions));
+        if (tapped && tap.wants(name)) {
+            tap.offer(name, served.tag(), served.bundle(), items, predictions);
+        }
     }
 
     void explain(Context ctx) throws IOException {
@@ -166,26 +180,82 @@ final class ModelRoutes {
         ctx.status(201).header("Location", "/models/" + name + "/versions/" + tag).json(views.versionDetail(version));
     }
 
+    /**
+     * Activates a version after the promotion check ({@link PromotionCheck}) against the active
+     * one; a refusal is a 409 whose {@code checks} member lists each failed check, unless the body
+     * says {@code "force": true} with a {@code reason}, which then goes into the events with the
+     * failed checks.
+     */
     void activate(Context ctx) throws IOException {
         access.requireAdmin(ctx);
         String name = ctx.pathParam("name");
-        String tag = Requests.requiredString(requests.jsonBody(ctx), "tag");
-        Activation activation = store.activate(name, tag, ACTOR, "activated over HTTP");
-        answerActivation(ctx, name, activation);
+        Requests.ActivateBody body = Requests.activateBody(requests.jsonBody(ctx));
+        Version candidate = storedVersion(name, body.tag());
+        PromotionCheck.Outcome outcome = PromotionCheck.check(candidate, store.activeVersion(name),
+                shadows.status(name, Optional.of(body.tag())).map(ShadowStatus::summary), promotion);
+        if (!outcome.passed() && !body.force()) {
+            throw ApiProblem.conflict("promotion-refused", "Promotion check failed", outcome.describe()
+                    + "; send \"force\": true with a \"reason\" to activate anyway").withMembers(views.promotion(outcome));
+        }
+        String reason = body.force()
+                ? "forced" + (outcome.passed() ? "" : " past the promotion check (" + outcome.describe() + ")") + ": " + body.reason()
+                : body.reason().isEmpty() ? "activated over HTTP" : body.reason();
+        Activation activation = store.activate(name, body.tag(), ACTOR, reason);
+        shadows.sync();
+        ObjectNode answer = answerActivation(name, activation);
+        answer.set("promotion_check", views.promotion(outcome).put("forced", body.force()));
+        ctx.json(answer);
+    }
+
+    void startShadow(Context ctx) throws IOException {
+        access.requireAdmin(ctx);
+        String name = ctx.pathParam("name");
+        Requests.ShadowBody body = Requests.shadowBody(requests.jsonBody(ctx));
+        store.startShadow(name, body.tag(), body.fraction(), ACTOR);
+        shadows.sync();
+        ctx.json(shadowStatus(name));
+    }
+
+    void shadow(Context ctx) {
+        access.requireReader(ctx);
+        ctx.json(shadowStatus(ctx.pathParam("name")));
+    }
+
+    void stopShadow(Context ctx) {
+        access.requireAdmin(ctx);
+        String name = ctx.pathParam("name");
+        if (store.stopShadow(name, ACTOR, "stopped over HTTP").isEmpty()) {
+            throw noShadow(name);
+        }
+        // writes this server's final snapshot before the answer reads the reports back
+        shadows.sync();
+        ctx.json(shadowStatus(name));
+    }
+
+    private ObjectNode shadowStatus(String name) {
+        store.versions(name); // a 404 for an unknown model
+        return shadows.status(name, Optional.empty()).orElseThrow(() -> noShadow(name)).toJson();
+    }
+
+    private static ApiProblem noShadow(String name) {
+        return ApiProblem.notFound("no-shadow", "model " + name + " has no shadow running and no shadow report");
     }
 
     void rollback(Context ctx) {
         access.requireAdmin(ctx);
         String name = ctx.pathParam("name");
-        answerActivation(ctx, name, store.rollback(name, ACTOR));
+        // never checked: rolling back is the way out of an emergency
+        ObjectNode answer = answerActivation(name, store.rollback(name, ACTOR));
+        shadows.sync();
+        ctx.json(answer);
     }
 
     /** Loads the newly active version now rather than waiting for the change feed, and says which version serves. */
-    private void answerActivation(Context ctx, String name, Activation activation) {
+    private ObjectNode answerActivation(String name, Activation activation) {
         live.refresh(name);
         ObjectNode body = views.versionDetail(storedVersion(name, activation.tag()));
         body.put("serving", live.active(name).map(LiveVersion::tag).orElse(null));
-        ctx.json(body);
+        return body;
     }
 
     private LiveVersion activeLive(String name) {

@@ -28,15 +28,21 @@ public final class PressmarkServer implements AutoCloseable {
     private static final Duration INITIAL_LOAD_WAIT = Duration.ofSeconds(60);
     private static final int MIN_THREADS = 4;
     private static final int IDLE_TIMEOUT_MS = 60_000;
+    /** How long stopping waits for sampled requests still queued for the shadow candidates. */
+    private static final long TAP_DRAIN_MS = 1_000;
 
     private final Javalin app;
     private final LiveModels live;
     private final Metrics metrics;
+    private final TrafficTap tap;
+    private final ShadowScoring shadows;
 
-    private PressmarkServer(Javalin app, LiveModels live, Metrics metrics) {
+    private PressmarkServer(Javalin app, LiveModels live, Metrics metrics, TrafficTap tap, ShadowScoring shadows) {
         this.app = app;
         this.live = live;
         this.metrics = metrics;
+        this.tap = tap;
+        this.shadows = shadows;
     }
 
     /**
@@ -60,8 +66,11 @@ public final class PressmarkServer implements AutoCloseable {
         // A request that comes in between loads the model it names itself, and /health/ready says 503 until then.
         LiveModels live = LiveModels.start(store, metrics);
         Access access = new Access(config.adminToken(), config.readerToken());
+        TrafficTap tap = new TrafficTap(config.tapCapacity(), metrics);
+        ShadowScoring shadows = new ShadowScoring(store, live, metrics, config.maxTokensPerField());
+        tap.register(shadows);
         ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics,
-                config.requestTimeoutMs());
+                config.requestTimeoutMs(), tap, shadows, config.promotion());
         RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
         Problems problems = new Problems(json);
         Admission admission = new Admission(config.maxConcurrent());
@@ -109,6 +118,9 @@ public final class PressmarkServer implements AutoCloseable {
         app.post("/models/{name}/versions/{tag}/predict", admission.bounded(routes::predictNamed));
         app.post("/models/{name}/explain", admission.bounded(routes::explain));
         app.put("/models/{name}/active", admission.bounded(routes::activate));
+        app.put("/models/{name}/shadow", admission.bounded(routes::startShadow));
+        app.get("/models/{name}/shadow", routes::shadow);
+        app.delete("/models/{name}/shadow", admission.bounded(routes::stopShadow));
         app.post("/models/{name}/rollback", admission.bounded(routes::rollback));
         app.get("/metrics", ctx -> ctx.contentType(Metrics.CONTENT_TYPE).result(metrics.scrape()));
         new Console(store, live, access, config.readerToken().isPresent()).register(app);
@@ -119,11 +131,13 @@ public final class PressmarkServer implements AutoCloseable {
         try {
             app.start(config.host(), config.port());
         } catch (JavalinBindException e) {
+            tap.close();
             live.close();
             metrics.close();
             throw new PressmarkException("port-in-use", config.host() + ":" + config.port()
                     + ": cannot listen there; another process holds the port (choose another with --port)", e);
         } catch (RuntimeException e) {
+            tap.close();
             live.close();
             metrics.close();
             throw e;
@@ -133,11 +147,13 @@ public final class PressmarkServer implements AutoCloseable {
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
             app.stop();
+            tap.close();
             live.close();
             metrics.close();
             throw new IllegalStateException("interrupted while loading the active models", e);
         }
-        PressmarkServer server = new PressmarkServer(app, live, metrics);
+        shadows.start();
+        PressmarkServer server = new PressmarkServer(app, live, metrics, tap, shadows);
         LOG.info("listening on http://{}:{} (store {}; admin endpoints {}; reading endpoints {})", config.host(), server.port(),
                 store.describe(), config.adminToken().isPresent() ? "enabled" : "disabled",
                 config.readerToken().isPresent() ? "need the reader token" : "open");
@@ -149,9 +165,22 @@ public final class PressmarkServer implements AutoCloseable {
         return app.port();
     }
 
+    /** The tap that answered predict requests pass through: a seam for the tests and for other listeners. */
+    TrafficTap tap() {
+        return tap;
+    }
+
+    ShadowScoring shadows() {
+        return shadows;
+    }
+
+    /** Stops listening, lets the tap's queue drain briefly, writes the final shadow reports, then stops following the store. */
     @Override
     public void close() {
         app.stop();
+        tap.drain(TAP_DRAIN_MS);
+        shadows.close();
+        tap.close();
         live.close();
         metrics.close();
     }

@@ -1,6 +1,7 @@
 package dev.pressmark.server;
 
 import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
@@ -10,6 +11,7 @@ import dev.pressmark.store.StoreException;
 import io.javalin.http.Context;
 import io.javalin.http.HttpResponseException;
 import java.util.List;
+import java.util.Map;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
@@ -61,6 +63,13 @@ final class Problems {
         if (STORE_UNAVAILABLE.equals(problem.slug())) {
             ctx.header("Retry-After", STORE_RETRY_AFTER_SECONDS);
         }
+        if (problem.members() != null) {
+            for (Map.Entry<String, JsonNode> m : problem.members().properties()) {
+                if (!body.has(m.getKey())) {
+                    body.set(m.getKey(), m.getValue());
+                }
+            }
+        }
         if (problem.status() == 401) {
             ctx.header("WWW-Authenticate", "Bearer");
         }
@@ -100,6 +109,9 @@ final class Problems {
             case StoreException.INVALID_TAG -> ApiProblem.invalidField("tag", e.getMessage());
             case StoreException.NOT_A_BUNDLE -> new ApiProblem(400, "not-a-bundle", "Not a usable bundle", e.getMessage(), List.of());
             case StoreException.TAG_EXISTS -> new ApiProblem(409, "tag-exists", "Tag already published", e.getMessage(), List.of());
+            case StoreException.INVALID_FRACTION -> ApiProblem.invalidField("fraction", e.getMessage());
+            case StoreException.NO_ACTIVE, StoreException.SHADOW_OF_ACTIVE ->
+                    new ApiProblem(409, e.code(), "Conflict with the active version", e.getMessage(), List.of());
             case StoreException.RETIRED, StoreException.ACTIVE, StoreException.NO_ROLLBACK ->
                     new ApiProblem(409, e.code(), "Conflict with the version history", e.getMessage(), List.of());
             case StoreException.UNREACHABLE -> new ApiProblem(503, STORE_UNAVAILABLE, "Store unavailable",

@@ -2,11 +2,13 @@ package dev.pressmark.server;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.pressmark.store.Shadow;
 import io.javalin.http.Context;
 import java.io.ByteArrayOutputStream;
 import java.io.CharConversionException;
 import java.io.IOException;
 import java.io.InputStream;
+import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
@@ -17,6 +19,8 @@ final class Requests {
 
     static final String JSON = "application/json";
     static final Set<String> BUNDLE_TYPES = Set.of("application/octet-stream", "application/zip");
+    /** Enough for a sentence or two in the events. */
+    static final int MAX_REASON_CHARS = 1_000;
 
     private final ObjectMapper json;
     private final ItemsReader items;
@@ -81,6 +85,67 @@ final class Requests {
             return items.read(body, inputFields);
         } catch (CharConversionException e) {
             throw notJsonText(e);
+        }
+    }
+
+    /** The body of {@code PUT /models/{name}/active}. */
+    record ActivateBody(String tag, boolean force, String reason) {
+    }
+
+    /** The body of {@code PUT /models/{name}/shadow}. */
+    record ShadowBody(String tag, double fraction) {
+    }
+
+    /** {@code {"tag": "...", "force": false, "reason": "..."}}; forcing needs a reason. */
+    static ActivateBody activateBody(JsonNode body) {
+        onlyMembers(body, Set.of("tag", "force", "reason"));
+        String tag = requiredString(body, "tag");
+        JsonNode force = body.get("force");
+        if (force != null && !force.isBoolean()) {
+            throw ApiProblem.invalidField("force", "must be true or false");
+        }
+        JsonNode reason = body.get("reason");
+        if (reason != null && !reason.isTextual()) {
+            throw ApiProblem.invalidField("reason", "must be a string");
+        }
+        boolean forced = force != null && force.booleanValue();
+        String why = reason == null ? "" : reason.textValue().strip();
+        if (forced && why.isEmpty()) {
+            throw ApiProblem.invalidField("reason", "is required with \"force\": true, and goes into the events");
+        }
+        if (why.length() > MAX_REASON_CHARS) {
+            throw ApiProblem.invalidField("reason", "must have at most " + MAX_REASON_CHARS + " characters, had " + why.length());
+        }
+        return new ActivateBody(tag, forced, why);
+    }
+
+    /** {@code {"tag": "...", "fraction": 0.2}}; the fraction is in (0, 1] and defaults to {@link Shadow#DEFAULT_FRACTION}. */
+    static ShadowBody shadowBody(JsonNode body) {
+        onlyMembers(body, Set.of("tag", "fraction"));
+        String tag = requiredString(body, "tag");
+        JsonNode fraction = body.get("fraction");
+        if (fraction == null) {
+            return new ShadowBody(tag, Shadow.DEFAULT_FRACTION);
+        }
+        if (!fraction.isNumber() || !(fraction.doubleValue() > 0 && fraction.doubleValue() <= 1)) {
+            throw ApiProblem.invalidField("fraction", "must be a number in (0, 1], the share of requests scored, was " + fraction);
+        }
+        return new ShadowBody(tag, fraction.doubleValue());
+    }
+
+    /** Refuses a body that is not an object or has a member not in {@code allowed}, naming each. */
+    private static void onlyMembers(JsonNode body, Set<String> allowed) {
+        if (!body.isObject()) {
+            throw ApiProblem.invalidField("(body)", "must be a JSON object with members " + allowed.stream().sorted().toList());
+        }
+        List<ApiProblem.FieldError> unknown = new ArrayList<>();
+        body.fieldNames().forEachRemaining(name -> {
+            if (!allowed.contains(name)) {
+                unknown.add(new ApiProblem.FieldError(name, "is not a member of this body; allowed: " + allowed.stream().sorted().toList()));
+            }
+        });
+        if (!unknown.isEmpty()) {
+            throw ApiProblem.invalid(unknown.size() + " unknown member(s) in the body", unknown);
         }
     }
 

@@ -1,8 +1,10 @@
 package dev.pressmark.server;
 
+import dev.pressmark.store.PromotionPolicy;
 import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
+import java.util.function.Consumer;
 
 /**
  * How the service runs. Fixed at start-up.
@@ -22,10 +24,13 @@ import java.util.Optional;
  * @param maxTokensPerField how many tokens of each text field are scored; a longer field is cut, and the answer says by how much
  * @param requestTimeoutMs how long a predict or explain request may take, from its handler's start, before it is answered
  *     503 {@code deadline-exceeded} and its admission slot is freed
+ * @param promotion when {@code PUT /models/{name}/active} refuses a candidate unless forced
+ * @param tapCapacity how many answered requests may wait for the traffic listeners (shadow scoring, drift watch); beyond it they are dropped and counted
+ * @param driftSample the share of active-version predict requests whose items go into the drift window, in [0, 1]; 0 turns drift watch off
  */
 public record ServerConfig(String host, int port, int maxItems, long maxJsonBytes, long maxBundleBytes, Optional<BearerToken> adminToken,
         Optional<BearerToken> readerToken, int maxThreads, boolean accessLog, int maxConcurrent, List<String> corsOrigins,
-        int maxTokensPerField, long requestTimeoutMs) {
+        int maxTokensPerField, long requestTimeoutMs, PromotionPolicy promotion, int tapCapacity, double driftSample) {
 
     public static final String DEFAULT_HOST = "127.0.0.1";
     public static final int DEFAULT_PORT = 8080;
@@ -44,89 +49,159 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     public static final int DEFAULT_MAX_TOKENS_PER_FIELD = 512;
     /** Well past the largest request: 10,000 items of 60 words took 2.8 s here, cold, on two busy cores (RequestDeadlineTest). */
     public static final long DEFAULT_REQUEST_TIMEOUT_MS = 10_000;
+    /** Some seconds of sampled traffic at a few hundred requests a second; the queue holds references, not copies. */
+    public static final int DEFAULT_TAP_CAPACITY = 1_024;
+    /**
+     * One predict request in ten goes into the drift window: a window of a few thousand items fills
+     * within minutes at modest traffic, at a tenth of the cost of tokenising every item twice.
+     */
+    public static final double DEFAULT_DRIFT_SAMPLE = 0.1;
 
     public ServerConfig {
         Objects.requireNonNull(host, "host");
         Objects.requireNonNull(adminToken, "adminToken");
         Objects.requireNonNull(readerToken, "readerToken");
+        Objects.requireNonNull(promotion, "promotion");
         corsOrigins = List.copyOf(Objects.requireNonNull(corsOrigins, "corsOrigins"));
         for (String origin : corsOrigins) {
             if (!origin.matches("https?://[^/\\s]+")) {
                 throw new IllegalArgumentException("a CORS origin is scheme://host[:port] with no path, was \"" + origin + "\"");
             }
         }
-        if (requestTimeoutMs < 1) {
-            throw new IllegalArgumentException("requestTimeoutMs must be >= 1 ms, was " + requestTimeoutMs);
-        }
-        if (maxTokensPerField < 1) {
-            throw new IllegalArgumentException("maxTokensPerField must be >= 1, was " + maxTokensPerField);
-        }
-        if (maxConcurrent < 1) {
-            throw new IllegalArgumentException("maxConcurrent must be >= 1, was " + maxConcurrent);
-        }
-        if (port < 0 || port > 65_535) {
+        atLeast("port", port, 0, "");
+        if (port > 65_535) {
             throw new IllegalArgumentException("port must be in [0, 65535], was " + port);
         }
-        if (maxItems < 1) {
-            throw new IllegalArgumentException("maxItems must be >= 1, was " + maxItems);
-        }
-        if (maxJsonBytes < 1) {
-            throw new IllegalArgumentException("maxJsonBytes must be >= 1, was " + maxJsonBytes);
-        }
-        if (maxBundleBytes < 1) {
-            throw new IllegalArgumentException("maxBundleBytes must be >= 1, was " + maxBundleBytes);
-        }
-        if (maxThreads < 4) {
-            throw new IllegalArgumentException("maxThreads must be >= 4, was " + maxThreads);
+        atLeast("maxItems", maxItems, 1, " items");
+        atLeast("maxJsonBytes", maxJsonBytes, 1, " bytes");
+        atLeast("maxBundleBytes", maxBundleBytes, 1, " bytes");
+        atLeast("maxThreads", maxThreads, 4, " threads");
+        atLeast("maxConcurrent", maxConcurrent, 1, " requests");
+        atLeast("maxTokensPerField", maxTokensPerField, 1, " tokens");
+        atLeast("requestTimeoutMs", requestTimeoutMs, 1, " ms");
+        atLeast("tapCapacity", tapCapacity, 1, " requests");
+        if (!(driftSample >= 0.0 && driftSample <= 1.0)) {
+            throw new IllegalArgumentException("driftSample must be a share of requests in [0, 1], was " + driftSample);
         }
     }
 
-    /** The defaults, with no tokens. */
+    private static void atLeast(String name, long value, long min, String unit) {
+        if (value < min) {
+            throw new IllegalArgumentException(name + " must be >= " + min + unit + ", was " + value);
+        }
+    }
+
+    /** Every default, listening on {@value #DEFAULT_HOST}:{@value #DEFAULT_PORT}, with no tokens. */
     public static ServerConfig defaults() {
         return new ServerConfig(DEFAULT_HOST, DEFAULT_PORT, DEFAULT_MAX_ITEMS, DEFAULT_MAX_JSON_BYTES, DEFAULT_MAX_BUNDLE_BYTES, Optional.empty(),
                 Optional.empty(), DEFAULT_MAX_THREADS, DEFAULT_ACCESS_LOG, DEFAULT_MAX_CONCURRENT, List.of(),
-                DEFAULT_MAX_TOKENS_PER_FIELD, DEFAULT_REQUEST_TIMEOUT_MS);
+                DEFAULT_MAX_TOKENS_PER_FIELD, DEFAULT_REQUEST_TIMEOUT_MS, PromotionPolicy.defaults(), DEFAULT_TAP_CAPACITY, DEFAULT_DRIFT_SAMPLE);
+    }
+
+    public ServerConfig withHost(String newHost) {
+        return edit(e -> e.host = newHost);
     }
 
     public ServerConfig withPort(int newPort) {
-        return new ServerConfig(host, newPort, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, requestTimeoutMs);
+        return edit(e -> e.port = newPort);
     }
 
-    public ServerConfig withMaxItems(int newMaxItems) {
-        return new ServerConfig(host, port, newMaxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, requestTimeoutMs);
+    public ServerConfig withMaxItems(int n) {
+        return edit(e -> e.maxItems = n);
     }
 
     public ServerConfig withBodyLimits(long newMaxJsonBytes, long newMaxBundleBytes) {
-        return new ServerConfig(host, port, maxItems, newMaxJsonBytes, newMaxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, requestTimeoutMs);
+        return edit(e -> {
+            e.maxJsonBytes = newMaxJsonBytes;
+            e.maxBundleBytes = newMaxBundleBytes;
+        });
     }
 
     public ServerConfig withAdminToken(Optional<BearerToken> token) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, token, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, requestTimeoutMs);
+        return edit(e -> e.adminToken = token);
     }
 
     public ServerConfig withReaderToken(Optional<BearerToken> token) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, token, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, requestTimeoutMs);
-    }
-
-    public ServerConfig withMaxConcurrent(int n) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, n, corsOrigins, maxTokensPerField, requestTimeoutMs);
-    }
-
-    public ServerConfig withCorsOrigins(List<String> origins) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, origins, maxTokensPerField, requestTimeoutMs);
-    }
-
-    public ServerConfig withMaxTokensPerField(int n) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent,
-                corsOrigins, n, requestTimeoutMs);
+        return edit(e -> e.readerToken = token);
     }
 
     public ServerConfig withAccessLog(boolean on) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, on, maxConcurrent, corsOrigins, maxTokensPerField, requestTimeoutMs);
+        return edit(e -> e.accessLog = on);
+    }
+
+    public ServerConfig withMaxConcurrent(int n) {
+        return edit(e -> e.maxConcurrent = n);
+    }
+
+    public ServerConfig withCorsOrigins(List<String> origins) {
+        return edit(e -> e.corsOrigins = origins);
+    }
+
+    public ServerConfig withMaxTokensPerField(int n) {
+        return edit(e -> e.maxTokensPerField = n);
     }
 
     public ServerConfig withRequestTimeoutMs(long ms) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent,
-                corsOrigins, maxTokensPerField, ms);
+        return edit(e -> e.requestTimeoutMs = ms);
+    }
+
+    public ServerConfig withPromotion(PromotionPolicy policy) {
+        return edit(e -> e.promotion = policy);
+    }
+
+    public ServerConfig withTapCapacity(int requests) {
+        return edit(e -> e.tapCapacity = requests);
+    }
+
+    public ServerConfig withDriftSample(double share) {
+        return edit(e -> e.driftSample = share);
+    }
+
+    /** A copy with some components changed; the compact constructor checks the result. */
+    private ServerConfig edit(Consumer<Edit> change) {
+        Edit e = new Edit(this);
+        change.accept(e);
+        return new ServerConfig(e.host, e.port, e.maxItems, e.maxJsonBytes, e.maxBundleBytes, e.adminToken, e.readerToken, e.maxThreads,
+                e.accessLog, e.maxConcurrent, e.corsOrigins, e.maxTokensPerField, e.requestTimeoutMs, e.promotion, e.tapCapacity,
+                e.driftSample);
+    }
+
+    /** The components of a config being copied, one field each. */
+    private static final class Edit {
+        String host;
+        int port;
+        int maxItems;
+        long maxJsonBytes;
+        long maxBundleBytes;
+        Optional<BearerToken> adminToken;
+        Optional<BearerToken> readerToken;
+        int maxThreads;
+        boolean accessLog;
+        int maxConcurrent;
+        List<String> corsOrigins;
+        int maxTokensPerField;
+        long requestTimeoutMs;
+        PromotionPolicy promotion;
+        int tapCapacity;
+        double driftSample;
+
+        Edit(ServerConfig c) {
+            host = c.host;
+            port = c.port;
+            maxItems = c.maxItems;
+            maxJsonBytes = c.maxJsonBytes;
+            maxBundleBytes = c.maxBundleBytes;
+            adminToken = c.adminToken;
+            readerToken = c.readerToken;
+            maxThreads = c.maxThreads;
+            accessLog = c.accessLog;
+            maxConcurrent = c.maxConcurrent;
+            corsOrigins = c.corsOrigins;
+            maxTokensPerField = c.maxTokensPerField;
+            requestTimeoutMs = c.requestTimeoutMs;
+            promotion = c.promotion;
+            tapCapacity = c.tapCapacity;
+            driftSample = c.driftSample;
+        }
     }
 }

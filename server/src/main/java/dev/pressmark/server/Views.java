@@ -8,6 +8,7 @@ import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Contribution;
 import dev.pressmark.core.bundle.Explanation;
 import dev.pressmark.core.bundle.Prediction;
+import dev.pressmark.store.PromotionCheck;
 import dev.pressmark.store.Version;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
@@ -56,6 +57,30 @@ final class Views {
         node.set("metrics", manifest.path("metrics").deepCopy());
         node.set("provenance", manifest.path("provenance").deepCopy());
         return node;
+    }
+
+    /** What the promotion check found: {@code passed}, each refusal as {@code checks}, and {@code notes}. */
+    ObjectNode promotion(PromotionCheck.Outcome outcome) {
+        ObjectNode node = json.createObjectNode().put("passed", outcome.passed());
+        ArrayNode checks = node.putArray("checks");
+        for (PromotionCheck.Refusal r : outcome.refusals()) {
+            ObjectNode check = checks.addObject().put("kind", r.kind()).put("metric", r.metric()).put("source", r.source());
+            number(check, "active", r.active());
+            number(check, "candidate", r.candidate());
+            check.put("limit", r.limit());
+            check.put("message", r.message());
+        }
+        ArrayNode notes = node.putArray("notes");
+        outcome.notes().forEach(notes::add);
+        return node;
+    }
+
+    private static void number(ObjectNode node, String field, double value) {
+        if (Double.isNaN(value)) {
+            node.putNull(field);
+        } else {
+            node.put(field, value);
+        }
     }
 
     /** One result's members, written into the result object the caller opened. */

@@ -86,6 +86,37 @@ final class ServeProcess implements AutoCloseable {
         }
     }
 
+    /** What a finished {@code pressmark} command printed, and its exit code. */
+    record Finished(int exitCode, String out, String err) {
+    }
+
+    /** Runs a {@code pressmark} command to its end, whatever its exit code, and keeps both outputs. */
+    static Finished runCapturing(Path dir, String... args) {
+        Process process = start(dir, Map.of(), args);
+        CompletableFuture<String> err = collect(process);
+        CompletableFuture<String> out = CompletableFuture.supplyAsync(() -> {
+            try (ByteArrayOutputStream buffer = new ByteArrayOutputStream()) {
+                process.getInputStream().transferTo(buffer);
+                return buffer.toString(StandardCharsets.UTF_8);
+            } catch (IOException e) {
+                throw new UncheckedIOException(e);
+            }
+        });
+        try {
+            process.getOutputStream().close();
+            if (!process.waitFor(STARTED_WITHIN.toSeconds(), TimeUnit.SECONDS)) {
+                stop(process);
+                throw new AssertionError("pressmark " + String.join(" ", args) + " did not finish in " + STARTED_WITHIN);
+            }
+            return new Finished(process.exitValue(), out.join(), err.join());
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new AssertionError("interrupted", e);
+        }
+    }
+
     private static Process start(Path dir, Map<String, String> env, String... args) {
         List<String> command = new ArrayList<>(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(),
                 // start-up dominates these short runs on two cores; the client compiler alone gets there sooner

@@ -47,12 +47,17 @@ public interface BundleStore extends AutoCloseable {
      */
     Version publish(String model, String tag, byte[] bundle, String actor);
 
-    /** Makes {@code tag} the active version of {@code model}. Activating the active version again changes nothing. */
+    /**
+     * Makes {@code tag} the active version of {@code model}. Activating the active version again
+     * changes nothing. A running shadow of the model stops: it compared a pair of versions, and
+     * the pair is gone whether the candidate was promoted or another version took over.
+     */
     Activation activate(String model, String tag, String actor, String reason);
 
     /**
      * Re-activates the version that was active before the current one, appending an activation.
-     * Repeated rollbacks walk back through the history; at its start this fails.
+     * Repeated rollbacks walk back through the history; at its start this fails. A running
+     * shadow stops, as on {@link #activate}. Never subject to a promotion check.
      */
     Activation rollback(String model, String actor);
 
@@ -98,6 +103,32 @@ public interface BundleStore extends AutoCloseable {
      * databases are also polled, so a lost notification only delays the answer.
      */
     long awaitChange(long sequence, Duration timeout) throws InterruptedException;
+
+    /**
+     * Starts a shadow run of {@code tag}: from now on a {@code fraction} of the requests the
+     * active version answers are also scored by {@code tag}, off the request path, on every
+     * server of this store. Replaces a running shadow of the model (a new run). The tag must be
+     * published, not retired and not the active version. Recorded in the events.
+     */
+    Shadow startShadow(String model, String tag, double fraction, String actor);
+
+    /** Stops the model's shadow, if one runs, and records why; its reports stay. */
+    Optional<Shadow> stopShadow(String model, String actor, String reason);
+
+    /** The model's running shadow, if any. */
+    Optional<Shadow> shadow(String model);
+
+    /** Every running shadow, by model name. */
+    List<Shadow> shadows();
+
+    /** Replaces one replica's report of one shadow run with a newer snapshot. */
+    void saveShadowReport(ShadowReport report);
+
+    /**
+     * Every replica's report of the model's newest shadow run, or of {@code tag}'s newest run
+     * when {@code tag} is not empty; empty when there is none.
+     */
+    List<ShadowReport> shadowReports(String model, Optional<String> tag);
 
     /** Where the store is, for messages: a file path or host:port/database, never a password. */
     String describe();

@@ -6,11 +6,13 @@ import java.util.Map;
 enum Dialect {
     SQLITE("sqlite", Map.of(
             "id_pk", "INTEGER PRIMARY KEY AUTOINCREMENT",
-            "bytes", "BLOB"), ""),
+            "bytes", "BLOB",
+            "double", "REAL"), ""),
     // AUTOINCREMENT above and an identity here both guarantee ids are never reused, which the change feed needs
     POSTGRESQL("postgresql", Map.of(
             "id_pk", "BIGINT GENERATED ALWAYS AS IDENTITY PRIMARY KEY",
-            "bytes", "BYTEA"), " FOR UPDATE");
+            "bytes", "BYTEA",
+            "double", "DOUBLE PRECISION"), " FOR UPDATE");
 
     final String label;
     final Map<String, String> placeholders;

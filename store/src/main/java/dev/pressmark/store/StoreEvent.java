@@ -11,6 +11,8 @@ public record StoreEvent(long id, Instant at, String actor, String action, Strin
     public static final String ACTIVATE = "activate";
     public static final String ROLLBACK = "rollback";
     public static final String RETIRE = "retire";
+    public static final String SHADOW_START = "shadow-start";
+    public static final String SHADOW_STOP = "shadow-stop";
 
     public StoreEvent {
         Objects.requireNonNull(at, "at");

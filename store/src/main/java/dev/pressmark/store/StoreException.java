@@ -28,6 +28,10 @@ public final class StoreException extends PressmarkException {
     public static final String ACTIVE = "version-active";
     public static final String NO_ROLLBACK = "no-rollback";
     public static final String CORRUPT = "version-corrupt";
+    public static final String NO_ACTIVE = "no-active-version";
+    public static final String SHADOW_OF_ACTIVE = "shadow-of-active";
+    public static final String INVALID_FRACTION = "invalid-fraction";
+    public static final String BAD_REPORT = "bad-shadow-report";
 
     public StoreException(String code, String message) {
         super(code, message);

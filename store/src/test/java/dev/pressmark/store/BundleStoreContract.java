@@ -339,6 +339,88 @@ abstract class BundleStoreContract {
     }
 
     @Test
+    void a_shadow_of_a_published_version_runs_until_stopped_and_both_changes_are_audited() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        store.activate("routing", "a", ACTOR, "");
+        Shadow started = store.startShadow("routing", "b", 0.25, ACTOR);
+        assertThat(started.fraction()).isEqualTo(0.25);
+        assertThat(store.shadow("routing")).contains(started);
+        assertThat(store.shadows()).containsExactly(started);
+        assertThat(store.stopShadow("routing", ACTOR, "enough")).contains(started);
+        assertThat(store.shadow("routing")).isEmpty();
+        assertThat(store.stopShadow("routing", ACTOR, "again")).isEmpty();
+        assertThat(store.events("routing")).extracting(StoreEvent::action).startsWith(StoreEvent.SHADOW_STOP, StoreEvent.SHADOW_START);
+        assertThat(store.events("routing").get(0).detail()).isEqualTo("enough");
+    }
+
+    @Test
+    void a_shadow_of_the_active_an_unknown_or_a_retired_version_or_with_a_bad_fraction_is_refused() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        assertThatThrownBy(() -> store.startShadow("routing", "b", 0.2, ACTOR))
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.NO_ACTIVE);
+        store.activate("routing", "a", ACTOR, "");
+        assertThatThrownBy(() -> store.startShadow("routing", "a", 0.2, ACTOR))
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.SHADOW_OF_ACTIVE);
+        assertThatThrownBy(() -> store.startShadow("routing", "zz", 0.2, ACTOR))
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.NO_SUCH_VERSION);
+        assertThatThrownBy(() -> store.startShadow("routing", "b", 0.0, ACTOR)).hasMessageContaining("fraction must be in (0, 1]")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.INVALID_FRACTION);
+        assertThatThrownBy(() -> store.startShadow("routing", "b", 1.5, ACTOR)).hasMessageContaining("was 1.5");
+        store.retire("routing", "b", ACTOR);
+        assertThatThrownBy(() -> store.startShadow("routing", "b", 0.2, ACTOR))
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.RETIRED);
+        assertThat(store.shadow("routing")).isEmpty();
+    }
+
+    @Test
+    void activating_the_candidate_or_rolling_back_stops_the_shadow_in_the_same_step() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        publish("routing", "c", 3);
+        store.activate("routing", "a", ACTOR, "");
+        store.startShadow("routing", "b", 0.5, ACTOR);
+        store.activate("routing", "b", ACTOR, "promoted");
+        assertThat(store.shadow("routing")).isEmpty();
+        assertThat(store.events("routing").get(0).action()).isEqualTo(StoreEvent.SHADOW_STOP);
+        assertThat(store.events("routing").get(0).detail()).contains("active version changed to b");
+
+        store.startShadow("routing", "c", 0.5, ACTOR);
+        store.rollback("routing", ACTOR);
+        assertThat(store.shadow("routing")).isEmpty();
+        assertThat(store.events("routing").get(0).detail()).contains("rolled back to a");
+    }
+
+    @Test
+    void shadow_reports_are_kept_per_replica_and_run_and_the_newest_run_is_read_back() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        publish("routing", "c", 3);
+        store.activate("routing", "a", ACTOR, "");
+        Shadow first = store.startShadow("routing", "b", 1.0, ACTOR);
+        ShadowSummary.Tally one = new ShadowSummary.Tally("a", "b");
+        one.add("x", "x", 0.1, ShadowSummary.SCORE);
+        ShadowSummary.Tally two = new ShadowSummary.Tally("a", "b");
+        two.add("x", "y", 0.2, ShadowSummary.SCORE);
+        store.saveShadowReport(new ShadowReport("routing", "b", "r1", first.startedAt(), first.startedAt(), ShadowSummary.empty("a", "b")));
+        store.saveShadowReport(new ShadowReport("routing", "b", "r1", first.startedAt(), first.startedAt().plusSeconds(1), one.summary()));
+        store.saveShadowReport(new ShadowReport("routing", "b", "r2", first.startedAt(), first.startedAt(), two.summary()));
+        List<ShadowReport> reports = store.shadowReports("routing", Optional.empty());
+        assertThat(reports).extracting(ShadowReport::replica).containsExactly("r1", "r2");
+        ShadowSummary merged = ShadowReport.merged(reports).orElseThrow();
+        assertThat(merged.samples()).isEqualTo(2);
+        assertThat(merged.agreeing()).isEqualTo(1);
+
+        Shadow second = store.startShadow("routing", "c", 0.5, ACTOR);
+        assertThat(second.startedAt()).isAfter(first.startedAt());
+        store.saveShadowReport(new ShadowReport("routing", "c", "r1", second.startedAt(), second.startedAt(), ShadowSummary.empty("a", "c")));
+        assertThat(store.shadowReports("routing", Optional.empty())).extracting(ShadowReport::tag).containsExactly("c");
+        assertThat(store.shadowReports("routing", Optional.of("b"))).hasSize(2);
+        assertThat(store.shadowReports("routing", Optional.of("a"))).isEmpty();
+    }
+
+    @Test
     void a_reopened_store_has_everything_that_was_committed() {
         publish("routing", "a", 1);
         store.activate("routing", "a", ACTOR, "");
@@ -357,7 +439,7 @@ abstract class BundleStoreContract {
         }
         assertThatThrownBy(() -> BundleStore.open(url))
                 .isInstanceOf(StoreException.class)
-                .hasMessageContaining("has store schema version 7, newer than this program's 1")
+                .hasMessageContaining("has store schema version 7, newer than this program's " + StoreDatabase.SCHEMA_VERSION)
                 .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.SCHEMA_NEWER);
         store = null;
     }
