@@ -56,6 +56,10 @@ final class ServeCommand implements Callable<Integer> {
             description = "Score at most N tokens of each text field; longer ones are cut and the answer says by how much (default: ${DEFAULT-VALUE}).")
     int maxTokensPerField;
 
+    @Option(names = "--drift-sample", paramLabel = "SHARE", defaultValue = "" + ServerConfig.DEFAULT_DRIFT_SAMPLE,
+            description = "The share of predict requests, 0 to 1, whose items are compared with the training profile (default: ${DEFAULT-VALUE}; 0 turns it off).")
+    double driftSample;
+
     @Option(names = "--cors-origin", paramLabel = "ORIGIN",
             description = "Let pages from ORIGIN (scheme://host[:port]) call the service from a browser; repeatable (default: CORS off).")
     List<String> corsOrigins = new ArrayList<>();
@@ -70,7 +74,7 @@ final class ServeCommand implements Callable<Integer> {
         Optional<BearerToken> reader = readerTokenFile == null ? Optional.empty() : Optional.of(token(readerTokenFile));
         ServerConfig config = new ServerConfig(host, port, maxItems, ServerConfig.DEFAULT_MAX_JSON_BYTES, ServerConfig.DEFAULT_MAX_BUNDLE_BYTES, admin,
                 reader, ServerConfig.DEFAULT_MAX_THREADS, accessLog, maxConcurrent, corsOrigins,
-                maxTokensPerField);
+                maxTokensPerField, driftSample);
         BundleStore opened = store.open();
         PressmarkServer server;
         try {

@@ -30,14 +30,19 @@ final class ModelRoutes {
     private final Views views;
     private final Access access;
     private final Metrics metrics;
+    private final TrafficTap tap;
+    private final DriftWatch drift;
 
-    ModelRoutes(BundleStore store, LiveModels live, Requests requests, Views views, Access access, Metrics metrics) {
+    ModelRoutes(BundleStore store, LiveModels live, Requests requests, Views views, Access access, Metrics metrics, TrafficTap tap,
+            DriftWatch drift) {
         this.store = store;
         this.live = live;
         this.requests = requests;
         this.views = views;
         this.access = access;
         this.metrics = metrics;
+        this.tap = tap;
+        this.drift = drift;
     }
 
     void health(Context ctx) {
@@ -97,7 +102,10 @@ final class ModelRoutes {
     void predictActive(Context ctx) throws IOException {
         access.requireReader(ctx);
         String name = ctx.pathParam("name");
-        predict(ctx, name, activeLive(name));
+        LiveVersion served = activeLive(name);
+        Answered answered = predict(ctx, name, served);
+        // Off the request path: the tap queues and returns, and drops rather than waits when full.
+        tap.offer(name, served.tag(), served.bundle(), answered.items(), answered.predictions());
     }
 
     void predictNamed(Context ctx) throws IOException {
@@ -108,13 +116,25 @@ final class ModelRoutes {
         predict(ctx, name, live.named(name, tag));
     }
 
-    private void predict(Context ctx, String name, LiveVersion served) throws IOException {
+    /** The items of a predict request and what the model said of them. */
+    private record Answered(List<Map<String, String>> items, List<Prediction> predictions) {
+    }
+
+    private Answered predict(Context ctx, String name, LiveVersion served) throws IOException {
         ctx.attribute(RequestRecorder.VERSION, served.tag());
         List<Map<String, String>> items = requests.items(requests.jsonBody(ctx), served.bundle().inputFields());
         ctx.attribute(RequestRecorder.ITEMS, items.size());
         List<Prediction> predictions = served.bundle().predict(items, requests.maxTokensPerField());
         metrics.predictions(name, served.tag(), predictions);
         ctx.contentType(Requests.JSON).result(views.predictions(name, served, predictions));
+        return new Answered(items, predictions);
+    }
+
+    void drift(Context ctx) {
+        access.requireReader(ctx);
+        String name = ctx.pathParam("name");
+        LiveVersion served = activeLive(name);
+        ctx.json(views.drift(name, served.tag(), drift.report(name, served)));
     }
 
     void explain(Context ctx) throws IOException {

@@ -4,6 +4,7 @@ import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.core.PressmarkException;
+import dev.pressmark.core.drift.DriftWindow;
 import dev.pressmark.store.BundleStore;
 import io.javalin.Javalin;
 import io.javalin.http.HttpResponseException;
@@ -26,15 +27,19 @@ public final class PressmarkServer implements AutoCloseable {
     private static final Duration INITIAL_LOAD_WAIT = Duration.ofSeconds(60);
     private static final int MIN_THREADS = 4;
     private static final int IDLE_TIMEOUT_MS = 60_000;
+    /** Answered predict requests waiting for the traffic listeners; beyond this they are dropped and counted. */
+    private static final int TAP_CAPACITY = 1_024;
 
     private final Javalin app;
     private final LiveModels live;
     private final Metrics metrics;
+    private final TrafficTap tap;
 
-    private PressmarkServer(Javalin app, LiveModels live, Metrics metrics) {
+    private PressmarkServer(Javalin app, LiveModels live, Metrics metrics, TrafficTap tap) {
         this.app = app;
         this.live = live;
         this.metrics = metrics;
+        this.tap = tap;
     }
 
     /**
@@ -55,7 +60,12 @@ public final class PressmarkServer implements AutoCloseable {
         // A request that comes in between loads the model it names itself, and /health/ready says 503 until then.
         LiveModels live = LiveModels.start(store, metrics);
         Access access = new Access(config.adminToken(), config.readerToken());
-        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics);
+        TrafficTap tap = new TrafficTap(TAP_CAPACITY, metrics);
+        DriftWatch drift = new DriftWatch(live, metrics, config.driftSample(), DriftWindow.DEFAULT_CAPACITY);
+        if (config.driftSample() > 0.0) {
+            tap.register(drift);
+        }
+        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics, tap, drift);
         RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
         Problems problems = new Problems(json);
         Admission admission = new Admission(config.maxConcurrent());
@@ -97,6 +107,7 @@ public final class PressmarkServer implements AutoCloseable {
         app.get("/models", routes::models);
         app.get("/models/{name}", routes::model);
         app.get("/models/{name}/versions", routes::versions);
+        app.get("/models/{name}/drift", routes::drift);
         app.get("/models/{name}/versions/{tag}", routes::version);
         app.put("/models/{name}/versions/{tag}", admission.bounded(routes::publish));
         app.post("/models/{name}/predict", admission.bounded(routes::predictActive));
@@ -113,11 +124,13 @@ public final class PressmarkServer implements AutoCloseable {
         try {
             app.start(config.host(), config.port());
         } catch (JavalinBindException e) {
+            tap.close();
             live.close();
             metrics.close();
             throw new PressmarkException("port-in-use", config.host() + ":" + config.port()
                     + ": cannot listen there; another process holds the port (choose another with --port)", e);
         } catch (RuntimeException e) {
+            tap.close();
             live.close();
             metrics.close();
             throw e;
@@ -127,11 +140,12 @@ public final class PressmarkServer implements AutoCloseable {
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
             app.stop();
+            tap.close();
             live.close();
             metrics.close();
             throw new IllegalStateException("interrupted while loading the active models", e);
         }
-        PressmarkServer server = new PressmarkServer(app, live, metrics);
+        PressmarkServer server = new PressmarkServer(app, live, metrics, tap);
         LOG.info("listening on http://{}:{} (store {}; admin endpoints {}; reading endpoints {})", config.host(), server.port(),
                 store.describe(), config.adminToken().isPresent() ? "enabled" : "disabled",
                 config.readerToken().isPresent() ? "need the reader token" : "open");
@@ -146,6 +160,7 @@ public final class PressmarkServer implements AutoCloseable {
     @Override
     public void close() {
         app.stop();
+        tap.close();
         live.close();
         metrics.close();
     }

@@ -20,10 +20,11 @@ import java.util.Optional;
  *     beyond it they are answered 503 with {@code Retry-After} at once, while health, metrics and docs still answer
  * @param corsOrigins the origins whose pages may call the service from a browser; empty (the default) turns CORS off
  * @param maxTokensPerField how many tokens of each text field are scored; a longer field is cut, and the answer says by how much
+ * @param driftSample the share of active-version predict requests whose items go into the drift window, in [0, 1]; 0 turns drift watch off
  */
 public record ServerConfig(String host, int port, int maxItems, long maxJsonBytes, long maxBundleBytes, Optional<BearerToken> adminToken,
         Optional<BearerToken> readerToken, int maxThreads, boolean accessLog, int maxConcurrent, List<String> corsOrigins,
-        int maxTokensPerField) {
+        int maxTokensPerField, double driftSample) {
 
     public static final String DEFAULT_HOST = "127.0.0.1";
     public static final int DEFAULT_PORT = 8080;
@@ -40,6 +41,11 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     public static final int DEFAULT_MAX_CONCURRENT = 20;
     /** Far beyond a title or a subject line; a pasted document is cut here instead of costing its whole length. */
     public static final int DEFAULT_MAX_TOKENS_PER_FIELD = 512;
+    /**
+     * One predict request in ten goes into the drift window: a window of a few thousand items fills
+     * within minutes at modest traffic, at a tenth of the cost of tokenising every item twice.
+     */
+    public static final double DEFAULT_DRIFT_SAMPLE = 0.1;
 
     public ServerConfig {
         Objects.requireNonNull(host, "host");
@@ -50,6 +56,9 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
             if (!origin.matches("https?://[^/\\s]+")) {
                 throw new IllegalArgumentException("a CORS origin is scheme://host[:port] with no path, was \"" + origin + "\"");
             }
+        }
+        if (!(driftSample >= 0.0 && driftSample <= 1.0)) {
+            throw new IllegalArgumentException("driftSample must be a share of requests in [0, 1], was " + driftSample);
         }
         if (maxTokensPerField < 1) {
             throw new IllegalArgumentException("maxTokensPerField must be >= 1, was " + maxTokensPerField);
@@ -78,43 +87,48 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     public static ServerConfig defaults() {
         return new ServerConfig(DEFAULT_HOST, DEFAULT_PORT, DEFAULT_MAX_ITEMS, DEFAULT_MAX_JSON_BYTES, DEFAULT_MAX_BUNDLE_BYTES, Optional.empty(),
                 Optional.empty(), DEFAULT_MAX_THREADS, DEFAULT_ACCESS_LOG, DEFAULT_MAX_CONCURRENT, List.of(),
-                DEFAULT_MAX_TOKENS_PER_FIELD);
+                DEFAULT_MAX_TOKENS_PER_FIELD, DEFAULT_DRIFT_SAMPLE);
     }
 
     public ServerConfig withPort(int newPort) {
-        return new ServerConfig(host, newPort, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, newPort, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, driftSample);
     }
 
     public ServerConfig withMaxItems(int newMaxItems) {
-        return new ServerConfig(host, port, newMaxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, port, newMaxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, driftSample);
     }
 
     public ServerConfig withBodyLimits(long newMaxJsonBytes, long newMaxBundleBytes) {
-        return new ServerConfig(host, port, maxItems, newMaxJsonBytes, newMaxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, port, maxItems, newMaxJsonBytes, newMaxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, driftSample);
     }
 
     public ServerConfig withAdminToken(Optional<BearerToken> token) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, token, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, token, readerToken, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, driftSample);
     }
 
     public ServerConfig withReaderToken(Optional<BearerToken> token) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, token, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, token, maxThreads, accessLog, maxConcurrent, corsOrigins, maxTokensPerField, driftSample);
     }
 
     public ServerConfig withMaxConcurrent(int n) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, n, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, n, corsOrigins, maxTokensPerField, driftSample);
     }
 
     public ServerConfig withCorsOrigins(List<String> origins) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, origins, maxTokensPerField);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent, origins, maxTokensPerField, driftSample);
     }
 
     public ServerConfig withMaxTokensPerField(int n) {
         return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent,
-                corsOrigins, n);
+                corsOrigins, n, driftSample);
     }
 
     public ServerConfig withAccessLog(boolean on) {
-        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, on, maxConcurrent, corsOrigins, maxTokensPerField);
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, on, maxConcurrent, corsOrigins, maxTokensPerField, driftSample);
+    }
+
+    public ServerConfig withDriftSample(double share) {
+        return new ServerConfig(host, port, maxItems, maxJsonBytes, maxBundleBytes, adminToken, readerToken, maxThreads, accessLog, maxConcurrent,
+                corsOrigins, maxTokensPerField, share);
     }
 }
