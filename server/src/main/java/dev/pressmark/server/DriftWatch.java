@@ -45,7 +45,8 @@ final class DriftWatch implements TrafficTap.Listener {
         if (active.isEmpty() || active.get().bundle() != served) {
             return;
         }
-        window(model, active.get()).observe(items);
+        // Only the last items of a batch larger than the window would stay in it; tokenising the rest is wasted.
+        window(model, active.get()).observe(items.size() > capacity ? items.subList(items.size() - capacity, items.size()) : items);
     }
 
     private synchronized boolean sampled() {

@@ -27,8 +27,12 @@ public final class PressmarkServer implements AutoCloseable {
     private static final Duration INITIAL_LOAD_WAIT = Duration.ofSeconds(60);
     private static final int MIN_THREADS = 4;
     private static final int IDLE_TIMEOUT_MS = 60_000;
-    /** Answered predict requests waiting for the traffic listeners; beyond this they are dropped and counted. */
-    private static final int TAP_CAPACITY = 1_024;
+    /**
+     * Answered predict requests waiting for the traffic listeners; beyond this they are dropped and
+     * counted. Requests, not items: each holds its parsed items until a listener is done with it, so
+     * the bound is kept small enough that a queue of large batches stays within memory.
+     */
+    private static final int TAP_CAPACITY = 64;
 
     private final Javalin app;
     private final LiveModels live;
