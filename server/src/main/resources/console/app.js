@@ -228,6 +228,47 @@
     renderVersions();
     renderComparison();
     renderCharts();
+    loadDrift();
+  }
+
+  // ---- drift -------------------------------------------------------------------------------
+  const DRIFT_WORDS = { ok: 'ok', watch: 'watch', drift: 'drift' };
+
+  async function loadDrift() {
+    const name = state.model;
+    const list = $('drift');
+    const badge = $('drift-status');
+    if (!state.versions.some((v) => v.active)) {
+      $('drift-version').textContent = name;
+      badge.textContent = 'no active version';
+      badge.className = 'badge';
+      list.replaceChildren();
+      return;
+    }
+    try {
+      const body = await api('GET', '/models/' + encodeURIComponent(name) + '/drift');
+      if (state.model !== name) return;
+      renderDrift(body);
+    } catch (error) {
+      badge.textContent = 'unavailable';
+      badge.className = 'badge';
+      list.replaceChildren(el('dd', { class: 'error-text', text: error instanceof Cancelled ? 'No token given.' : error.message }));
+    }
+  }
+
+  function renderDrift(body) {
+    $('drift-version').textContent = body.model + ' ' + body.version;
+    const badge = $('drift-status');
+    badge.textContent = body.status ? DRIFT_WORDS[body.status] || body.status : 'no traffic yet';
+    badge.className = 'badge' + (body.status ? ' ' + body.status : '');
+    const rows = [
+      ['items in window', String(body.window_items)],
+      ['stability index', fixed(body.psi, 3)],
+      ['unknown tokens, live', body.unknown_rate.live === null ? '–' : (100 * body.unknown_rate.live).toFixed(1) + ' %'],
+      ['unknown tokens, training', (100 * body.unknown_rate.training).toFixed(1) + ' %'],
+      ['tokens per item', body.length ? fixed(body.length.live.mean, 1) + ' live, ' + fixed(body.length.training.mean, 1) + ' training' : '–']
+    ];
+    $('drift').replaceChildren(...rows.flatMap(([term, value]) => [el('dt', { text: term }), el('dd', { text: value })]));
   }
 
   function renderVersions() {
@@ -460,6 +501,7 @@
       notice('Tokens forgotten.', 'ok');
     });
     $('rollback').addEventListener('click', rollback);
+    $('drift-refresh').addEventListener('click', () => { if (state.model) loadDrift(); });
     $('try-form').addEventListener('submit', (event) => { event.preventDefault(); explainSoon(0); });
     loadHealth();
     loadModels().catch(failed);

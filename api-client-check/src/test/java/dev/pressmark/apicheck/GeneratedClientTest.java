@@ -10,6 +10,7 @@ import dev.pressmark.apiclient.api.HealthApi;
 import dev.pressmark.apiclient.api.ModelRoutingApi;
 import dev.pressmark.apiclient.api.ModelShopListingsApi;
 import dev.pressmark.apiclient.api.ModelsApi;
+import dev.pressmark.apiclient.model.DriftReport;
 import dev.pressmark.apiclient.model.ExplainResponseRouting;
 import dev.pressmark.apiclient.model.ItemRouting;
 import dev.pressmark.apiclient.model.ItemShopListings;
@@ -109,6 +110,15 @@ class GeneratedClientTest {
         assertThat(models.listModels().getModels()).extracting(m -> m.getName()).containsExactly(LiveFixture.MODEL, LiveFixture.SECOND_MODEL);
         assertThat(models.listVersions(LiveFixture.SECOND_MODEL).getVersions()).extracting(v -> v.getTag()).containsExactly(LiveFixture.TAG);
         assertThat(new HealthApi(client()).getReadiness().getStatus().getValue()).isEqualTo("ready");
+    }
+
+    @Test
+    void the_drift_window_reads_through_the_typed_client() throws ApiException {
+        DriftReport drift = new ModelsApi(client()).getDrift(LiveFixture.MODEL);
+        assertThat(drift.getModel()).isEqualTo(LiveFixture.MODEL);
+        assertThat(drift.getVersion()).isEqualTo(LiveFixture.TAG);
+        assertThat(drift.getWindowItems()).isNotNegative();
+        assertThat(drift.getUnknownRate().getTraining().doubleValue()).isBetween(0.0, 1.0);
     }
 
     @Test

@@ -90,6 +90,14 @@ final class ServicePaths {
         paths.addPathItem("/models/{name}/versions/{tag}", new PathItem().get(version).put(publish())
                 .parameters(new ArrayList<>(List.of(name(), tag()))));
 
+        Operation drift = reading(operation("getDrift", MODELS, "Compare live traffic with the training rows",
+                "A sampled window of the active version's predict items against its training profile: unknown-token rate, "
+                        + "population stability index over the most frequent tokens, and tokens per item. The window starts empty "
+                        + "when another version becomes active."));
+        drift.getResponses().addApiResponse("200", json("The window against the profile.", ref(Shapes.DRIFT_REPORT)));
+        problems(drift, 400, 404, 500, 503);
+        paths.addPathItem("/models/{name}/drift", new PathItem().get(drift).parameters(new ArrayList<>(List.of(name()))));
+
         addPredictions(paths);
         addAdmin(paths);
         addShadow(paths);

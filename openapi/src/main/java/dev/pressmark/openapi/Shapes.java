@@ -47,6 +47,11 @@ final class Shapes {
     static final String PREDICT_RESPONSE = "PredictResponse";
     static final String EXPLANATION = "Explanation";
     static final String EXPLAIN_RESPONSE = "ExplainResponse";
+    static final String DRIFT_REPORT = "DriftReport";
+    static final String DRIFT_UNKNOWN_RATE = "DriftUnknownRate";
+    static final String DRIFT_LENGTH = "DriftLength";
+    static final String TOKENS_PER_ITEM = "TokensPerItem";
+    static final String LENGTH_SHIFT = "LengthShift";
 
     /** The store's rules for names and tags (DESIGN.md). */
     static final String NAME_PATTERN = "^[a-z0-9][a-z0-9-]{0,63}$";
@@ -106,6 +111,35 @@ final class Shapes {
                 "feature", string("column:subword."),
                 "contribution", number("Weight times feature value; positive speaks for the predicted label.")));
         addGenericPredictions(components);
+        addDrift(components);
+    }
+
+    /** The drift window of a model's active version against its training profile. */
+    private static void addDrift(Components components) {
+        components.addSchemas(DRIFT_UNKNOWN_RATE, object("The share of tokens the model cannot use.", List.of("live", "training"),
+                "live", nullable(number("In the drift window; null while it is empty.")),
+                "training", number("In the training rows.")));
+        components.addSchemas(TOKENS_PER_ITEM, object("Tokens per item over every text field: the mean and nearest-rank percentiles.",
+                List.of("mean", "p10", "p50", "p90"),
+                "mean", number(null), "p10", number(null), "p50", number(null), "p90", number(null)));
+        components.addSchemas(LENGTH_SHIFT, object("Relative shifts, (live - training) / max(training, 1): +0.5 is half as long again.",
+                List.of("mean", "p50", "p90"),
+                "mean", number(null), "p50", number(null), "p90", number(null)));
+        components.addSchemas(DRIFT_LENGTH, object("Tokens per item, live against training.", List.of("live", "training", "shift"),
+                "live", ref(TOKENS_PER_ITEM),
+                "training", ref(TOKENS_PER_ITEM),
+                "shift", ref(LENGTH_SHIFT)));
+        components.addSchemas(DRIFT_REPORT, object("The last live items of the active version against its training rows; "
+                        + "the live statistics are null while the window is empty.",
+                List.of("model", "version", "window_items", "unknown_rate", "psi", "length", "status"),
+                "model", string("The model's name."),
+                "version", string("The tag of the version whose traffic the window holds."),
+                "window_items", integer("How many live items the window holds.", 0),
+                "unknown_rate", ref(DRIFT_UNKNOWN_RATE),
+                "psi", nullable(number("Population stability index of the live items' token document frequencies against the training rows'.")),
+                "length", nullable(ref(DRIFT_LENGTH)),
+                "status", nullable(stringEnum("By the common rule of thumb: psi below 0.1 ok, 0.1 to 0.25 watch, above 0.25 drift.",
+                        List.of("ok", "watch", "drift")))));
     }
 
     private static JsonSchema versionDetail(String description, boolean withServing) {

@@ -98,6 +98,7 @@ class ApiDocumentTest {
                 Map.entry("/models", List.of(PathItem.HttpMethod.GET)),
                 Map.entry("/models/{name}", List.of(PathItem.HttpMethod.GET)),
                 Map.entry("/models/{name}/versions", List.of(PathItem.HttpMethod.GET)),
+                Map.entry("/models/{name}/drift", List.of(PathItem.HttpMethod.GET)),
                 Map.entry("/models/{name}/versions/{tag}", List.of(PathItem.HttpMethod.GET, PathItem.HttpMethod.PUT)),
                 Map.entry("/models/{name}/predict", List.of(PathItem.HttpMethod.POST)),
                 Map.entry("/models/{name}/versions/{tag}/predict", List.of(PathItem.HttpMethod.POST)),

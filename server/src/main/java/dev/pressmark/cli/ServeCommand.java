@@ -62,6 +62,10 @@ final class ServeCommand implements Callable<Integer> {
             description = "A predict or explain request still running after MS milliseconds is answered 503 deadline-exceeded (default: ${DEFAULT-VALUE}).")
     long requestTimeoutMs;
 
+    @Option(names = "--drift-sample", paramLabel = "SHARE", defaultValue = "" + ServerConfig.DEFAULT_DRIFT_SAMPLE,
+            description = "The share of predict requests, 0 to 1, whose items are compared with the training profile (default: ${DEFAULT-VALUE}; 0 turns it off).")
+    double driftSample;
+
     @Option(names = "--cors-origin", paramLabel = "ORIGIN",
             description = "Let pages from ORIGIN (scheme://host[:port]) call the service from a browser; repeatable (default: CORS off).")
     List<String> corsOrigins = new ArrayList<>();
@@ -94,7 +98,7 @@ final class ServeCommand implements Callable<Integer> {
                 reader, ServerConfig.DEFAULT_MAX_THREADS, accessLog, maxConcurrent, corsOrigins,
                 maxTokensPerField, requestTimeoutMs,
                 new PromotionPolicy(promotionMetric, promotionMaxDrop, promotionMinAgreement, promotionMinSamples),
-                ServerConfig.DEFAULT_TAP_CAPACITY, ServerConfig.DEFAULT_DRIFT_SAMPLE);
+                ServerConfig.DEFAULT_TAP_CAPACITY, driftSample);
         // A PostgreSQL store that is down does not stop the service: it starts not ready and connects when it can.
         BundleStore opened = ReconnectingStore.open(store.url);
         PressmarkServer server;

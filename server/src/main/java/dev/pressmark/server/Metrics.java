@@ -1,7 +1,10 @@
 package dev.pressmark.server;
 
 import dev.pressmark.core.bundle.Prediction;
+import dev.pressmark.core.drift.DriftMonitor;
 import io.micrometer.core.instrument.Counter;
+import io.micrometer.core.instrument.Gauge;
+import io.micrometer.core.instrument.Meter;
 import io.micrometer.core.instrument.MultiGauge;
 import io.micrometer.core.instrument.Tags;
 import io.micrometer.core.instrument.Timer;
@@ -41,6 +44,9 @@ final class Metrics implements AutoCloseable {
     static final String TAP_LISTENER_FAILURES = "pressmark.tap.listener.failures";
     static final String SHADOW_SAMPLES = "pressmark.shadow.samples";
     static final String SHADOW_DROPPED = "pressmark.shadow.dropped";
+    static final String DRIFT_PSI = "pressmark.drift.psi";
+    static final String DRIFT_UNKNOWN_RATE = "pressmark.drift.unknown.rate";
+    static final String DRIFT_WINDOW_ITEMS = "pressmark.drift.window.items";
 
     /**
      * The latency histogram's upper bounds. A small request is answered in about a millisecond, a
@@ -68,6 +74,8 @@ final class Metrics implements AutoCloseable {
     private final MultiGauge activeVersions;
     /** The version serving each model, for the info gauge; replaced whole on each change. */
     private final Map<String, String> serving = new ConcurrentHashMap<>();
+    /** Each model's drift gauges, for the version whose window they read. */
+    private final Map<String, List<Meter>> driftGauges = new HashMap<>();
 
     Metrics() {
         new JvmMemoryMetrics().bindTo(registry);
@@ -79,6 +87,34 @@ final class Metrics implements AutoCloseable {
         activeVersions = MultiGauge.builder(ACTIVE_VERSION)
                 .description("1 for the version each model serves")
                 .register(registry);
+    }
+
+    /**
+     * From now on the drift gauges of {@code model} read {@code monitor}, the window of
+     * {@code version}; the previous version's series go away. An empty window reads NaN.
+     */
+    void driftWatched(String model, String version, DriftMonitor monitor) {
+        Tags tags = Tags.of("model", model, "version", version);
+        synchronized (driftGauges) {
+            List<Meter> old = driftGauges.remove(model);
+            if (old != null) {
+                old.forEach(registry::remove);
+            }
+            driftGauges.put(model, List.of(
+                    Gauge.builder(DRIFT_PSI, monitor, m -> orNaN(m.report().psi()))
+                            .description("population stability index of the live window's token frequencies against training")
+                            .tags(tags).strongReference(true).register(registry),
+                    Gauge.builder(DRIFT_UNKNOWN_RATE, monitor, m -> orNaN(m.report().liveUnknownRate()))
+                            .description("share of live tokens in the drift window that the model cannot use")
+                            .tags(tags).strongReference(true).register(registry),
+                    Gauge.builder(DRIFT_WINDOW_ITEMS, monitor, m -> m.report().windowItems())
+                            .description("live items in the drift window")
+                            .tags(tags).strongReference(true).register(registry)));
+        }
+    }
+
+    private static double orNaN(Double value) {
+        return value == null ? Double.NaN : value;
     }
 
     /** One answered request; {@code model} and {@code version} are empty where they do not apply. */

@@ -39,9 +39,10 @@ final class ModelRoutes {
     private final TrafficTap tap;
     private final ShadowScoring shadows;
     private final PromotionPolicy promotion;
+    private final DriftWatch drift;
 
     ModelRoutes(BundleStore store, LiveModels live, Requests requests, Views views, Access access, Metrics metrics, long requestTimeoutMs,
-            TrafficTap tap, ShadowScoring shadows, PromotionPolicy promotion) {
+            TrafficTap tap, ShadowScoring shadows, PromotionPolicy promotion, DriftWatch drift) {
         this.requestTimeoutMs = requestTimeoutMs;
         this.store = store;
         this.live = live;
@@ -52,6 +53,7 @@ final class ModelRoutes {
         this.tap = tap;
         this.shadows = shadows;
         this.promotion = promotion;
+        this.drift = drift;
     }
 
     void health(Context ctx) {
@@ -142,6 +144,13 @@ final class ModelRoutes {
         if (tapped && tap.wants(name)) {
             tap.offer(name, served.tag(), served.bundle(), items, predictions);
         }
+    }
+
+    void drift(Context ctx) {
+        access.requireReader(ctx);
+        String name = ctx.pathParam("name");
+        LiveVersion served = activeLive(name);
+        ctx.json(views.drift(name, served.tag(), drift.report(name, served)));
     }
 
     void explain(Context ctx) throws IOException {

@@ -6,6 +6,7 @@ import com.fasterxml.jackson.core.StreamWriteFeature;
 import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.core.PressmarkException;
+import dev.pressmark.core.drift.DriftWindow;
 import dev.pressmark.store.BundleStore;
 import io.javalin.Javalin;
 import io.javalin.http.HttpResponseException;
@@ -69,8 +70,12 @@ public final class PressmarkServer implements AutoCloseable {
         TrafficTap tap = new TrafficTap(config.tapCapacity(), metrics);
         ShadowScoring shadows = new ShadowScoring(store, live, metrics, config.maxTokensPerField());
         tap.register(shadows);
+        DriftWatch drift = new DriftWatch(live, metrics, config.driftSample(), DriftWindow.DEFAULT_CAPACITY);
+        if (config.driftSample() > 0.0) {
+            tap.register(drift);
+        }
         ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics,
-                config.requestTimeoutMs(), tap, shadows, config.promotion());
+                config.requestTimeoutMs(), tap, shadows, config.promotion(), drift);
         RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
         Problems problems = new Problems(json);
         Admission admission = new Admission(config.maxConcurrent());
@@ -112,6 +117,7 @@ public final class PressmarkServer implements AutoCloseable {
         app.get("/models", routes::models);
         app.get("/models/{name}", routes::model);
         app.get("/models/{name}/versions", routes::versions);
+        app.get("/models/{name}/drift", routes::drift);
         app.get("/models/{name}/versions/{tag}", routes::version);
         app.put("/models/{name}/versions/{tag}", admission.bounded(routes::publish));
         app.post("/models/{name}/predict", admission.bounded(routes::predictActive));

@@ -7,6 +7,7 @@ import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.bundle.BundleException;
+import dev.pressmark.core.drift.DriftException;
 import dev.pressmark.store.StoreException;
 import io.javalin.http.Context;
 import io.javalin.http.HttpResponseException;
@@ -85,6 +86,9 @@ final class Problems {
         }
         if (failure instanceof StoreException e) {
             return fromStore(e);
+        }
+        if (failure instanceof DriftException e) {
+            return new ApiProblem(500, "drift-profile", "Training profile unusable", e.getMessage(), List.of());
         }
         if (failure instanceof BundleException e) {
             return new ApiProblem(400, "not-a-bundle", "Not a usable bundle", e.getMessage(), List.of());

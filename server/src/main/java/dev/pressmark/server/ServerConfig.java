@@ -49,8 +49,13 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     public static final int DEFAULT_MAX_TOKENS_PER_FIELD = 512;
     /** Well past the largest request: 10,000 items of 60 words took 2.8 s here, cold, on two busy cores (RequestDeadlineTest). */
     public static final long DEFAULT_REQUEST_TIMEOUT_MS = 10_000;
-    /** Some seconds of sampled traffic at a few hundred requests a second; the queue holds references, not copies. */
-    public static final int DEFAULT_TAP_CAPACITY = 1_024;
+    /**
+     * Answered requests waiting for the traffic listeners (shadow scoring, drift watch). Requests, not
+     * items: each holds its parsed items until the listeners are done, so the bound stays small enough
+     * that a queue of 10,000-item batches still fits in memory; a sampled request beyond it is dropped
+     * and counted.
+     */
+    public static final int DEFAULT_TAP_CAPACITY = 64;
     /**
      * One predict request in ten goes into the drift window: a window of a few thousand items fills
      * within minutes at modest traffic, at a tenth of the cost of tokenising every item twice.

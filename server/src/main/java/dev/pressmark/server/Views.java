@@ -8,6 +8,9 @@ import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Contribution;
 import dev.pressmark.core.bundle.Explanation;
 import dev.pressmark.core.bundle.Prediction;
+import dev.pressmark.core.drift.DriftReport;
+import dev.pressmark.core.drift.LengthShift;
+import dev.pressmark.core.drift.LengthSummary;
 import dev.pressmark.store.PromotionCheck;
 import dev.pressmark.store.Version;
 import java.io.ByteArrayOutputStream;
@@ -45,6 +48,28 @@ final class Views {
         ArrayNode list = root.putArray("versions");
         versions.forEach(v -> list.add(versionSummary(v)));
         return root;
+    }
+
+    /** A model's drift window against its training profile; the live statistics are null while the window is empty. */
+    ObjectNode drift(String model, String version, DriftReport report) {
+        ObjectNode node = json.createObjectNode().put("model", model).put("version", version).put("window_items", report.windowItems());
+        node.putObject("unknown_rate").put("live", report.liveUnknownRate()).put("training", report.trainingUnknownRate());
+        node.put("psi", report.psi());
+        LengthShift length = report.length();
+        if (length == null) {
+            node.putNull("length");
+        } else {
+            ObjectNode lengths = node.putObject("length");
+            lengths.set("live", lengths(length.live()));
+            lengths.set("training", lengths(length.training()));
+            lengths.putObject("shift").put("mean", length.mean()).put("p50", length.p50()).put("p90", length.p90());
+        }
+        node.put("status", report.status() == null ? null : report.status().key());
+        return node;
+    }
+
+    private ObjectNode lengths(LengthSummary summary) {
+        return json.createObjectNode().put("mean", summary.mean()).put("p10", summary.p10()).put("p50", summary.p50()).put("p90", summary.p90());
     }
 
     /** One version's metadata: the summary plus what its manifest says about it. */

@@ -111,6 +111,11 @@ class ConsoleBrowserTest {
             assertThat(driver.findElement(By.cssSelector("#versions tr.is-active")).getAttribute("data-tag")).isEqualTo("v2");
             wait.until(ExpectedConditions.presenceOfElementLocated(By.cssSelector("#confusion svg")));
             wait.until(ExpectedConditions.numberOfElementsToBe(By.cssSelector("#features svg"), 4));
+            // The drift panel reads the active version's window: its version, a status badge and the training rate.
+            wait.until(ExpectedConditions.textToBe(By.id("drift-version"), "routing v2"));
+            assertThat(driver.findElement(By.id("drift-status")).getText()).isIn("ok", "watch", "drift", "no traffic yet");
+            assertThat(driver.findElements(By.cssSelector("#drift dt"))).extracting(WebElement::getText)
+                    .contains("stability index", "unknown tokens, live", "unknown tokens, training");
 
             // A brand the data never had, with a part every department sells: only its first syllable tells.
             WebElement input = driver.findElement(By.cssSelector(".try-input[data-field='title']"));
@@ -144,6 +149,8 @@ class ConsoleBrowserTest {
             wait.until(ExpectedConditions.textToBePresentInElementLocated(By.cssSelector(".model-card[data-model='routing']"), "active v1"));
             wait.until(ExpectedConditions.attributeToBe(By.cssSelector("#versions tr.is-active"), "data-tag", "v1"));
             assertThat(driver.findElement(By.id("notice")).getText()).contains("v1 is active");
+            // Another active version, another window.
+            wait.until(ExpectedConditions.textToBe(By.id("drift-version"), "routing v1"));
             // The try-it box asks again, now of v1.
             wait.until(ExpectedConditions.textToBePresentInElementLocated(By.cssSelector("#try-result .prediction"), "routing v1"));
 

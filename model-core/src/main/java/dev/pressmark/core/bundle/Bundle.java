@@ -192,6 +192,14 @@ public final class Bundle {
         return predictions;
     }
 
+    /**
+     * The tokens of each field of each item, uncut, as the training rows were tokenised; for
+     * measuring traffic against the training profile. Predicting does not go through here.
+     */
+    public List<List<List<String>>> tokenize(List<Map<String, String>> items) {
+        return TextPipeline.tokenize(pipeline.tokenizer(), rows(items));
+    }
+
     /** Cuts every field of every row to {@code max} tokens in place; returns the tokens dropped per row. */
     private static int[] cut(List<List<List<String>>> tokens, int max) {
         int[] dropped = new int[tokens.size()];

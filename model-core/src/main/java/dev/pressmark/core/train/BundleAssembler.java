@@ -6,6 +6,7 @@ import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.TextPipeline;
+import dev.pressmark.core.drift.DriftProfile;
 import dev.pressmark.core.evaluate.ConfusionMatrix;
 import dev.pressmark.core.evaluate.Evaluation;
 import dev.pressmark.core.evaluate.Metric;
@@ -14,6 +15,7 @@ import dev.pressmark.core.evaluate.MetricValues;
 import dev.pressmark.core.feature.FeatureSpace;
 import java.time.Instant;
 import java.util.Arrays;
+import java.util.HashSet;
 import java.util.List;
 
 /**
@@ -122,10 +124,12 @@ public final class BundleAssembler {
         List<List<List<String>>> rows = result.finalTokens();
         long tokens = 0;
         long unknown = 0;
+        long documentFrequencyTotal = 0;
         int[] lengths = new int[rows.size()];
         for (int i = 0; i < lengths.length; i++) {
             for (List<String> column : rows.get(i)) {
                 lengths[i] += column.size();
+                documentFrequencyTotal += new HashSet<>(column).size();
             }
             tokens += lengths[i];
             unknown += pipeline.unknownTokens(rows.get(i));
@@ -134,6 +138,9 @@ public final class BundleAssembler {
         profile.put("rows", rows.size());
         profile.put("tokens", tokens);
         profile.put("unknown_rate", tokens == 0 ? 0.0 : (double) unknown / tokens);
+        // Every distinct (field, token) of every row counted once: the document frequencies of all tokens, features or
+        // not, summed. The drift index needs it for the share of tokens outside the top features.
+        profile.put(DriftProfile.DOCUMENT_FREQUENCY_TOTAL, documentFrequencyTotal);
         Arrays.sort(lengths);
         ObjectNode length = profile.putObject("tokens_per_row");
         length.put("mean", lengths.length == 0 ? 0.0 : (double) tokens / lengths.length);
