@@ -29,7 +29,7 @@ import org.sqlite.SQLiteDataSource;
 final class StoreDatabase {
 
     /** The newest migration in {@code db/migration}; a store beyond it was written by a newer program. */
-    static final int SCHEMA_VERSION = 1;
+    static final int SCHEMA_VERSION = 2;
     static final String HISTORY_TABLE = "flyway_schema_history";
     /** How long an SQLite writer waits for another to finish before failing: 30 s. */
     static final int SQLITE_BUSY_TIMEOUT_MS = 30_000;

@@ -1,6 +1,8 @@
 package dev.pressmark.core.contract;
 
+import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.core.bundle.Bundle;
 import java.util.Collections;
 import java.util.SortedSet;
@@ -13,6 +15,8 @@ import java.util.TreeSet;
  */
 public record Contract(SortedSet<String> inputFields, SortedSet<String> labels) {
 
+    private static final ObjectMapper JSON = new ObjectMapper();
+
     public Contract {
         inputFields = Collections.unmodifiableSortedSet(new TreeSet<>(inputFields));
         labels = Collections.unmodifiableSortedSet(new TreeSet<>(labels));
@@ -21,6 +25,15 @@ public record Contract(SortedSet<String> inputFields, SortedSet<String> labels) 
     /** The contract a bundle manifest declares ({@code input_fields}, {@code labels}); absent lists are empty. */
     public static Contract of(JsonNode manifest) {
         return new Contract(strings(manifest.path(Bundle.INPUT_FIELDS)), strings(manifest.path(Bundle.LABELS)));
+    }
+
+    /** The contract of a manifest kept as JSON text. */
+    public static Contract ofManifestJson(String manifestJson) {
+        try {
+            return of(JSON.readTree(manifestJson));
+        } catch (JsonProcessingException e) {
+            throw new IllegalArgumentException("a manifest must be JSON: " + e.getOriginalMessage(), e);
+        }
     }
 
     private static SortedSet<String> strings(JsonNode array) {
