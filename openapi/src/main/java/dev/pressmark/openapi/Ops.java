@@ -30,9 +30,12 @@ final class Ops {
             401, new String[] {"Unauthorized", "The bearer token is missing or wrong."},
             403, new String[] {"Forbidden", "The admin endpoints are disabled: the server has no admin token."},
             404, new String[] {"NotFound", "No such model, version or active version."},
-            409, new String[] {"Conflict", "The change conflicts with the version history (tag exists, retired, nothing to roll back to)."},
+            409, new String[] {"Conflict", "The change conflicts with the version history (tag exists, retired, nothing to roll back to)"
+                    + " or breaks the active version's contract without allow_breaking."},
             413, new String[] {"TooLarge", "The body is over the server's limit."},
             415, new String[] {"UnsupportedMediaType", "The body's Content-Type is not one this endpoint reads."},
+            422, new String[] {"SignatureRefused", "The store trusts signing keys and the bundle is unsigned, or its signature is malformed,"
+                    + " by a key the store does not trust, or does not verify over the bundle's SHA-256."},
             500, new String[] {"InternalError", "The server failed; its log has the details."},
             503, new String[] {"StoreUnavailable", "The store cannot serve the request now."}));
 
