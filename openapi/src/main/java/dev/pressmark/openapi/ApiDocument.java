@@ -33,6 +33,8 @@ import java.util.Set;
 public final class ApiDocument {
 
     public static final String OPENAPI_VERSION = "3.1.0";
+    /** The request header that carries a bundle's signature file, base64url-encoded, on publish. */
+    public static final String SIGNATURE_HEADER = "Pressmark-Signature";
 
     private ApiDocument() {
     }

@@ -27,8 +27,7 @@ final class ServicePaths {
     static final String ADMIN = "admin";
     static final String DOCS = "docs";
     static final String METRICS = "metrics";
-    /** The request header that carries a bundle's signature file on publish. */
-    public static final String SIGNATURE_HEADER = "Pressmark-Signature";
+    static final String SIGNATURE_HEADER = ApiDocument.SIGNATURE_HEADER;
 
     private final boolean readerToken;
 

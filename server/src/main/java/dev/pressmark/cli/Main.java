@@ -28,6 +28,9 @@ import picocli.CommandLine.Option;
             RollbackCommand.class,
             VerifyCommand.class,
             HistoryCommand.class,
+            KeygenCommand.class,
+            SignCommand.class,
+            TrustCommand.class,
             ServeCommand.class,
             DemoCommand.class,
             CommandLine.HelpCommand.class})

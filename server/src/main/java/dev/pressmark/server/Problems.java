@@ -91,6 +91,10 @@ final class Problems {
             case StoreException.INVALID_TAG -> ApiProblem.invalidField("tag", e.getMessage());
             case StoreException.NOT_A_BUNDLE -> new ApiProblem(400, "not-a-bundle", "Not a usable bundle", e.getMessage(), List.of());
             case StoreException.TAG_EXISTS -> new ApiProblem(409, "tag-exists", "Tag already published", e.getMessage(), List.of());
+            case StoreException.BREAKING -> new ApiProblem(409, e.code(), "Breaking contract change", e.getMessage()
+                    + " (add ?allow_breaking=true to publish it anyway)", List.of());
+            case StoreException.UNSIGNED, StoreException.BAD_SIGNATURE -> new ApiProblem(422, e.code(), "Signature refused", e.getMessage(),
+                    List.of());
             case StoreException.RETIRED, StoreException.ACTIVE, StoreException.NO_ROLLBACK ->
                     new ApiProblem(409, e.code(), "Conflict with the version history", e.getMessage(), List.of());
             case StoreException.UNREACHABLE, StoreException.READ_ONLY ->
