@@ -357,7 +357,7 @@ abstract class BundleStoreContract {
         }
         assertThatThrownBy(() -> BundleStore.open(url))
                 .isInstanceOf(StoreException.class)
-                .hasMessageContaining("has store schema version 7, newer than this program's 1")
+                .hasMessageContaining("has store schema version 7, newer than this program's " + StoreDatabase.SCHEMA_VERSION)
                 .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.SCHEMA_NEWER);
         store = null;
     }
