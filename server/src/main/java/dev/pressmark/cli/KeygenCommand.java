@@ -13,8 +13,8 @@ import picocli.CommandLine.Option;
 
 /** {@code pressmark keygen}: a new Ed25519 key pair for signing bundles. */
 @Command(name = "keygen", mixinStandardHelpOptions = true,
-        description = {"Make an Ed25519 key pair for signing bundles: FILE holds the private key (PKCS#8 PEM, readable by you only),",
-            "FILE.pub the public key (X.509 PEM) to give to `pressmark trust`."})
+        description = {"Make an Ed25519 key pair for signing bundles.",
+            "FILE holds the private key (PKCS#8 PEM, readable by you only), FILE.pub the public key (X.509 PEM) to give to `pressmark trust`."})
 final class KeygenCommand implements Callable<Integer> {
 
     static final String PUBLIC_SUFFIX = ".pub";

@@ -18,8 +18,7 @@ import picocli.CommandLine.Parameters;
 
 /** {@code pressmark publish}: put a bundle into the store under an immutable tag. */
 @Command(name = "publish", mixinStandardHelpOptions = true,
-        description = {"Check a bundle's checksums, its signature when the store trusts keys, and its contract against the active",
-            "version's; store it under NAME and an immutable TAG."})
+        description = "Check a bundle's checksums, signature and contract, and store it under NAME and an immutable TAG.")
 final class PublishCommand implements Callable<Integer> {
 
     @Parameters(index = "0", paramLabel = "BUNDLE", description = "The bundle file (.pmb).")
@@ -37,8 +36,8 @@ final class PublishCommand implements Callable<Integer> {
     @Option(names = "--signature", paramLabel = "FILE", description = "The bundle's signature file (default: BUNDLE.sig when it exists).")
     Path signature;
 
-    @Option(names = "--allow-breaking", description = {"Publish even if the bundle breaks the active version's contract (removes an input field or",
-        "a label, or adds a field); its contract version then raises the major."})
+    @Option(names = "--allow-breaking", description = "Publish even if the bundle breaks the active version's contract (removes an input field or a label,"
+            + " or adds a field); its contract version then raises the major.")
     boolean allowBreaking;
 
     @Mixin

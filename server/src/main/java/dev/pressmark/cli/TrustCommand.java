@@ -12,8 +12,8 @@ import picocli.CommandLine.Option;
 
 /** {@code pressmark trust}: the public keys whose signatures the store accepts. */
 @Command(name = "trust", mixinStandardHelpOptions = true,
-        description = {"Add, list or remove the public keys whose signatures the store accepts. While it trusts any key, the store",
-            "refuses to publish or serve a bundle that is not signed by one of them."})
+        description = {"Add, list or remove the public keys whose signatures the store accepts.",
+            "While it trusts any key, the store refuses to publish or serve a bundle that is not signed by one of them."})
 final class TrustCommand implements Callable<Integer> {
 
     static final class Action {
