@@ -45,9 +45,9 @@ final class PublishCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        byte[] bytes = Files2.readBundle(bundle);
+        byte[] bytes = InputFiles.readBundle(bundle);
         Optional<Path> signatureFile = signatureFile();
-        Optional<String> signatureJson = signatureFile.map(Files2::readText);
+        Optional<String> signatureJson = signatureFile.map(InputFiles::readText);
         try (BundleStore opened = store.open()) {
             Version version;
             try {

@@ -30,13 +30,13 @@ final class SignCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        byte[] bytes = Files2.readBundle(bundle);
+        byte[] bytes = InputFiles.readBundle(bundle);
         try {
             BundleArchive.read(bytes);
         } catch (BundleException e) {
             throw new BundleException(e.code(), bundle + ": " + e.getMessage(), e);
         }
-        KeyPair keys = SigningKeys.readPrivateKey(Files2.readText(key), key.toString());
+        KeyPair keys = SigningKeys.readPrivateKey(InputFiles.readText(key), key.toString());
         BundleSignature signature = BundleSignature.sign(Sha256.hex(bytes), keys);
         Path target = out != null ? out : signatureFile(bundle);
         AtomicFiles.write(target, o -> o.write((signature.toJson() + "\n").getBytes(StandardCharsets.UTF_8)));

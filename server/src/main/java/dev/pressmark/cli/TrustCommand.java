@@ -37,7 +37,7 @@ final class TrustCommand implements Callable<Integer> {
     public Integer call() {
         try (BundleStore opened = store.open()) {
             if (action.key != null) {
-                TrustedKey key = opened.trust(Files2.readText(action.key), StoreOption.actor());
+                TrustedKey key = opened.trust(InputFiles.readText(action.key), StoreOption.actor());
                 System.out.printf("trusting key %s from %s%n", key.keyId(), action.key);
             } else if (action.remove != null) {
                 opened.distrust(action.remove, StoreOption.actor());

@@ -9,12 +9,12 @@ import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 
 /** Reading the input files of the commands, with messages that name the file. */
-final class Files2 {
+final class InputFiles {
 
     /** The largest key or signature file read: 64 KiB, far above either. */
     static final long MAX_TEXT_BYTES = 64 * 1024;
 
-    private Files2() {
+    private InputFiles() {
     }
 
     static byte[] readBundle(Path file) {
