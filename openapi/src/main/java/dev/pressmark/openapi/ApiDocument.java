@@ -1,6 +1,7 @@
 package dev.pressmark.openapi;
 
 import com.fasterxml.jackson.core.JsonProcessingException;
+import dev.pressmark.core.contract.SemanticVersion;
 import io.swagger.v3.core.util.Json31;
 import io.swagger.v3.core.util.Yaml31;
 import io.swagger.v3.oas.models.Components;
@@ -22,10 +23,18 @@ import java.util.Set;
 /**
  * The OpenAPI 3.1 document of the HTTP service: every endpoint, plus for each served model its
  * own predict and explain paths whose schemas name that model's input fields and labels.
+ *
+ * <p>The document's {@code info.version} follows the contracts of the served models: with one
+ * model it is that model's contract version; with several it is the component-wise sum of their
+ * contract versions (majors summed, minors summed, patches summed), so a breaking change to any
+ * model raises the major and an added label anywhere raises the minor. With no model served it is
+ * the program's version. The description lists each model's contract version.
  */
 public final class ApiDocument {
 
     public static final String OPENAPI_VERSION = "3.1.0";
+    /** The request header that carries a bundle's signature file, base64url-encoded, on publish. */
+    public static final String SIGNATURE_HEADER = "Pressmark-Signature";
 
     private ApiDocument() {
     }
@@ -83,18 +92,36 @@ public final class ApiDocument {
         } else {
             description.append("Models served: ");
             for (int i = 0; i < models.size(); i++) {
-                description.append(i == 0 ? "" : ", ").append(models.get(i).name()).append(' ').append(models.get(i).activeTag());
+                description.append(i == 0 ? "" : ", ").append(models.get(i).name()).append(' ').append(models.get(i).activeTag())
+                        .append(" (contract ").append(models.get(i).contractVersion()).append(')');
             }
             description.append('.');
         }
         Info info = new Info();
         info.setTitle("pressmark");
-        info.setVersion(service.version());
+        info.setVersion(documentVersion(service, models));
         info.setDescription(description.toString());
         Contact contact = new Contact();
         contact.setName("pressmark");
         info.setContact(contact);
         return info;
+    }
+
+    /** The rule of the class comment: the program's version without models, else the sum of the contract versions. */
+    static String documentVersion(ServiceInfo service, List<ModelDescriptor> models) {
+        if (models.isEmpty()) {
+            return service.version();
+        }
+        int major = 0;
+        int minor = 0;
+        int patch = 0;
+        for (ModelDescriptor model : models) {
+            SemanticVersion v = SemanticVersion.parse(model.contractVersion());
+            major = Math.addExact(major, v.major());
+            minor = Math.addExact(minor, v.minor());
+            patch = Math.addExact(patch, v.patch());
+        }
+        return new SemanticVersion(major, minor, patch).toString();
     }
 
     private static List<Tag> tags(List<ModelDescriptor> models) {

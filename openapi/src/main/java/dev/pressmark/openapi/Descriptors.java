@@ -27,6 +27,11 @@ public final class Descriptors {
      * towards one label, and carries the bundle's own prediction for it.
      */
     public static ModelDescriptor of(String name, String activeTag, Bundle bundle) {
+        return of(name, activeTag, bundle, ModelDescriptor.FIRST_CONTRACT_VERSION);
+    }
+
+    /** As {@link #of(String, String, Bundle)}, with the version's contract version as the store recorded it. */
+    public static ModelDescriptor of(String name, String activeTag, Bundle bundle, String contractVersion) {
         List<String> labels = bundle.labels();
         List<Map<String, String>> items = new ArrayList<>();
         for (int k = 0; k < Math.min(MAX_EXAMPLES, labels.size()); k++) {
@@ -38,7 +43,7 @@ public final class Descriptors {
             Prediction p = predictions.get(i);
             examples.add(new ModelExample(items.get(i), p.label(), p.score(), p.probabilities() == null ? Map.of() : p.probabilities()));
         }
-        return new ModelDescriptor(name, activeTag, labels, bundle.inputFields(), bundle.hasProbabilities(), examples);
+        return new ModelDescriptor(name, activeTag, labels, bundle.inputFields(), bundle.hasProbabilities(), examples, contractVersion);
     }
 
     /** An item whose every field holds the whole words (else the subword pieces) weighted most towards label {@code k}. */

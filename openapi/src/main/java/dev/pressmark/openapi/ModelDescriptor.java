@@ -1,5 +1,6 @@
 package dev.pressmark.openapi;
 
+import dev.pressmark.core.contract.SemanticVersion;
 import java.util.HashSet;
 import java.util.List;
 import java.util.Objects;
@@ -15,15 +16,21 @@ import java.util.regex.Pattern;
  * @param inputFields the text fields every item must carry, in the bundle's order
  * @param probabilities whether predictions carry per-label probabilities
  * @param examples example items with the model's answers, for the document's examples
+ * @param contractVersion the semantic version of the active version's contract (its input fields and labels), MAJOR.MINOR.PATCH
  */
 public record ModelDescriptor(String name, String activeTag, List<String> labels, List<String> inputFields, boolean probabilities,
-        List<ModelExample> examples) {
+        List<ModelExample> examples, String contractVersion) {
 
     /** The store's rule for model names. */
     static final Pattern NAME = Pattern.compile("[a-z0-9][a-z0-9-]{0,63}");
 
+    /** The contract version of a model whose store kept none: 1.0.0, as the store counts it. */
+    public static final String FIRST_CONTRACT_VERSION = "1.0.0";
+
     public ModelDescriptor {
         Objects.requireNonNull(name, "name");
+        Objects.requireNonNull(contractVersion, "contractVersion");
+        SemanticVersion.parse(contractVersion);
         Objects.requireNonNull(activeTag, "activeTag");
         labels = List.copyOf(labels);
         inputFields = List.copyOf(inputFields);
@@ -50,5 +57,11 @@ public record ModelDescriptor(String name, String activeTag, List<String> labels
                         + "), one had " + example.probabilities());
             }
         }
+    }
+
+    /** A descriptor whose contract version is {@value #FIRST_CONTRACT_VERSION}. */
+    public ModelDescriptor(String name, String activeTag, List<String> labels, List<String> inputFields, boolean probabilities,
+            List<ModelExample> examples) {
+        this(name, activeTag, labels, inputFields, probabilities, examples, FIRST_CONTRACT_VERSION);
     }
 }

@@ -25,19 +25,22 @@ final class Ops {
     private static final String RESPONSES = "#/components/responses/";
 
     /** Every problem answer the service gives, by status: the component's name and when it comes. */
-    private static final Map<Integer, String[]> PROBLEMS = new TreeMap<>(Map.of(
-            400, new String[] {"BadRequest", "The request is malformed or a part of it is invalid; errors names each bad field."},
-            401, new String[] {"Unauthorized", "The bearer token is missing or wrong."},
-            403, new String[] {"Forbidden", "The admin endpoints are disabled: the server has no admin token."},
-            404, new String[] {"NotFound", "No such model, version, active version or shadow."},
-            409, new String[] {"Conflict", "The change conflicts with the version history (tag exists, retired, nothing to roll back to,"
-                    + " shadow of the active version) or the promotion check refused it (checks says why)."},
-            413, new String[] {"TooLarge", "The body is over the server's limit."},
-            415, new String[] {"UnsupportedMediaType", "The body's Content-Type is not one this endpoint reads."},
-            500, new String[] {"InternalError", "The server failed; its log has the details."},
-            503, new String[] {"StoreUnavailable", "Not now: the store does not answer (store-unavailable, with Retry-After), the server is"
-                    + " serving its limit of model requests (busy, with Retry-After), or the request ran past its deadline (deadline-exceeded)."},
-            507, new String[] {"StoreFull", "The disk holding the store is full; nothing was written."}));
+    private static final Map<Integer, String[]> PROBLEMS = new TreeMap<>(Map.ofEntries(
+            Map.entry(400, new String[] {"BadRequest", "The request is malformed or a part of it is invalid; errors names each bad field."}),
+            Map.entry(401, new String[] {"Unauthorized", "The bearer token is missing or wrong."}),
+            Map.entry(403, new String[] {"Forbidden", "The admin endpoints are disabled: the server has no admin token."}),
+            Map.entry(404, new String[] {"NotFound", "No such model, version, active version or shadow."}),
+            Map.entry(409, new String[] {"Conflict", "The change conflicts with the version history (tag exists, retired, nothing to roll back to,"
+                    + " shadow of the active version), breaks the active version's contract without allow_breaking,"
+                    + " or the promotion check refused it (checks says why)."}),
+            Map.entry(413, new String[] {"TooLarge", "The body is over the server's limit."}),
+            Map.entry(415, new String[] {"UnsupportedMediaType", "The body's Content-Type is not one this endpoint reads."}),
+            Map.entry(422, new String[] {"SignatureRefused", "The store trusts signing keys and the bundle is unsigned, or its signature is malformed,"
+                    + " by a key the store does not trust, or does not verify over the bundle's SHA-256."}),
+            Map.entry(500, new String[] {"InternalError", "The server failed; its log has the details."}),
+            Map.entry(503, new String[] {"StoreUnavailable", "Not now: the store does not answer (store-unavailable, with Retry-After), the server is"
+                    + " serving its limit of model requests (busy, with Retry-After), or the request ran past its deadline (deadline-exceeded)."}),
+            Map.entry(507, new String[] {"StoreFull", "The disk holding the store is full; nothing was written."})));
 
     private Ops() {
     }

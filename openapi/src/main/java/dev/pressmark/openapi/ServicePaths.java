@@ -27,6 +27,7 @@ final class ServicePaths {
     static final String ADMIN = "admin";
     static final String DOCS = "docs";
     static final String METRICS = "metrics";
+    static final String SIGNATURE_HEADER = ApiDocument.SIGNATURE_HEADER;
 
     private final boolean readerToken;
 
@@ -106,7 +107,13 @@ final class ServicePaths {
 
     private static Operation publish() {
         Operation publish = admin(operation("publishVersion", ADMIN, "Upload a bundle as a new version",
-                "Stores the bundle file under an immutable tag after checking every entry's checksum; does not activate it."));
+                "Stores the bundle file under an immutable tag after checking every entry's checksum; does not activate it."
+                        + " While the store trusts signing keys, the bundle must carry a signature by one of them (header " + SIGNATURE_HEADER + ")."
+                        + " Its input fields and labels are compared with the active version's: removing a field or a label, or adding a field"
+                        + " (predict requires every field), breaks the contract and is refused with 409 unless allow_breaking=true; the new"
+                        + " version's contract version raises the major for a breaking change, the minor for another change."));
+        publish.addParametersItem(signatureHeader());
+        publish.addParametersItem(allowBreaking());
         RequestBody body = new RequestBody();
         body.setRequired(true);
         body.setDescription("The bundle file (.pmb) as written by pressmark train.");
@@ -122,8 +129,31 @@ final class ServicePaths {
         location.setSchema(Schemas.string(null));
         created.addHeaderObject("Location", location);
         publish.getResponses().addApiResponse("201", created);
-        problems(publish, 400, 409, 413, 415, 500, 503, 507);
+        problems(publish, 400, 409, 413, 415, 422, 500, 503, 507);
         return publish;
+    }
+
+    static Parameter signatureHeader() {
+        Parameter header = new Parameter();
+        header.setName(SIGNATURE_HEADER);
+        header.setIn("header");
+        header.setRequired(false);
+        header.setDescription("The bundle's signature file (pressmark sign writes BUNDLE.sig), base64url-encoded (RFC 4648 section 5, padding"
+                + " optional): JSON {\"format\":1,\"algorithm\":\"Ed25519\",\"key_id\":...,\"sha256\":...,\"signature\":...}.");
+        header.setSchema(Schemas.pattern(Schemas.string(null), "^[A-Za-z0-9_-]+=*$"));
+        return header;
+    }
+
+    static Parameter allowBreaking() {
+        Parameter allow = new Parameter();
+        allow.setName("allow_breaking");
+        allow.setIn("query");
+        allow.setRequired(false);
+        allow.setDescription("Publish even if the bundle breaks the active version's contract; its contract version then raises the major.");
+        JsonSchema schema = Schemas.bool(null);
+        schema.setDefault(false);
+        allow.setSchema(schema);
+        return allow;
     }
 
     private void addPredictions(Paths paths) {

@@ -33,6 +33,7 @@ final class Shapes {
     static final String VERSION_SUMMARY = "VersionSummary";
     static final String VERSION_DETAIL = "VersionDetail";
     static final String VERSION_LIST = "VersionList";
+    static final String CONTRACT = "Contract";
     static final String ACTIVATE_REQUEST = "ActivateRequest";
     static final String ACTIVATION = "Activation";
     static final String PROMOTION_CHECK = "PromotionCheck";
@@ -90,7 +91,18 @@ final class Shapes {
                 "size", format(integer("The bundle file's size in bytes.", 0), "int64"),
                 "created_at", format(string("When it was published."), "date-time"),
                 "active", bool("Whether it is the model's active version."),
-                "retired", bool("Whether it was retired.")));
+                "retired", bool("Whether it was retired."),
+                "contract_version", contractVersion()));
+        components.addSchemas(CONTRACT, object("The version's contract record, made at publish.", List.of("version", "against", "diff"),
+                "version", contractVersion(),
+                "against", nullable(string("The version that was active at publish; null for the first.")),
+                "diff", object("How its input fields and labels differ from that version's.",
+                        List.of("added_fields", "removed_fields", "added_labels", "removed_labels", "breaking"),
+                        "added_fields", array("Input fields it added (breaking: predict requires every field).", string(null)),
+                        "removed_fields", array("Input fields it removed (breaking).", string(null)),
+                        "added_labels", array("Labels it added.", string(null)),
+                        "removed_labels", array("Labels it removed (breaking).", string(null)),
+                        "breaking", bool("Whether clients of that version can break."))));
         components.addSchemas(VERSION_DETAIL, versionDetail("A stored version with what its manifest says.", false));
         components.addSchemas(ACTIVATION, versionDetail("The version now active, and the one this server serves.", true));
         components.addSchemas(VERSION_LIST, object("A model's versions, newest first.", List.of("model", "versions"),
@@ -142,6 +154,11 @@ final class Shapes {
                         List.of("ok", "watch", "drift")))));
     }
 
+    private static JsonSchema contractVersion() {
+        return nullable(pattern(string("The semantic version of its HTTP contract (input fields and labels); null for versions published"
+                + " before the store kept it."), "^[0-9]+\\.[0-9]+\\.[0-9]+$"));
+    }
+
     private static JsonSchema versionDetail(String description, boolean withServing) {
         List<String> required = new ArrayList<>(List.of("model", "tag", "sha256", "size", "created_at", "active", "retired", "labels",
                 "input_fields", "metrics", "provenance"));
@@ -156,7 +173,10 @@ final class Shapes {
                 "labels", array("The labels it predicts.", string(null)),
                 "input_fields", array("The text fields every item must carry.", string(null)),
                 "metrics", typed("object", "Cross-validation and held-out test metrics, as the manifest records them."),
-                "provenance", typed("object", "How it was made: library, Java, OS, seed, data checksum, config.")));
+                "provenance", typed("object", "How it was made: library, Java, OS, seed, data checksum, config."),
+                "contract_version", contractVersion(),
+                "contract", nullable(ref(CONTRACT)),
+                "signed_by", nullable(string("The id of the key that signed it; null when published unsigned."))));
         if (withServing) {
             required.add("serving");
             properties.add("serving");

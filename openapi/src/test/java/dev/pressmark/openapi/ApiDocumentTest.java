@@ -59,7 +59,8 @@ class ApiDocumentTest {
             OpenAPI parsed = parsedCleanly(text);
             assertThat(parsed.getOpenapi()).isEqualTo("3.1.0");
             assertThat(parsed.getInfo().getTitle()).isEqualTo("pressmark");
-            assertThat(parsed.getInfo().getVersion()).isEqualTo("0.1.0");
+            // two models at contract 1.0.0: the sum of their contract versions
+            assertThat(parsed.getInfo().getVersion()).isEqualTo("2.0.0");
         }
         assertThat(ApiDocument.json(api)).startsWith("{").contains("\"openapi\" : \"3.1.0\"");
         assertThat(ApiDocument.yaml(api)).contains("openapi: 3.1.0");
@@ -171,6 +172,39 @@ class ApiDocumentTest {
                     .as(op.getOperationId() + " with reader token " + readerToken).isEqualTo(readerToken));
             assertThat(parsed.getPaths().get("/health").getGet().getSecurity()).isNull();
         }
+    }
+
+    private static ModelDescriptor atContract(ModelDescriptor model, String contractVersion) {
+        return new ModelDescriptor(model.name(), model.activeTag(), model.labels(), model.inputFields(), model.probabilities(), model.examples(),
+                contractVersion);
+    }
+
+    @Test
+    void the_document_version_is_the_program_s_without_models_the_model_s_contract_with_one_and_their_sum_with_several() {
+        ServiceInfo service = new ServiceInfo("0.1.0", false);
+        assertThat(parsedCleanly(ApiDocument.json(ApiDocument.build(service, List.of()))).getInfo().getVersion()).isEqualTo("0.1.0");
+        OpenAPI one = parsedCleanly(ApiDocument.json(ApiDocument.build(service, List.of(atContract(ROUTING, "3.1.0")))));
+        assertThat(one.getInfo().getVersion()).isEqualTo("3.1.0");
+        assertThat(one.getInfo().getDescription()).contains("routing 1.4.0 (contract 3.1.0)");
+        OpenAPI two = parsedCleanly(ApiDocument.json(ApiDocument.build(service, List.of(atContract(ROUTING, "3.1.0"), atContract(SPAM, "2.4.1")))));
+        assertThat(two.getInfo().getVersion()).isEqualTo("5.5.1");
+    }
+
+    @Test
+    void publish_documents_the_signature_header_the_breaking_switch_and_the_signature_refusal() {
+        OpenAPI parsed = parsedCleanly(ApiDocument.json(ApiDocument.build(new ServiceInfo("0.1.0", false), List.of(ROUTING))));
+        Operation publish = parsed.getPaths().get("/models/{name}/versions/{tag}").getPut();
+        assertThat(publish.getParameters()).anySatisfy(p -> {
+            assertThat(p.getName()).isEqualTo("Pressmark-Signature");
+            assertThat(p.getIn()).isEqualTo("header");
+            assertThat(p.getDescription()).contains("base64url");
+        });
+        assertThat(publish.getParameters()).anySatisfy(p -> {
+            assertThat(p.getName()).isEqualTo("allow_breaking");
+            assertThat(p.getIn()).isEqualTo("query");
+        });
+        assertThat(publish.getResponses()).containsKeys("409", "422");
+        assertThat(schema(parsed, "VersionDetail").getProperties()).containsKeys("contract_version", "contract", "signed_by");
     }
 
     @Test

@@ -30,6 +30,9 @@ import picocli.CommandLine.Option;
             ShadowReportCommand.class,
             VerifyCommand.class,
             HistoryCommand.class,
+            KeygenCommand.class,
+            SignCommand.class,
+            TrustCommand.class,
             ServeCommand.class,
             DemoCommand.class,
             CommandLine.HelpCommand.class})

@@ -1,9 +1,12 @@
 package dev.pressmark.cli;
 
+import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.NullNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
+import dev.pressmark.core.contract.ContractRecord;
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.Version;
 import java.util.List;
@@ -44,7 +47,10 @@ final class VersionsCommand implements Callable<Integer> {
                         .put("size", v.sizeBytes())
                         .put("created_at", v.createdAt().toString())
                         .put("active", v.active())
-                        .put("retired", v.retired());
+                        .put("retired", v.retired())
+                        .put("contract_version", v.contract().map(c -> c.version().toString()).orElse(null))
+                        .put("signed", v.signatureJson().isPresent())
+                        .set("contract", v.contract().<JsonNode>map(ContractRecord::toJsonNode).orElse(NullNode.getInstance()));
             }
             System.out.println(mapper.writeValueAsString(root));
             return Main.EXIT_OK;
@@ -53,9 +59,10 @@ final class VersionsCommand implements Callable<Integer> {
         for (Version v : versions) {
             width = Math.max(width, v.tag().length());
         }
-        System.out.printf("  %-" + width + "s  %-24s  %12s  %s%n", "TAG", "CREATED", "BYTES", "SHA-256");
+        System.out.printf("  %-" + width + "s  %-24s  %12s  %-8s  %s%n", "TAG", "CREATED", "BYTES", "CONTRACT", "SHA-256");
         for (Version v : versions) {
-            System.out.printf("%s %-" + width + "s  %-24s  %12d  %s%s%n", v.active() ? "*" : " ", v.tag(), v.createdAt(), v.sizeBytes(), v.sha256(),
+            System.out.printf("%s %-" + width + "s  %-24s  %12d  %-8s  %s%s%s%n", v.active() ? "*" : " ", v.tag(), v.createdAt(), v.sizeBytes(),
+                    v.contract().map(c -> c.version().toString()).orElse("-"), v.sha256(), v.signatureJson().isPresent() ? "  signed" : "",
                     v.retired() ? "  retired" : "");
         }
         return Main.EXIT_OK;

@@ -128,7 +128,8 @@ final class ApiDocs {
             return last;
         }
         List<ModelDescriptor> models = new ArrayList<>(serving.size());
-        serving.forEach((model, version) -> models.add(Descriptors.of(model, version.tag(), version.bundle())));
+        serving.forEach((model, version) -> models.add(Descriptors.of(model, version.tag(), version.bundle(),
+                version.version().contract().map(c -> c.version().toString()).orElse(ModelDescriptor.FIRST_CONTRACT_VERSION))));
         OpenAPI api = ApiDocument.build(service, models);
         Built fresh = new Built(List.copyOf(key), ApiDocument.json(api), ApiDocument.yaml(api));
         built.set(fresh);

@@ -11,6 +11,7 @@ import dev.pressmark.store.ModelSummary;
 import dev.pressmark.store.PromotionCheck;
 import dev.pressmark.store.PromotionPolicy;
 import dev.pressmark.store.ShadowStatus;
+import dev.pressmark.store.PublishOptions;
 import dev.pressmark.store.Version;
 import io.javalin.http.Context;
 import java.io.IOException;
@@ -185,7 +186,8 @@ final class ModelRoutes {
         access.requireAdmin(ctx);
         String name = ctx.pathParam("name");
         String tag = ctx.pathParam("tag");
-        Version version = store.publish(name, tag, requests.bundleBody(ctx), ACTOR);
+        PublishOptions options = new PublishOptions(Requests.signatureHeader(ctx), Requests.booleanQuery(ctx, "allow_breaking"));
+        Version version = store.publish(name, tag, requests.bundleBody(ctx), options, ACTOR);
         ctx.status(201).header("Location", "/models/" + name + "/versions/" + tag).json(views.versionDetail(version));
     }
 

@@ -116,6 +116,10 @@ final class Problems {
             case StoreException.INVALID_FRACTION -> ApiProblem.invalidField("fraction", e.getMessage());
             case StoreException.NO_ACTIVE, StoreException.SHADOW_OF_ACTIVE ->
                     new ApiProblem(409, e.code(), "Conflict with the active version", e.getMessage(), List.of());
+            case StoreException.BREAKING -> new ApiProblem(409, e.code(), "Breaking contract change", e.getMessage()
+                    + " (add ?allow_breaking=true to publish it anyway)", List.of());
+            case StoreException.UNSIGNED, StoreException.BAD_SIGNATURE -> new ApiProblem(422, e.code(), "Signature refused", e.getMessage(),
+                    List.of());
             case StoreException.RETIRED, StoreException.ACTIVE, StoreException.NO_ROLLBACK ->
                     new ApiProblem(409, e.code(), "Conflict with the version history", e.getMessage(), List.of());
             case StoreException.UNREACHABLE -> new ApiProblem(503, STORE_UNAVAILABLE, "Store unavailable",

@@ -3,15 +3,20 @@ package dev.pressmark.server;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.store.Shadow;
+import dev.pressmark.openapi.ApiDocument;
 import io.javalin.http.Context;
 import java.io.ByteArrayOutputStream;
 import java.io.CharConversionException;
 import java.io.IOException;
 import java.io.InputStream;
+import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
+import java.util.Base64;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import java.util.Optional;
 import java.util.Set;
 
 /** Reading and checking request bodies: content type, size limit, JSON shape. */
@@ -156,6 +161,36 @@ final class Requests {
             throw ApiProblem.invalidField(field, "must be a string");
         }
         return value.textValue();
+    }
+
+    /**
+     * The signature file carried by the {@value ApiDocument#SIGNATURE_HEADER} header, base64url-encoded
+     * (RFC 4648 section 5, padding optional); empty when the header is absent.
+     */
+    static Optional<String> signatureHeader(Context ctx) {
+        String raw = ctx.header(ApiDocument.SIGNATURE_HEADER);
+        if (raw == null) {
+            return Optional.empty();
+        }
+        try {
+            return Optional.of(new String(Base64.getUrlDecoder().decode(raw.strip()), StandardCharsets.UTF_8));
+        } catch (IllegalArgumentException e) {
+            throw ApiProblem.invalidField(ApiDocument.SIGNATURE_HEADER, "must be the signature file in base64url (RFC 4648 section 5): "
+                    + e.getMessage());
+        }
+    }
+
+    /** A boolean query parameter, {@code true} or {@code false}; false when absent. */
+    static boolean booleanQuery(Context ctx, String name) {
+        String raw = ctx.queryParam(name);
+        if (raw == null) {
+            return false;
+        }
+        return switch (raw) {
+            case "true" -> true;
+            case "false" -> false;
+            default -> throw ApiProblem.invalidField(name, "must be true or false, was \"" + raw + "\"");
+        };
     }
 
     /** An integer query parameter within {@code [min, max]}. */

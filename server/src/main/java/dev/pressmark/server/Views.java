@@ -4,6 +4,7 @@ import com.fasterxml.jackson.core.JsonGenerator;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.NullNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Contribution;
 import dev.pressmark.core.bundle.Explanation;
@@ -12,6 +13,8 @@ import dev.pressmark.core.drift.DriftReport;
 import dev.pressmark.core.drift.LengthShift;
 import dev.pressmark.core.drift.LengthSummary;
 import dev.pressmark.store.PromotionCheck;
+import dev.pressmark.core.contract.ContractRecord;
+import dev.pressmark.core.sign.BundleSignature;
 import dev.pressmark.store.Version;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
@@ -40,7 +43,18 @@ final class Views {
                 .put("size", v.sizeBytes())
                 .put("created_at", v.createdAt().toString())
                 .put("active", v.active())
-                .put("retired", v.retired());
+                .put("retired", v.retired())
+                .put("contract_version", v.contract().map(c -> c.version().toString()).orElse(null));
+    }
+
+    /** A version's contract record as the store keeps it, or null when it kept none. */
+    static JsonNode contract(Version v) {
+        return v.contract().<JsonNode>map(ContractRecord::toJsonNode).orElse(NullNode.getInstance());
+    }
+
+    /** The id of the key that signed a version, or null. */
+    static String signedBy(Version v) {
+        return v.signatureJson().map(json -> BundleSignature.parse(json, v.model() + " " + v.tag() + " signature").keyId()).orElse(null);
     }
 
     ObjectNode versions(String model, List<Version> versions) {
@@ -81,6 +95,8 @@ final class Views {
         node.set("input_fields", manifest.path("input_fields").deepCopy());
         node.set("metrics", manifest.path("metrics").deepCopy());
         node.set("provenance", manifest.path("provenance").deepCopy());
+        node.set("contract", contract(v));
+        node.put("signed_by", signedBy(v));
         return node;
     }
 

@@ -134,13 +134,19 @@ class ApiDocsTest {
             assertThat(labelEnum(before)).containsExactly("electrical", "garden", "plumbing");
             assertThat(before.getInfo().getDescription()).contains("routing 1.0.0");
 
+            assertThat(before.getInfo().getVersion()).isEqualTo("1.0.0");
+
+            // other labels remove the old ones: a breaking contract change, published only when allowed
             assertThat(s.http.put("/models/routing/versions/2.0.0", "application/octet-stream", twoLabels, Served.AS_ADMIN).status())
-                    .isEqualTo(201);
+                    .isEqualTo(409);
+            assertThat(s.http.put("/models/routing/versions/2.0.0?allow_breaking=true", "application/octet-stream", twoLabels, Served.AS_ADMIN)
+                    .status()).isEqualTo(201);
             assertThat(s.http.putJson("/models/routing/active", "{\"tag\":\"2.0.0\"}", Served.AS_ADMIN).status()).isEqualTo(200);
 
             OpenAPI after = parsedCleanly(s.http.get("/openapi.json").body());
             assertThat(labelEnum(after)).containsExactlyElementsOf(Bundle.read(twoLabels).labels()).containsExactly("furniture", "lighting");
-            assertThat(after.getInfo().getDescription()).contains("routing 2.0.0");
+            assertThat(after.getInfo().getDescription()).contains("routing 2.0.0 (contract 2.0.0)");
+            assertThat(after.getInfo().getVersion()).isEqualTo("2.0.0");
             assertThat(parsedCleanly(s.http.get("/openapi.yaml").body()).getInfo().getDescription()).contains("routing 2.0.0");
         }
     }

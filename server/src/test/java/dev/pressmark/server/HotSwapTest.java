@@ -5,11 +5,13 @@ import static org.assertj.core.api.Assertions.assertThat;
 import com.fasterxml.jackson.databind.JsonNode;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.PublishOptions;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import java.util.Optional;
 import java.util.Set;
 import java.util.SplittableRandom;
 import java.util.concurrent.ConcurrentHashMap;
@@ -89,7 +91,8 @@ class HotSwapTest {
             awaitServed(s, "1.0.0", PICKED_UP_WITHIN);
             assertThat(s.http.get("/health/ready").status()).isEqualTo(200);
 
-            cli.publish("routing", "2.0.0", TestBundles.unloadable(), "cli");
+            // its manifest declares no fields or labels, a breaking change that must be allowed
+            cli.publish("routing", "2.0.0", TestBundles.unloadable(), new PublishOptions(Optional.empty(), true), "cli");
             cli.activate("routing", "2.0.0", "cli", "broken build");
             JsonNode ready = null;
             long deadline = System.nanoTime() + PICKED_UP_WITHIN.toNanos() * 3;

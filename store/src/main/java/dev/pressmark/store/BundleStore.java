@@ -45,7 +45,21 @@ public interface BundleStore extends AutoCloseable {
      * of the whole file, and stores it as {@code model}/{@code tag} in one transaction. A tag that
      * exists is refused, even with identical bytes. The version is not activated.
      */
-    Version publish(String model, String tag, byte[] bundle, String actor);
+    default Version publish(String model, String tag, byte[] bundle, String actor) {
+        return publish(model, tag, bundle, PublishOptions.DEFAULT, actor);
+    }
+
+    /**
+     * Publishes as {@link #publish(String, String, byte[], String)} does, with a signature and a
+     * decision about breaking changes. While the store trusts at least one key, a bundle without a
+     * signature is refused ({@link StoreException#UNSIGNED}), and so is one whose signature is not
+     * by a trusted key over this bundle's SHA-256 ({@link StoreException#BAD_SIGNATURE}). The new
+     * version's contract (input fields, labels) is compared with the active version's: a breaking
+     * difference is refused ({@link StoreException#BREAKING}) unless {@code options} allow it. The
+     * version records its contract version: 1.0.0 with no active version, else the active one's
+     * with the major raised for a breaking change, the minor for another change.
+     */
+    Version publish(String model, String tag, byte[] bundle, PublishOptions options, String actor);
 
     /**
      * Makes {@code tag} the active version of {@code model}. Activating the active version again
@@ -78,7 +92,8 @@ public interface BundleStore extends AutoCloseable {
 
     /**
      * Reads a version for serving: streams its stored bytes through the bundle reader and the
-     * SHA-256 at once, and fails with {@link StoreException#CORRUPT} if they do not match.
+     * SHA-256 at once, and fails with {@link StoreException#CORRUPT} if they do not match. While
+     * the store trusts keys, a version without a signature by one of them is refused as at publish.
      */
     LoadedBundle load(String model, String tag);
 
@@ -129,6 +144,21 @@ public interface BundleStore extends AutoCloseable {
      * when {@code tag} is not empty; empty when there is none.
      */
     List<ShadowReport> shadowReports(String model, Optional<String> tag);
+
+    /**
+     * Trusts the Ed25519 public key in {@code publicKeyPem} (X.509 PEM) for bundle signatures, and
+     * records who did. Trusting a key already trusted changes nothing and returns it.
+     */
+    TrustedKey trust(String publicKeyPem, String actor);
+
+    /** Stops trusting a key. Versions it signed are then refused at load unless another trusted key signed them. */
+    void distrust(String keyId, String actor);
+
+    /** The trusted keys, by key id. */
+    List<TrustedKey> trustedKeys();
+
+    /** The audit events about the store as a whole (trusted keys), newest first. */
+    List<StoreEvent> storeEvents();
 
     /** Where the store is, for messages: a file path or host:port/database, never a password. */
     String describe();

@@ -5,6 +5,10 @@ import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.bundle.BundleContents;
 import dev.pressmark.core.bundle.BundleException;
 import dev.pressmark.core.bundle.Sha256;
+import dev.pressmark.core.contract.Contract;
+import dev.pressmark.core.contract.ContractRecord;
+import dev.pressmark.core.contract.SemanticVersion;
+import dev.pressmark.core.sign.BundleSignature;
 import java.io.IOException;
 import java.io.InputStream;
 import java.security.DigestInputStream;
@@ -57,7 +61,8 @@ final class JdbcBundleStore implements BundleStore {
     }
 
     @Override
-    public Version publish(String model, String tag, byte[] bundle, String actor) {
+    public Version publish(String model, String tag, byte[] bundle, PublishOptions options, String actor) {
+        Objects.requireNonNull(options, "options");
         Names.model(model);
         Names.tag(tag);
         Names.actor(actor);
@@ -83,8 +88,11 @@ final class JdbcBundleStore implements BundleStore {
                 throw new StoreException(StoreException.TAG_EXISTS, model + " " + tag + " is already published; a published tag is immutable,"
                         + " so publish under a new tag");
             }
-            try (PreparedStatement insert = c.prepareStatement("INSERT INTO versions (model, tag, sha256, size, created_at, manifest_json, bundle)"
-                    + " VALUES (?, ?, ?, ?, ?, ?, ?)")) {
+            Signatures.check(options.signatureJson(), sha256, Signatures.trustedKeys(c), "cannot publish " + model + " " + tag);
+            ContractRecord contract = contract(c, model, tag, contents, options.allowBreaking());
+            String contractJson = contract.toJson();
+            try (PreparedStatement insert = c.prepareStatement("INSERT INTO versions (model, tag, sha256, size, created_at, manifest_json, bundle,"
+                    + " signature_json, contract_json) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
                 insert.setString(1, model);
                 insert.setString(2, tag);
                 insert.setString(3, sha256);
@@ -92,11 +100,104 @@ final class JdbcBundleStore implements BundleStore {
                 insert.setLong(5, now);
                 insert.setString(6, manifest);
                 insert.setBytes(7, bundle);
+                insert.setString(8, options.signatureJson().orElse(null));
+                insert.setString(9, contractJson);
                 insert.executeUpdate();
             }
-            event(c, now, actor, StoreEvent.PUBLISH, model, tag, "sha256 " + sha256 + ", " + bundle.length + " bytes");
-            return new Version(model, tag, sha256, bundle.length, Instant.ofEpochMilli(now), manifest, false, false);
+            String signedBy = options.signatureJson().map(json -> ", signed by key " + BundleSignature.parse(json, "the signature").keyId())
+                    .orElse("");
+            event(c, now, actor, StoreEvent.PUBLISH, model, tag, "sha256 " + sha256 + ", " + bundle.length + " bytes" + signedBy
+                    + ", contract " + contract.version() + contract.against().map(a -> " (" + contract.diff().describe() + " against " + a + ")")
+                    .orElse(""));
+            return new Version(model, tag, sha256, bundle.length, Instant.ofEpochMilli(now), manifest, false, false, options.signatureJson(),
+                    Optional.of(contractJson));
         });
+    }
+
+    /**
+     * The new version's contract record against the active version. A version published before the
+     * store kept contract records counts as contract 1.0.0.
+     */
+    private static ContractRecord contract(Connection c, String model, String tag, BundleContents contents, boolean allowBreaking)
+            throws SQLException {
+        Activation current = currentActivation(c, model);
+        if (current == null) {
+            return ContractRecord.first();
+        }
+        String activeManifest;
+        String activeContract;
+        try (PreparedStatement select = c.prepareStatement("SELECT manifest_json, contract_json FROM versions WHERE model = ? AND tag = ?")) {
+            select.setString(1, model);
+            select.setString(2, current.tag());
+            try (ResultSet rs = select.executeQuery()) {
+                rs.next();
+                activeManifest = rs.getString(1);
+                activeContract = rs.getString(2);
+            }
+        }
+        SemanticVersion activeVersion = activeContract == null ? SemanticVersion.FIRST : ContractRecord.parse(activeContract).version();
+        ContractRecord record = ContractRecord.against(current.tag(), Contract.ofManifestJson(activeManifest), activeVersion,
+                Contract.of(contents.manifest()));
+        if (record.diff().breaking() && !allowBreaking) {
+            throw new StoreException(StoreException.BREAKING, "cannot publish " + model + " " + tag + ": it breaks the contract of the active"
+                    + " version " + current.tag() + " (" + activeVersion + "): " + record.diff().describe()
+                    + "; allow breaking changes to publish it as contract " + record.version());
+        }
+        return record;
+    }
+
+    @Override
+    public TrustedKey trust(String publicKeyPem, String actor) {
+        Objects.requireNonNull(publicKeyPem, "publicKeyPem");
+        Names.actor(actor);
+        String keyId = Signatures.keyId(publicKeyPem);
+        long now = now();
+        return write("trust key " + keyId, c -> {
+            for (TrustedKey key : Signatures.trustedKeys(c)) {
+                if (key.keyId().equals(keyId)) {
+                    return key;
+                }
+            }
+            try (PreparedStatement insert = c.prepareStatement("INSERT INTO trusted_keys (key_id, public_key_pem, added_at, actor) VALUES (?, ?, ?, ?)")) {
+                insert.setString(1, keyId);
+                insert.setString(2, publicKeyPem);
+                insert.setLong(3, now);
+                insert.setString(4, actor);
+                insert.executeUpdate();
+            }
+            event(c, now, actor, StoreEvent.TRUST, StoreEvent.STORE_WIDE, keyId, "trusted Ed25519 key " + keyId);
+            return new TrustedKey(keyId, publicKeyPem, Instant.ofEpochMilli(now), actor);
+        });
+    }
+
+    @Override
+    public void distrust(String keyId, String actor) {
+        Objects.requireNonNull(keyId, "keyId");
+        Names.actor(actor);
+        long now = now();
+        write("stop trusting key " + keyId, c -> {
+            int removed;
+            try (PreparedStatement delete = c.prepareStatement("DELETE FROM trusted_keys WHERE key_id = ?")) {
+                delete.setString(1, keyId);
+                removed = delete.executeUpdate();
+            }
+            if (removed == 0) {
+                throw new StoreException(StoreException.NO_SUCH_KEY, "no trusted key " + keyId + "; trusted keys: "
+                        + Signatures.trustedKeys(c).stream().map(TrustedKey::keyId).toList());
+            }
+            event(c, now, actor, StoreEvent.DISTRUST, StoreEvent.STORE_WIDE, keyId, "stopped trusting key " + keyId);
+            return null;
+        });
+    }
+
+    @Override
+    public List<TrustedKey> trustedKeys() {
+        return read("list the trusted keys", Signatures::trustedKeys);
+    }
+
+    @Override
+    public List<StoreEvent> storeEvents() {
+        return read("read the store's events", c -> eventList(c, StoreEvent.STORE_WIDE));
     }
 
     @Override
@@ -206,7 +307,7 @@ final class JdbcBundleStore implements BundleStore {
 
     private static final String VERSION_COLUMNS = "v.model, v.tag, v.sha256, v.size, v.created_at, v.manifest_json,"
             + " CASE WHEN v.tag = (SELECT a.tag FROM activations a WHERE a.model = v.model ORDER BY a.seq DESC LIMIT 1) THEN 1 ELSE 0 END,"
-            + " CASE WHEN v.retired_at IS NULL THEN 0 ELSE 1 END";
+            + " CASE WHEN v.retired_at IS NULL THEN 0 ELSE 1 END, v.signature_json, v.contract_json";
 
     @Override
     public List<Version> versions(String model) {
@@ -260,6 +361,7 @@ final class JdbcBundleStore implements BundleStore {
     public LoadedBundle load(String model, String tag) {
         Version version = version(model, tag).orElseThrow(() -> noSuchVersion(model, tag));
         return read("load " + model + " " + tag, c -> {
+            Signatures.check(version.signatureJson(), version.sha256(), Signatures.trustedKeys(c), model + " " + tag + " will not be served");
             try (PreparedStatement select = c.prepareStatement("SELECT bundle FROM versions WHERE model = ? AND tag = ?")) {
                 select.setString(1, model);
                 select.setString(2, tag);
@@ -363,18 +465,22 @@ final class JdbcBundleStore implements BundleStore {
         Names.model(model);
         return read("read the events of " + model, c -> {
             requireModel(c, model);
-            List<StoreEvent> events = new ArrayList<>();
-            try (PreparedStatement select = c.prepareStatement("SELECT id, at, actor, action, model, tag, detail FROM events WHERE model = ? ORDER BY id DESC")) {
-                select.setString(1, model);
-                try (ResultSet rs = select.executeQuery()) {
-                    while (rs.next()) {
-                        events.add(new StoreEvent(rs.getLong(1), Instant.ofEpochMilli(rs.getLong(2)), rs.getString(3), rs.getString(4),
-                                rs.getString(5), rs.getString(6), rs.getString(7)));
-                    }
+            return eventList(c, model);
+        });
+    }
+
+    private static List<StoreEvent> eventList(Connection c, String model) throws SQLException {
+        List<StoreEvent> events = new ArrayList<>();
+        try (PreparedStatement select = c.prepareStatement("SELECT id, at, actor, action, model, tag, detail FROM events WHERE model = ? ORDER BY id DESC")) {
+            select.setString(1, model);
+            try (ResultSet rs = select.executeQuery()) {
+                while (rs.next()) {
+                    events.add(new StoreEvent(rs.getLong(1), Instant.ofEpochMilli(rs.getLong(2)), rs.getString(3), rs.getString(4),
+                            rs.getString(5), rs.getString(6), rs.getString(7)));
                 }
             }
-            return events;
-        });
+        }
+        return events;
     }
 
     @Override
@@ -722,7 +828,7 @@ final class JdbcBundleStore implements BundleStore {
 
     private static Version version(ResultSet rs) throws SQLException {
         return new Version(rs.getString(1), rs.getString(2), rs.getString(3), rs.getLong(4), Instant.ofEpochMilli(rs.getLong(5)),
-                rs.getString(6), rs.getInt(7) != 0, rs.getInt(8) != 0);
+                rs.getString(6), rs.getInt(7) != 0, rs.getInt(8) != 0, Optional.ofNullable(rs.getString(9)), Optional.ofNullable(rs.getString(10)));
     }
 
     private static StoreException noSuchModel(String model) {

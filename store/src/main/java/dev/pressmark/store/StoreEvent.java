@@ -13,6 +13,10 @@ public record StoreEvent(long id, Instant at, String actor, String action, Strin
     public static final String RETIRE = "retire";
     public static final String SHADOW_START = "shadow-start";
     public static final String SHADOW_STOP = "shadow-stop";
+    public static final String TRUST = "trust";
+    public static final String DISTRUST = "distrust";
+    /** The {@code model} of events about the store as a whole (trusted keys), which no model name can be. */
+    public static final String STORE_WIDE = "";
 
     public StoreEvent {
         Objects.requireNonNull(at, "at");

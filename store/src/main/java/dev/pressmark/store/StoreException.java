@@ -32,6 +32,15 @@ public final class StoreException extends PressmarkException {
     public static final String SHADOW_OF_ACTIVE = "shadow-of-active";
     public static final String INVALID_FRACTION = "invalid-fraction";
     public static final String BAD_REPORT = "bad-shadow-report";
+    /** The store trusts signing keys and the version carries no signature. */
+    public static final String UNSIGNED = "unsigned";
+    /** The signature is malformed, is for other bytes, is by a key the store does not trust, or does not verify. */
+    public static final String BAD_SIGNATURE = "bad-signature";
+    /** The version's contract breaks the active version's and breaking changes were not allowed. */
+    public static final String BREAKING = "breaking-change";
+    /** A public key file that cannot be trusted: not an Ed25519 public key. */
+    public static final String INVALID_KEY = "invalid-key";
+    public static final String NO_SUCH_KEY = "no-such-key";
 
     public StoreException(String code, String message) {
         super(code, message);

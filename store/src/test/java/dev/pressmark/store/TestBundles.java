@@ -2,9 +2,11 @@ package dev.pressmark.store;
 
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
 import com.fasterxml.jackson.databind.node.ObjectNode;
+import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.BundleArchive;
 import java.nio.charset.StandardCharsets;
 import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Map;
 import java.util.SplittableRandom;
 
@@ -32,6 +34,16 @@ final class TestBundles {
         ObjectNode manifest = JsonNodeFactory.instance.objectNode();
         manifest.put("name", model);
         manifest.put("seed", seed);
+        return BundleArchive.toBytes(manifest, entries(model, seed));
+    }
+
+    /** A bundle whose manifest declares a contract: these input fields and labels. */
+    static byte[] withContract(String model, long seed, List<String> inputFields, List<String> labels) {
+        ObjectNode manifest = JsonNodeFactory.instance.objectNode();
+        manifest.put("name", model);
+        manifest.put("seed", seed);
+        inputFields.forEach(manifest.putArray(Bundle.INPUT_FIELDS)::add);
+        labels.forEach(manifest.putArray(Bundle.LABELS)::add);
         return BundleArchive.toBytes(manifest, entries(model, seed));
     }
 

@@ -26,14 +26,23 @@ public final class AtomicFiles {
 
     /** Writes {@code target} through {@code writer}; on any failure the target is untouched. */
     public static void write(Path target, Writer writer) {
+        write(target, "rw-r--r--", writer);
+    }
+
+    /**
+     * As {@link #write(Path, Writer)}, the finished file with POSIX permissions {@code permissions}
+     * (such as {@code rw-------} for a private key) where the file system has them. The content is
+     * written under those permissions, so it is never readable more widely.
+     */
+    public static void write(Path target, String permissions, Writer writer) {
         Path absolute = target.toAbsolutePath();
         Path temporary = null;
         try {
             Files.createDirectories(absolute.getParent());
             temporary = Files.createTempFile(absolute.getParent(), "." + absolute.getFileName() + ".", ".tmp");
             if (Files.getFileStore(temporary).supportsFileAttributeView("posix")) {
-                // Temporary files are private; the finished file gets the usual rw-r--r--.
-                Files.setPosixFilePermissions(temporary, PosixFilePermissions.fromString("rw-r--r--"));
+                // Temporary files are private; the finished file gets the permissions asked for.
+                Files.setPosixFilePermissions(temporary, PosixFilePermissions.fromString(permissions));
             }
             try (OutputStream out = Files.newOutputStream(temporary)) {
                 writer.write(out);

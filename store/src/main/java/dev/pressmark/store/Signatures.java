@@ -1,0 +1,81 @@
+package dev.pressmark.store;
+
+import dev.pressmark.core.sign.BundleSignature;
+import dev.pressmark.core.sign.SignatureException;
+import dev.pressmark.core.sign.SigningKeys;
+import java.security.PublicKey;
+import java.sql.Connection;
+import java.sql.PreparedStatement;
+import java.sql.ResultSet;
+import java.sql.SQLException;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Optional;
+
+/** The trusted keys table and the signature checks made at publish and at load. */
+final class Signatures {
+
+    private Signatures() {
+    }
+
+    static List<TrustedKey> trustedKeys(Connection c) throws SQLException {
+        List<TrustedKey> keys = new ArrayList<>();
+        try (PreparedStatement select = c.prepareStatement("SELECT key_id, public_key_pem, added_at, actor FROM trusted_keys ORDER BY key_id");
+                ResultSet rs = select.executeQuery()) {
+            while (rs.next()) {
+                keys.add(new TrustedKey(rs.getString(1), rs.getString(2), Instant.ofEpochMilli(rs.getLong(3)), rs.getString(4)));
+            }
+        }
+        return keys;
+    }
+
+    /** The key id of a public key PEM, or an {@link StoreException#INVALID_KEY} failure. */
+    static String keyId(String publicKeyPem) {
+        try {
+            return SigningKeys.keyId(SigningKeys.readPublicKey(publicKeyPem, "the public key"));
+        } catch (SignatureException e) {
+            throw new StoreException(StoreException.INVALID_KEY, e.getMessage(), e);
+        }
+    }
+
+    /**
+     * Checks the signature of a bundle with SHA-256 {@code sha256} for {@code what} ("publish
+     * routing 2" or so). Without trusted keys a signature is optional, but one that is given must
+     * at least be well-formed and name this bundle's SHA-256. With trusted keys it must verify.
+     */
+    static void check(Optional<String> signatureJson, String sha256, List<TrustedKey> trusted, String what) {
+        if (signatureJson.isEmpty()) {
+            if (!trusted.isEmpty()) {
+                throw new StoreException(StoreException.UNSIGNED, what + ": the bundle is unsigned, and this store accepts only bundles signed by"
+                        + " one of its trusted keys " + ids(trusted));
+            }
+            return;
+        }
+        BundleSignature signature;
+        try {
+            signature = BundleSignature.parse(signatureJson.get(), "the signature");
+        } catch (SignatureException e) {
+            throw new StoreException(StoreException.BAD_SIGNATURE, what + ": " + e.getMessage(), e);
+        }
+        if (!signature.sha256().equals(sha256)) {
+            throw new StoreException(StoreException.BAD_SIGNATURE, what + ": the signature by key " + signature.keyId()
+                    + " is for a bundle with SHA-256 " + signature.sha256() + ", not this one (" + sha256 + ")");
+        }
+        if (trusted.isEmpty()) {
+            return;
+        }
+        TrustedKey key = trusted.stream().filter(k -> k.keyId().equals(signature.keyId())).findFirst()
+                .orElseThrow(() -> new StoreException(StoreException.BAD_SIGNATURE, what + ": the bundle is signed by key " + signature.keyId()
+                        + ", which this store does not trust; trusted keys: " + ids(trusted)));
+        PublicKey publicKey = SigningKeys.readPublicKey(key.publicKeyPem(), "trusted key " + key.keyId());
+        if (!signature.verifies(sha256, publicKey)) {
+            throw new StoreException(StoreException.BAD_SIGNATURE, what + ": the signature by key " + signature.keyId()
+                    + " does not verify over the bundle's SHA-256 " + sha256);
+        }
+    }
+
+    private static String ids(List<TrustedKey> keys) {
+        return keys.stream().map(TrustedKey::keyId).toList().toString();
+    }
+}
