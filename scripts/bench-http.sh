@@ -16,7 +16,8 @@
 #   --quick   3 s per measurement and 1 s warm-ups (under a minute in all); the default is 15 s and 10 s
 #   --shadow  also measure (f); the candidate is v19, the same bundle under another tag, so it costs what the active one does
 #   --no-pin  do not pin the server and wrk to separate cores with taskset
-# Environment: JAVA_OPTS for the server JVM; BENCH_THREADS, BENCH_CONNECTIONS (default 2 and 32).
+# Environment: JAVA_OPTS for the server JVM; BENCH_THREADS, BENCH_CONNECTIONS (default 2 and 16);
+#   BENCH_WARMUP (default 20s): the warm-up before each peak run; longer on a slow machine, where the JIT needs it.
 set -euo pipefail
 root="$(cd "$(dirname "$0")/.." && pwd)"
 jar="$root/server/target/pressmark.jar"
@@ -32,13 +33,13 @@ while [ $# -gt 0 ]; do
     --out) out="${2:?--out needs a file}"; shift; case "$out" in /*) ;; *) out="$PWD/$out" ;; esac ;;
     --no-pin) pin=0 ;;
     --shadow) shadow=1 ;;
-    -h|--help) sed -n '2,19p' "$0" | sed 's/^# \{0,1\}//'; exit 0 ;;
+    -h|--help) sed -n '2,20p' "$0" | sed 's/^# \{0,1\}//'; exit 0 ;;
     *) echo "bench-http: unknown argument $1 (see --help)" >&2; exit 2 ;;
   esac
   shift
 done
 # quick mode trains on fewer rows: the model has the same vocabulary and feature sizes, and training is most of its time
-if [ "$quick" = 1 ]; then duration=3s; warmup=1s; rows=5000; else duration=15s; warmup=20s; rows=20000; fi
+if [ "$quick" = 1 ]; then duration=3s; warmup=1s; rows=5000; else duration=15s; warmup="${BENCH_WARMUP:-20s}"; rows=20000; fi
 threads="${BENCH_THREADS:-2}"
 # 16: enough to keep the server busy, and below its default bound of 20 model requests at once (beyond it a
 # request is answered 503 by design, which wrk would count as a failure).
