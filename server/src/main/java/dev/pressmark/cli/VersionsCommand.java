@@ -7,6 +7,7 @@ import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.NullNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.contract.ContractRecord;
+import dev.pressmark.server.Views;
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.Version;
 import java.util.List;
@@ -41,14 +42,7 @@ final class VersionsCommand implements Callable<Integer> {
             root.put("model", name);
             ArrayNode list = root.putArray("versions");
             for (Version v : versions) {
-                list.addObject()
-                        .put("tag", v.tag())
-                        .put("sha256", v.sha256())
-                        .put("size", v.sizeBytes())
-                        .put("created_at", v.createdAt().toString())
-                        .put("active", v.active())
-                        .put("retired", v.retired())
-                        .put("contract_version", v.contract().map(c -> c.version().toString()).orElse(null))
+                Views.putSummary(list.addObject(), v)
                         .put("signed", v.signatureJson().isPresent())
                         .set("contract", v.contract().<JsonNode>map(ContractRecord::toJsonNode).orElse(NullNode.getInstance()));
             }

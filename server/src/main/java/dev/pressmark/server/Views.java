@@ -23,7 +23,7 @@ import java.util.List;
 import java.util.Map;
 
 /** The JSON shapes of the responses. */
-final class Views {
+public final class Views {
 
     private final ObjectMapper json;
 
@@ -35,9 +35,14 @@ final class Views {
         return json.createObjectNode();
     }
 
-    /** A version as {@code pressmark versions --json} lists it. */
+    /** A version's summary, as the versions endpoints answer it. */
     ObjectNode versionSummary(Version v) {
-        return json.createObjectNode()
+        return putSummary(json.createObjectNode(), v);
+    }
+
+    /** Puts a version's summary fields into {@code node}: the shape {@code pressmark versions --json} starts from too. */
+    public static ObjectNode putSummary(ObjectNode node, Version v) {
+        return node
                 .put("tag", v.tag())
                 .put("sha256", v.sha256())
                 .put("size", v.sizeBytes())

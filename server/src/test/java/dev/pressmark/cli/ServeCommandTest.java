@@ -2,87 +2,32 @@ package dev.pressmark.cli;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import java.io.BufferedReader;
-import java.io.ByteArrayOutputStream;
+import dev.pressmark.server.ServeProcess;
 import java.io.IOException;
-import java.io.InputStreamReader;
-import java.io.UncheckedIOException;
 import java.net.InetAddress;
 import java.net.ServerSocket;
 import java.net.URI;
 import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
 import java.net.http.HttpResponse;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
-import java.util.ArrayList;
-import java.util.List;
-import java.util.concurrent.CompletableFuture;
-import java.util.concurrent.TimeUnit;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
+import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 /** {@code pressmark serve} in a child JVM, as an operator starts it. */
 class ServeCommandTest {
 
-    private static final Pattern LISTENING = Pattern.compile("serving on http://127\\.0\\.0\\.1:(\\d+)");
     private static final Duration TIMEOUT = Duration.ofSeconds(60);
 
     @TempDir
     Path dir;
 
-    /** A started server process, its port, and what it wrote to stderr so far. */
-    private record Child(Process process, int port, CompletableFuture<String> err) implements AutoCloseable {
-        @Override
-        public void close() {
-            // Through the handle: Process.destroy() also closes the pipes, which can cut off the stderr reader mid-read.
-            process.toHandle().destroy();
-            try {
-                if (!process.waitFor(30, TimeUnit.SECONDS)) {
-                    process.destroyForcibly();
-                }
-            } catch (InterruptedException e) {
-                process.destroyForcibly();
-                Thread.currentThread().interrupt();
-            }
-        }
-    }
-
-    private Child serve(String adminTokenEnv, String... args) throws IOException {
-        List<String> command = new ArrayList<>(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(),
-                "-cp", System.getProperty("java.class.path"), Main.class.getName(), "serve", "--port", "0",
-                "--store", "sqlite:" + dir.resolve("store.db")));
-        command.addAll(List.of(args));
-        ProcessBuilder builder = new ProcessBuilder(command).directory(dir.toFile());
-        builder.environment().remove("PRESSMARK_ADMIN_TOKEN");
-        if (adminTokenEnv != null) {
-            builder.environment().put("PRESSMARK_ADMIN_TOKEN", adminTokenEnv);
-        }
-        Process process = builder.start();
-        CompletableFuture<String> err = CompletableFuture.supplyAsync(() -> {
-            try (ByteArrayOutputStream buffer = new ByteArrayOutputStream()) {
-                process.getErrorStream().transferTo(buffer);
-                return buffer.toString(StandardCharsets.UTF_8);
-            } catch (IOException e) {
-                throw new UncheckedIOException(e);
-            }
-        });
-        BufferedReader out = new BufferedReader(new InputStreamReader(process.getInputStream(), StandardCharsets.UTF_8));
-        String line = CompletableFuture.supplyAsync(() -> {
-            try {
-                return out.readLine();
-            } catch (IOException e) {
-                throw new UncheckedIOException(e);
-            }
-        }).orTimeout(TIMEOUT.toSeconds(), TimeUnit.SECONDS).join();
-        assertThat(line).as("first line of stdout").isNotNull();
-        Matcher m = LISTENING.matcher(line);
-        assertThat(m.find()).as(line).isTrue();
-        return new Child(process, Integer.parseInt(m.group(1)), err);
+    private ServeProcess serve(String adminTokenEnv, String... args) {
+        Map<String, String> env = adminTokenEnv == null ? Map.of() : Map.of("PRESSMARK_ADMIN_TOKEN", adminTokenEnv);
+        return ServeProcess.serve(dir, "sqlite:" + dir.resolve("store.db"), env, args);
     }
 
     private static HttpResponse<String> send(HttpRequest.Builder request) throws IOException, InterruptedException {
@@ -97,27 +42,27 @@ class ServeCommandTest {
     @Test
     void serves_health_and_takes_the_admin_token_from_the_environment_without_logging_it() throws Exception {
         String token = "env-token-5f1c";
-        Child child = serve(token);
+        ServeProcess child = serve(token);
         try (child) {
-            HttpResponse<String> health = send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + child.port() + "/health")));
+            HttpResponse<String> health = send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + child.port + "/health")));
             assertThat(health.statusCode()).isEqualTo(200);
             assertThat(health.body()).isEqualTo("{\"status\":\"up\"}");
-            assertThat(send(rollback(child.port())).statusCode()).isEqualTo(401);
+            assertThat(send(rollback(child.port)).statusCode()).isEqualTo(401);
             // authorised, so it reaches the store, which has no such model
-            assertThat(send(rollback(child.port()).header("Authorization", "Bearer " + token)).statusCode()).isEqualTo(404);
+            assertThat(send(rollback(child.port).header("Authorization", "Bearer " + token)).statusCode()).isEqualTo(404);
         }
-        assertThat(child.err().get(30, TimeUnit.SECONDS)).contains("admin endpoints enabled").doesNotContain(token);
+        assertThat(child.stderr()).contains("admin endpoints enabled").doesNotContain(token);
     }
 
     @Test
     void reads_the_admin_token_from_a_file_and_without_one_turns_the_admin_endpoints_off() throws Exception {
         Path file = dir.resolve("admin.token");
         Files.writeString(file, "file-token-9a2e\n");
-        try (Child child = serve(null, "--admin-token-file", file.toString())) {
-            assertThat(send(rollback(child.port()).header("Authorization", "Bearer file-token-9a2e")).statusCode()).isEqualTo(404);
+        try (ServeProcess child = serve(null, "--admin-token-file", file.toString())) {
+            assertThat(send(rollback(child.port).header("Authorization", "Bearer file-token-9a2e")).statusCode()).isEqualTo(404);
         }
-        try (Child child = serve(null)) {
-            HttpResponse<String> off = send(rollback(child.port()).header("Authorization", "Bearer file-token-9a2e"));
+        try (ServeProcess child = serve(null)) {
+            HttpResponse<String> off = send(rollback(child.port).header("Authorization", "Bearer file-token-9a2e"));
             assertThat(off.statusCode()).isEqualTo(403);
             assertThat(off.body()).contains("--admin-token-file");
         }
@@ -125,19 +70,19 @@ class ServeCommandTest {
 
     @Test
     void writes_the_access_log_to_stderr_by_default_and_not_with_no_access_log() throws Exception {
-        Child on = serve(null);
+        ServeProcess on = serve(null);
         try (on) {
             // two requests, so that the first one's line is surely written before the process is stopped
-            assertThat(send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + on.port() + "/health"))).statusCode()).isEqualTo(200);
-            assertThat(send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + on.port() + "/metrics"))).statusCode()).isEqualTo(200);
+            assertThat(send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + on.port + "/health"))).statusCode()).isEqualTo(200);
+            assertThat(send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + on.port + "/metrics"))).statusCode()).isEqualTo(200);
         }
-        assertThat(on.err().get(30, TimeUnit.SECONDS)).containsPattern("INFO dev\\.pressmark\\.access - method=GET path=/health status=200 ms=\\d+\\.\\d\\d\n");
-        Child off = serve(null, "--no-access-log");
+        assertThat(on.stderr()).containsPattern("INFO dev\\.pressmark\\.access - method=GET path=/health status=200 ms=\\d+\\.\\d\\d\n");
+        ServeProcess off = serve(null, "--no-access-log");
         try (off) {
-            assertThat(send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + off.port() + "/health"))).statusCode()).isEqualTo(200);
-            assertThat(send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + off.port() + "/metrics"))).statusCode()).isEqualTo(200);
+            assertThat(send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + off.port + "/health"))).statusCode()).isEqualTo(200);
+            assertThat(send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + off.port + "/metrics"))).statusCode()).isEqualTo(200);
         }
-        assertThat(off.err().get(30, TimeUnit.SECONDS)).contains("listening on").doesNotContain("dev.pressmark.access");
+        assertThat(off.stderr()).contains("listening on").doesNotContain("dev.pressmark.access");
     }
 
     @Test

@@ -11,7 +11,6 @@ import java.time.Duration;
 import java.util.List;
 import java.util.Optional;
 import org.junit.jupiter.api.AfterEach;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -29,18 +28,13 @@ class AccessLogServedTest {
     private static final Duration SETTLE = Duration.ofSeconds(10);
     private static final long POLL_MS = 20;
 
-    private static byte[] svm;
+    private static final byte[] svm = TestBundles.svm();
 
     @TempDir
     Path dir;
 
     private final ByteArrayOutputStream captured = new ByteArrayOutputStream();
     private PrintStream originalErr;
-
-    @BeforeAll
-    static void train(@TempDir Path trainDir) {
-        svm = TestBundles.train(trainDir.resolve("svm"), 1, "classifier: {kind: linear-svm, probabilities: platt}");
-    }
 
     @BeforeEach
     void capture() {
@@ -55,7 +49,7 @@ class AccessLogServedTest {
 
     @Test
     void each_request_gives_one_line_with_its_fields_and_no_secret() throws InterruptedException {
-        ServerConfig config = ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN)))
+        ServerConfig config = Served.config()
                 .withReaderToken(Optional.of(BearerToken.of(Served.READER)));
         String[] asReader = {"Authorization", "Bearer " + Served.READER, "X-Api-Key", HEADER_SECRET};
         try (Served s = Served.on(dir, config)) {

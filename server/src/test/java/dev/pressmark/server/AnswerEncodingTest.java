@@ -18,7 +18,6 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.zip.GZIPInputStream;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -31,15 +30,10 @@ class AnswerEncodingTest {
 
     private static final ObjectMapper JSON = new ObjectMapper();
     private static final Duration TIMEOUT = Duration.ofSeconds(30);
-    private static byte[] bundle;
+    private static final byte[] bundle = TestBundles.train(4, "classifier: {kind: linear-svm, probabilities: platt}");
 
     @TempDir
     Path dir;
-
-    @BeforeAll
-    static void train(@TempDir Path trainDir) {
-        bundle = TestBundles.train(trainDir, 4, "classifier: {kind: linear-svm, probabilities: platt}");
-    }
 
     @Test
     void a_one_item_answer_goes_out_plain_with_its_length_and_scores_that_read_back_exactly() throws Exception {

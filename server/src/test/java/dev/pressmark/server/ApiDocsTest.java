@@ -53,7 +53,7 @@ class ApiDocsTest {
 
     @BeforeAll
     static void train(@TempDir Path trainDir) throws IOException {
-        threeLabels = TestBundles.train(trainDir.resolve("three"), 1, "classifier: {kind: linear-svm, probabilities: platt}");
+        threeLabels = TestBundles.svm();
         twoLabels = twoDepartments(trainDir.resolve("two"));
     }
 
@@ -185,7 +185,7 @@ class ApiDocsTest {
 
     @Test
     void the_documents_are_open_and_reading_operations_say_they_need_the_token_when_the_server_has_one() {
-        ServerConfig config = ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN)))
+        ServerConfig config = Served.config()
                 .withReaderToken(Optional.of(BearerToken.of(Served.READER)));
         try (Served s = Served.on(dir, config)) {
             s.serving(threeLabels);

@@ -8,7 +8,6 @@ import java.net.http.HttpResponse;
 import java.nio.file.Path;
 import java.util.Optional;
 import java.util.regex.Pattern;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -16,22 +15,17 @@ import org.junit.jupiter.api.io.TempDir;
 class ConsoleTest {
 
     private static final String CHARTS = "/console/models/routing/versions/1.0.0/charts.svg";
-    private static byte[] svm;
+    private static final byte[] svm = TestBundles.svm();
 
     @TempDir
     Path dir;
-
-    @BeforeAll
-    static void train(@TempDir Path trainDir) {
-        svm = TestBundles.train(trainDir, 1, "classifier: {kind: linear-svm, probabilities: platt}");
-    }
 
     private Served served(ServerConfig config) {
         return Served.on(dir, config).serving(svm);
     }
 
     private Served served() {
-        return served(ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN))));
+        return served(Served.config());
     }
 
     private static HttpResponse<String> raw(Served s, String path, String... headers) throws Exception {
@@ -126,7 +120,7 @@ class ConsoleTest {
 
     @Test
     void with_a_reader_token_the_page_still_loads_but_the_charts_need_the_token() throws Exception {
-        ServerConfig config = ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN)))
+        ServerConfig config = Served.config()
                 .withReaderToken(Optional.of(BearerToken.of(Served.READER)));
         try (Served s = served(config)) {
             HttpResponse<String> page = raw(s, "/");

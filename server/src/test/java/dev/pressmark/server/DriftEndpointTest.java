@@ -9,7 +9,6 @@ import java.time.Duration;
 import java.util.Map;
 import java.util.Optional;
 import java.util.SplittableRandom;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -20,34 +19,15 @@ class DriftEndpointTest {
     private static final int REQUESTS = 20;
     private static final int ITEMS_PER_REQUEST = 100;
 
-    private static byte[] first;
-    private static byte[] second;
+    private static final byte[] first = TestBundles.svm();
+    private static final byte[] second = TestBundles.logistic();
 
     @TempDir
     Path dir;
 
-    @BeforeAll
-    static void train(@TempDir Path trainDir) {
-        first = TestBundles.train(trainDir.resolve("a"), 1, "classifier: {kind: linear-svm, probabilities: platt}");
-        second = TestBundles.train(trainDir.resolve("b"), 2, "classifier: {kind: logistic-regression}");
-    }
-
     private Served serve() {
-        return Served.on(dir, ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN)))
+        return Served.on(dir, Served.config()
                 .withDriftSample(1.0).withAccessLog(false)).serving(first);
-    }
-
-    /** Titles made as the training titles were: brand syllables, a department word, a shared word. */
-    private static String likeTraining(SplittableRandom random) {
-        String[][] parts = {
-            {"aqua", "flow", "valve", "pipe", "drain"},
-            {"volt", "amp", "switch", "outlet", "breaker"},
-            {"fern", "leaf", "hose", "rake", "planter"},
-        };
-        String[] shared = {"pro", "kit", "pack", "steel", "black"};
-        int k = random.nextInt(3);
-        return parts[k][random.nextInt(2)] + parts[random.nextInt(3)][random.nextInt(2)] + " " + parts[k][2 + random.nextInt(3)] + " "
-                + shared[random.nextInt(shared.length)];
     }
 
     /** Words and letters the model never saw. */
@@ -87,7 +67,7 @@ class DriftEndpointTest {
     @Test
     void traffic_like_the_training_rows_is_ok() throws InterruptedException {
         try (Served s = serve()) {
-            send(s, DriftEndpointTest::likeTraining);
+            send(s, random -> TestBundles.title(random, random.nextInt(3)));
             JsonNode drift = awaitWindow(s, REQUESTS * ITEMS_PER_REQUEST);
             assertThat(drift.get("model").asText()).isEqualTo("routing");
             assertThat(drift.get("version").asText()).isEqualTo("1.0.0");
@@ -136,7 +116,7 @@ class DriftEndpointTest {
             Scrape scrape = Scrape.of(s.http.get("/metrics").body());
             assertThat(scrape.gauges("pressmark_drift_window_items")).containsOnlyKeys(Map.of("model", "routing", "version", "2.0.0"));
 
-            send(s, DriftEndpointTest::likeTraining);
+            send(s, random -> TestBundles.title(random, random.nextInt(3)));
             JsonNode after = awaitWindow(s, REQUESTS * ITEMS_PER_REQUEST);
             assertThat(after.get("version").asText()).isEqualTo("2.0.0");
             assertThat(after.get("status").asText()).isEqualTo("ok");

@@ -19,7 +19,6 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
-import java.util.Optional;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
@@ -56,8 +55,8 @@ class HostileRequestsTest {
 
     @BeforeAll
     static void start() {
-        bundle = TestBundles.train(dir.resolve("train"), 3, "classifier: {kind: linear-svm, probabilities: platt}");
-        served = Served.on(dir, ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN))));
+        bundle = TestBundles.train(3, "classifier: {kind: linear-svm, probabilities: platt}");
+        served = Served.on(dir, Served.config());
         served.serving(bundle);
     }
 

@@ -21,7 +21,6 @@ import java.util.concurrent.Future;
 import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.concurrent.atomic.AtomicLong;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -36,30 +35,18 @@ class HotSwapTest {
     private static final String TITLE = "voltamp outlet pro";
     private static final String ONE_ITEM = "{\"items\":[{\"title\":\"" + TITLE + "\"}]}";
 
-    private static byte[] first;
-    private static byte[] second;
+    private static final byte[] first = TestBundles.svm();
+    private static final byte[] second = TestBundles.logistic();
 
     @TempDir
     Path dir;
-
-    @BeforeAll
-    static void train(@TempDir Path trainDir) {
-        first = TestBundles.train(trainDir.resolve("a"), 1, "classifier: {kind: linear-svm, probabilities: platt}");
-        second = TestBundles.train(trainDir.resolve("b"), 2, "classifier: {kind: logistic-regression}");
-    }
-
-    private static String servedVersion(Served s) {
-        Http.Answer answer = s.http.postJson("/models/routing/predict", ONE_ITEM);
-        assertThat(answer.status()).as(answer.body()).isEqualTo(200);
-        return answer.json().get("version").asText();
-    }
 
     /** Polls until the server serves {@code tag}; returns how long that took. */
     private static Duration awaitServed(Served s, String tag, Duration limit) throws InterruptedException {
         long start = System.nanoTime();
         long deadline = start + limit.toNanos() * 3;
         while (System.nanoTime() < deadline) {
-            if (servedVersion(s).equals(tag)) {
+            if (s.servedVersion().equals(tag)) {
                 return Duration.ofNanos(System.nanoTime() - start);
             }
             Thread.sleep(20);
@@ -110,7 +97,7 @@ class HotSwapTest {
             assertThat(ready.at("/models/routing/serving").asText()).isEqualTo("1.0.0");
             assertThat(ready.at("/models/routing/failed_tag").asText()).isEqualTo("2.0.0");
             assertThat(ready.at("/models/routing/error").asText()).isNotBlank();
-            assertThat(servedVersion(s)).isEqualTo("1.0.0");
+            assertThat(s.servedVersion()).isEqualTo("1.0.0");
 
             cli.activate("routing", "1.0.0", "cli", "back to the good one");
             deadline = System.nanoTime() + PICKED_UP_WITHIN.toNanos() * 3;

@@ -5,7 +5,6 @@ import static org.assertj.core.api.Assertions.assertThat;
 import com.fasterxml.jackson.databind.JsonNode;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -15,15 +14,10 @@ import org.junit.jupiter.api.io.TempDir;
  */
 class JsonBodyEncodingTest {
 
-    private static byte[] bundle;
+    private static final byte[] bundle = TestBundles.svm();
 
     @TempDir
     Path dir;
-
-    @BeforeAll
-    static void train(@TempDir Path trainDir) {
-        bundle = TestBundles.train(trainDir, 1, "classifier: {kind: linear-svm, probabilities: platt}");
-    }
 
     @Test
     void a_body_that_the_parser_takes_for_utf32_but_cannot_decode_is_malformed_json() {

@@ -12,7 +12,6 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.Optional;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -21,16 +20,11 @@ class LimitsTest {
 
     private static final String PREDICT = "/models/routing/predict";
     private static final String GOOD = "{\"items\":[{\"title\":\"aqua valve\"}]}";
-    private static byte[] bundle;
+    private static final byte[] bundle = TestBundles.train(4, "classifier: {kind: linear-svm, probabilities: platt}");
 
     @TempDir
     Path dir;
     private int stores;
-
-    @BeforeAll
-    static void train(@TempDir Path trainDir) {
-        bundle = TestBundles.train(trainDir, 4, "classifier: {kind: linear-svm, probabilities: platt}");
-    }
 
     private Served served(ServerConfig config) {
         // a store of its own for each server a test starts

@@ -37,7 +37,7 @@ public final class LiveFixture implements AutoCloseable {
 
     /** Trains, publishes and activates the models in a store under {@code dir}, then starts a server on a free port. */
     public static LiveFixture start(Path dir) {
-        byte[] bundle = TestBundles.train(dir.resolve("train"), 1, "classifier: {kind: linear-svm, probabilities: platt}");
+        byte[] bundle = TestBundles.svm();
         BundleStore store = BundleStore.open("sqlite:" + dir.resolve("store.db"));
         try {
             for (String model : List.of(MODEL, SECOND_MODEL)) {

@@ -11,7 +11,6 @@ import java.util.Map;
 import java.util.TreeMap;
 import org.hawkular.agent.prometheus.types.Histogram;
 import org.hawkular.agent.prometheus.types.Summary;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -31,17 +30,11 @@ class MetricsEndpointTest {
     private static final Duration SETTLE = Duration.ofSeconds(10);
     private static final long POLL_MS = 20;
 
-    private static byte[] svm;
-    private static byte[] logistic;
+    private static final byte[] svm = TestBundles.svm();
+    private static final byte[] logistic = TestBundles.logistic();
 
     @TempDir
     Path dir;
-
-    @BeforeAll
-    static void train(@TempDir Path trainDir) {
-        svm = TestBundles.train(trainDir.resolve("svm"), 1, "classifier: {kind: linear-svm, probabilities: platt}");
-        logistic = TestBundles.train(trainDir.resolve("lr"), 2, "classifier: {kind: logistic-regression}");
-    }
 
     @Test
     void the_scrape_is_prometheus_text_format_with_process_and_jvm_meters() {

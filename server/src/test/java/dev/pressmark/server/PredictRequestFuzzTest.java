@@ -51,7 +51,7 @@ final class PredictRequestFuzzTest {
         try {
             Path dir = Files.createTempDirectory("pressmark-fuzz");
             try {
-                byte[] file = TestBundles.train(dir, 1, "classifier: {kind: linear-svm, probabilities: platt}");
+                byte[] file = TestBundles.svm();
                 Bundle bundle = Bundle.read(file);
                 String manifest = BundleArchive.read(file).manifestJson();
                 Version version = new Version(MODEL, "1.0.0", "0".repeat(64), file.length, Instant.EPOCH, manifest, true, false);

@@ -9,7 +9,6 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.Optional;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -20,22 +19,17 @@ import org.junit.jupiter.api.io.TempDir;
  */
 class ProblemDetailsTest {
 
-    private static byte[] bundle;
+    private static final byte[] bundle = TestBundles.svm();
 
     @TempDir
     Path dir;
-
-    @BeforeAll
-    static void train(@TempDir Path trainDir) {
-        bundle = TestBundles.train(trainDir, 1, "classifier: {kind: linear-svm, probabilities: platt}");
-    }
 
     private Served served(ServerConfig config) {
         return Served.on(dir, config).serving(bundle);
     }
 
     private Served served() {
-        return served(ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN))).withMaxItems(3));
+        return served(Served.config().withMaxItems(3));
     }
 
     /** Checks the RFC 9457 members and returns the body. */
@@ -127,7 +121,7 @@ class ProblemDetailsTest {
 
     @Test
     void with_a_reader_token_the_reading_endpoints_need_it_and_health_stays_open() {
-        ServerConfig config = ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN)))
+        ServerConfig config = Served.config()
                 .withReaderToken(Optional.of(BearerToken.of(Served.READER)));
         try (Served s = served(config)) {
             problem(s.http.get("/models"), 401, "/models");
@@ -177,7 +171,7 @@ class ProblemDetailsTest {
 
     @Test
     void a_bundle_over_its_limit_is_a_413_whether_or_not_its_length_was_declared() {
-        ServerConfig config = ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN)))
+        ServerConfig config = Served.config()
                 .withBodyLimits(ServerConfig.DEFAULT_MAX_JSON_BYTES, bundle.length - 1);
         try (Served s = served(config)) {
             problem(s.http.put("/models/routing/versions/2.0.0", "application/octet-stream", bundle, Served.AS_ADMIN), 413,

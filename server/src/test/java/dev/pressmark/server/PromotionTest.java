@@ -30,9 +30,9 @@ class PromotionTest {
     Path dir;
 
     @BeforeAll
-    static void train(@TempDir Path trainDir) throws Exception {
-        good = TestBundles.train(trainDir.resolve("a"), 1, "classifier: {kind: linear-svm, probabilities: platt}");
-        weak = TestBundles.train(trainDir.resolve("w"), 1, "classifier: {kind: linear-svm, c: 0.00001, probabilities: none}");
+    static void train() throws Exception {
+        good = TestBundles.svm();
+        weak = TestBundles.train(1, "classifier: {kind: linear-svm, c: 0.00001, probabilities: none}");
         goodValue = metric(good);
         weakValue = metric(weak);
         assertThat(goodValue - weakValue).as("the weak build must be clearly worse for these tests to mean anything").isGreaterThan(0.03);
@@ -44,20 +44,12 @@ class PromotionTest {
     }
 
     private static Served serving(Path dir, ServerConfig config) {
-        Served s = Served.on(dir, config);
-        s.store.publish("routing", "1.0.0", good, "test");
-        s.store.publish("routing", "0.9.0", weak, "test");
-        s.store.activate("routing", "1.0.0", "test", "first");
-        return s;
-    }
-
-    private static ServerConfig config() {
-        return ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN)));
+        return Served.on(dir, config).serving(good).publishing("0.9.0", weak);
     }
 
     @Test
     void activating_a_clearly_worse_version_over_http_is_a_409_naming_the_metric_both_values_and_the_margin() {
-        try (Served s = serving(dir, config())) {
+        try (Served s = serving(dir, Served.config())) {
             Http.Answer refused = s.http.putJson("/models/routing/active", "{\"tag\":\"0.9.0\"}", Served.AS_ADMIN);
             assertThat(refused.status()).as(refused.body()).isEqualTo(409);
             assertThat(refused.contentType()).startsWith("application/problem+json");
@@ -78,7 +70,7 @@ class PromotionTest {
 
     @Test
     void forcing_needs_a_reason_and_then_records_it_with_the_failed_check_in_the_events() {
-        try (Served s = serving(dir, config())) {
+        try (Served s = serving(dir, Served.config())) {
             Http.Answer noReason = s.http.putJson("/models/routing/active", "{\"tag\":\"0.9.0\",\"force\":true}", Served.AS_ADMIN);
             assertThat(noReason.status()).isEqualTo(400);
             assertThat(noReason.json().at("/errors/0/field").asText()).isEqualTo("reason");
@@ -106,7 +98,7 @@ class PromotionTest {
     @Test
     void a_wider_margin_from_the_server_config_lets_the_same_activation_through() {
         PromotionPolicy lenient = PromotionPolicy.defaults().withMaxDrop(1.0);
-        try (Served s = serving(dir, config().withPromotion(lenient))) {
+        try (Served s = serving(dir, Served.config().withPromotion(lenient))) {
             Http.Answer answer = s.http.putJson("/models/routing/active", "{\"tag\":\"0.9.0\"}", Served.AS_ADMIN);
             assertThat(answer.status()).as(answer.body()).isEqualTo(200);
             assertThat(answer.json().at("/promotion_check/passed").asBoolean()).isTrue();
@@ -116,7 +108,7 @@ class PromotionTest {
     @Test
     void a_shadow_that_agreed_too_rarely_refuses_the_candidate_when_a_least_agreement_is_configured() throws Exception {
         PromotionPolicy strict = PromotionPolicy.defaults().withMaxDrop(1.0).withMinAgreement(0.99).withMinSamples(20);
-        try (Served s = serving(dir, config().withPromotion(strict))) {
+        try (Served s = serving(dir, Served.config().withPromotion(strict))) {
             assertThat(s.http.putJson("/models/routing/shadow", "{\"tag\":\"0.9.0\",\"fraction\":1.0}", Served.AS_ADMIN).status()).isEqualTo(200);
             for (int i = 0; i < 10; i++) {
                 s.http.postJson("/models/routing/predict", ShadowScoringTest.items(5, i));
@@ -138,7 +130,7 @@ class PromotionTest {
 
     @Test
     void the_command_line_refuses_with_exit_1_naming_the_metric_both_values_and_the_margin_and_forces_only_with_a_reason() throws Exception {
-        try (Served s = serving(dir, config())) {
+        try (Served s = serving(dir, Served.config())) {
             ServeProcess.Finished refused = ServeProcess.runCapturing(dir, "activate", "routing", "0.9.0", "--store", s.storeUrl);
             assertThat(refused.exitCode()).as(refused.err()).isEqualTo(1);
             assertThat(refused.err()).startsWith("pressmark: not activating routing 0.9.0: balanced_accuracy")
@@ -164,7 +156,7 @@ class PromotionTest {
 
     @Test
     void the_command_line_shadow_reaches_a_running_server_and_shadow_report_reads_the_stored_reports() throws Exception {
-        try (Served s = serving(dir, config())) {
+        try (Served s = serving(dir, Served.config())) {
             ServeProcess.Finished started = ServeProcess.runCapturing(dir, "shadow", "routing", "0.9.0", "--fraction", "1", "--store", s.storeUrl);
             assertThat(started.exitCode()).as(started.err()).isZero();
             assertThat(started.out()).contains("shadowing routing 0.9.0 against the active 1.0.0");

@@ -50,8 +50,8 @@ class ReplicasOnPostgresTest {
         byte[] first;
         byte[] second;
         try {
-            first = TestBundles.train(dir.resolve("a"), 1, "classifier: {kind: linear-svm, probabilities: platt}");
-            second = TestBundles.train(dir.resolve("b"), 2, "classifier: {kind: logistic-regression}");
+            first = TestBundles.svm();
+            second = TestBundles.logistic();
         } catch (RuntimeException | Error e) {
             starting.thenAccept(ReplicasOnPostgresTest::stopPostgres);
             throw e;

@@ -5,7 +5,6 @@ import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.Optional;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -27,8 +26,8 @@ class RequestDeadlineTest {
     Path dir;
 
     @BeforeAll
-    static void train(@TempDir Path trainDir) {
-        bundle = TestBundles.train(trainDir, 4, "classifier: {kind: linear-svm, probabilities: platt}");
+    static void train() {
+        bundle = TestBundles.train(4, "classifier: {kind: linear-svm, probabilities: platt}");
         StringBuilder body = new StringBuilder("{\"items\":[");
         for (int i = 0; i < ITEMS; i++) {
             body.append(i == 0 ? "" : ",").append("{\"title\":\"");
@@ -47,7 +46,7 @@ class RequestDeadlineTest {
     @Test
     void a_predict_or_explain_past_the_deadline_is_a_503_and_frees_its_admission_slot() throws Exception {
         // one slot: had a timed-out request kept it, the next would be refused as busy instead
-        ServerConfig config = ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN)))
+        ServerConfig config = Served.config()
                 .withMaxConcurrent(1).withRequestTimeoutMs(1);
         try (Served s = served("short", config)) {
             for (String path : new String[] {"/models/routing/predict", "/models/routing/explain", "/models/routing/versions/1.0.0/predict",

@@ -23,25 +23,32 @@ import java.util.regex.Pattern;
  * {@code pressmark} in a child JVM, as an operator runs it: {@link #serve} starts a service and
  * reads its port from the line it prints; {@link #run} runs a command to its end.
  */
-final class ServeProcess implements AutoCloseable {
+public final class ServeProcess implements AutoCloseable {
 
     private static final Pattern LISTENING = Pattern.compile("serving on http://127\\.0\\.0\\.1:(\\d+)");
     private static final Duration STARTED_WITHIN = Duration.ofSeconds(60);
     private static final Duration STOPPED_WITHIN = Duration.ofSeconds(30);
 
     private final Process process;
-    final int port;
+    private final CompletableFuture<String> err;
+    public final int port;
     final Http http;
 
-    private ServeProcess(Process process, int port) {
+    private ServeProcess(Process process, int port, CompletableFuture<String> err) {
         this.process = process;
         this.port = port;
+        this.err = err;
         this.http = new Http(port);
     }
 
-    /** Starts {@code pressmark serve --port 0 --store URL} with {@code env} added to the environment. */
-    static ServeProcess serve(Path dir, String storeUrl, Map<String, String> env) {
-        Process process = start(dir, env, "serve", "--port", "0", "--store", storeUrl);
+    /**
+     * Starts {@code pressmark serve --port 0 --store URL}, then {@code extraArgs}, with {@code env}
+     * added to the environment (and neither token nor store taken from this JVM's environment).
+     */
+    public static ServeProcess serve(Path dir, String storeUrl, Map<String, String> env, String... extraArgs) {
+        List<String> args = new ArrayList<>(List.of("serve", "--port", "0", "--store", storeUrl));
+        args.addAll(List.of(extraArgs));
+        Process process = start(dir, env, args.toArray(String[]::new));
         CompletableFuture<String> err = collect(process);
         try {
             BufferedReader out = new BufferedReader(new InputStreamReader(process.getInputStream(), StandardCharsets.UTF_8));
@@ -55,7 +62,7 @@ final class ServeProcess implements AutoCloseable {
             assertThat(line).as("first line of stdout").isNotNull();
             Matcher m = LISTENING.matcher(line);
             assertThat(m.find()).as(line).isTrue();
-            return new ServeProcess(process, Integer.parseInt(m.group(1)));
+            return new ServeProcess(process, Integer.parseInt(m.group(1)), err);
         } catch (RuntimeException | AssertionError e) {
             stop(process);
             throw new AssertionError("pressmark serve did not start; stderr:\n"
@@ -156,6 +163,12 @@ final class ServeProcess implements AutoCloseable {
             process.destroyForcibly();
             Thread.currentThread().interrupt();
         }
+    }
+
+    /** Stops the service if it still runs and returns all it wrote to stderr. */
+    public String stderr() {
+        stop(process);
+        return err.completeOnTimeout("(stderr not closed within " + STOPPED_WITHIN + ")", STOPPED_WITHIN.toSeconds(), TimeUnit.SECONDS).join();
     }
 
     @Override

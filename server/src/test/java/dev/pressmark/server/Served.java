@@ -1,5 +1,7 @@
 package dev.pressmark.server;
 
+import static org.assertj.core.api.Assertions.assertThat;
+
 import dev.pressmark.store.BundleStore;
 import java.nio.file.Path;
 import java.util.Optional;
@@ -23,9 +25,14 @@ final class Served implements AutoCloseable {
         this.http = new Http(server.port());
     }
 
+    /** The config {@link #on(Path)} serves with: a free loopback port, the admin token, no reader token. */
+    static ServerConfig config() {
+        return ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(ADMIN)));
+    }
+
     /** With the admin token and no reader token. */
     static Served on(Path dir) {
-        return on(dir, ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(ADMIN))));
+        return on(dir, config());
     }
 
     static Served on(Path dir, ServerConfig config) {
@@ -44,6 +51,19 @@ final class Served implements AutoCloseable {
         store.publish("routing", "1.0.0", bundle, "test");
         store.activate("routing", "1.0.0", "test", "first");
         return this;
+    }
+
+    /** Publishes {@code bundle} as routing {@code tag} without activating it. */
+    Served publishing(String tag, byte[] bundle) {
+        store.publish("routing", tag, bundle, "test");
+        return this;
+    }
+
+    /** The version that answers a one-item predict on routing now; the predict must answer 200. */
+    String servedVersion() {
+        Http.Answer answer = http.postJson("/models/routing/predict", "{\"items\":[{\"title\":\"voltamp outlet pro\"}]}");
+        assertThat(answer.status()).as(answer.body()).isEqualTo(200);
+        return answer.json().get("version").asText();
     }
 
     @Override

@@ -20,7 +20,6 @@ import java.util.TreeMap;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
 import java.util.function.Predicate;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -31,17 +30,11 @@ class ShadowScoringTest {
     private static final String[] WORDS = {"aqua", "flow", "valve", "pipe", "drain", "volt", "amp", "switch", "outlet", "breaker", "fern", "leaf",
         "hose", "rake", "planter", "pro", "kit", "pack", "steel", "black"};
 
-    private static byte[] first;
-    private static byte[] second;
+    private static final byte[] first = TestBundles.svm();
+    private static final byte[] second = TestBundles.logistic();
 
     @TempDir
     Path dir;
-
-    @BeforeAll
-    static void train(@TempDir Path trainDir) {
-        first = TestBundles.train(trainDir.resolve("a"), 1, "classifier: {kind: linear-svm, probabilities: platt}");
-        second = TestBundles.train(trainDir.resolve("b"), 2, "classifier: {kind: logistic-regression}");
-    }
 
     /** Titles of three random words: many of them mix departments, so the two versions disagree on some. */
     static String items(int count, long seed) {
@@ -57,15 +50,7 @@ class ShadowScoringTest {
     }
 
     private static Served servingTwo(Path dir, ServerConfig config) {
-        Served s = Served.on(dir, config);
-        s.store.publish("routing", "1.0.0", first, "test");
-        s.store.publish("routing", "1.1.0", second, "test");
-        s.store.activate("routing", "1.0.0", "test", "first");
-        return s;
-    }
-
-    private static ServerConfig config() {
-        return ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN)));
+        return Served.on(dir, config).serving(first).publishing("1.1.0", second);
     }
 
     private static JsonNode awaitReport(Served s, Predicate<JsonNode> done, Duration limit) throws InterruptedException {
@@ -93,7 +78,7 @@ class ShadowScoringTest {
 
     @Test
     void at_fraction_one_every_item_is_scored_and_the_agreement_is_what_the_named_version_endpoint_gives() throws Exception {
-        try (Served s = servingTwo(dir, config())) {
+        try (Served s = servingTwo(dir, Served.config())) {
             Http.Answer started = s.http.putJson("/models/routing/shadow", "{\"tag\":\"1.1.0\",\"fraction\":1.0}", Served.AS_ADMIN);
             assertThat(started.status()).as(started.body()).isEqualTo(200);
             assertThat(started.json().get("running").asBoolean()).isTrue();
@@ -149,7 +134,7 @@ class ShadowScoringTest {
     void at_fraction_one_fifth_the_sampled_count_is_within_five_standard_deviations_of_the_binomial_mean() throws Exception {
         int requests = 400;
         double fraction = 0.2;
-        try (Served s = servingTwo(dir, config())) {
+        try (Served s = servingTwo(dir, Served.config())) {
             assertThat(s.http.putJson("/models/routing/shadow", "{\"tag\":\"1.1.0\",\"fraction\":0.2}", Served.AS_ADMIN).status()).isEqualTo(200);
             String one = items(1, 99);
             for (int i = 0; i < requests; i++) {
@@ -168,7 +153,7 @@ class ShadowScoringTest {
     @Test
     void a_stuck_and_a_failing_listener_never_slow_or_fail_a_live_answer_and_the_dropped_samples_are_counted() throws Exception {
         CountDownLatch release = new CountDownLatch(1);
-        try (Served s = servingTwo(dir, config().withTapCapacity(2))) {
+        try (Served s = servingTwo(dir, Served.config().withTapCapacity(2))) {
             String body = items(3, 7);
             Http.Answer reference = s.http.postJson("/models/routing/predict", body);
             s.server.tap().register((model, tag, served, items, results) -> {
@@ -210,7 +195,7 @@ class ShadowScoringTest {
 
     @Test
     void a_shadow_started_through_another_store_handle_is_picked_up_within_two_seconds_and_its_report_reaches_the_store() throws Exception {
-        try (Served s = servingTwo(dir, config()); var cli = dev.pressmark.store.BundleStore.open(s.storeUrl)) {
+        try (Served s = servingTwo(dir, Served.config()); var cli = dev.pressmark.store.BundleStore.open(s.storeUrl)) {
             assertThat(s.http.get("/models/routing/shadow").status()).isEqualTo(404);
             long start = System.nanoTime();
             cli.startShadow("routing", "1.1.0", 1.0, "cli");
@@ -243,7 +228,7 @@ class ShadowScoringTest {
 
     @Test
     void bad_shadow_bodies_and_states_are_problem_details_naming_the_field() {
-        try (Served s = servingTwo(dir, config())) {
+        try (Served s = servingTwo(dir, Served.config())) {
             Http.Answer noTag = s.http.putJson("/models/routing/shadow", "{\"fraction\":0.5}", Served.AS_ADMIN);
             assertThat(noTag.status()).isEqualTo(400);
             assertThat(noTag.contentType()).startsWith("application/problem+json");

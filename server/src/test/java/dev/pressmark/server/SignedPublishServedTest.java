@@ -14,7 +14,6 @@ import java.time.Duration;
 import java.util.Base64;
 import java.util.HexFormat;
 import java.util.Optional;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -25,17 +24,11 @@ class SignedPublishServedTest {
     private static final Duration WAIT = Duration.ofSeconds(6);
     private static final KeyPair KEYS = SigningKeys.generate();
 
-    private static byte[] first;
-    private static byte[] second;
+    private static final byte[] first = TestBundles.svm();
+    private static final byte[] second = TestBundles.logistic();
 
     @TempDir
     Path dir;
-
-    @BeforeAll
-    static void train(@TempDir Path trainDir) {
-        first = TestBundles.train(trainDir.resolve("a"), 1, "classifier: {kind: linear-svm, probabilities: platt}");
-        second = TestBundles.train(trainDir.resolve("b"), 2, "classifier: {kind: logistic-regression}");
-    }
 
     private static String sha256(byte[] bytes) throws Exception {
         // the JDK's digest, independent of the project's helper
@@ -53,12 +46,6 @@ class SignedPublishServedTest {
         System.arraycopy(Served.AS_ADMIN, 0, headers, 0, Served.AS_ADMIN.length);
         System.arraycopy(extraHeaders, 0, headers, Served.AS_ADMIN.length, extraHeaders.length);
         return s.http.put(path, "application/octet-stream", bundle, headers);
-    }
-
-    private static String servedVersion(Served s) {
-        Http.Answer answer = s.http.postJson("/models/routing/predict", ONE_ITEM);
-        assertThat(answer.status()).as(answer.body()).isEqualTo(200);
-        return answer.json().get("version").asText();
     }
 
     @Test
@@ -98,7 +85,7 @@ class SignedPublishServedTest {
                     "test");
             s.store.publish("routing", "1.1.0", second, "test");
             s.store.activate("routing", "1.0.0", "test", "first");
-            assertThat(servedVersion(s)).isEqualTo("1.0.0");
+            assertThat(s.servedVersion()).isEqualTo("1.0.0");
             s.store.trust(SigningKeys.publicKeyPem(KEYS.getPublic()), "test");
 
             Http.Answer activated = s.http.putJson("/models/routing/active", "{\"tag\":\"1.1.0\"}", Served.AS_ADMIN);
@@ -107,7 +94,7 @@ class SignedPublishServedTest {
             JsonNode ready = s.http.get("/health/ready").json();
             assertThat(ready.at("/models/routing/failed_tag").asText()).isEqualTo("1.1.0");
             assertThat(ready.at("/models/routing/error").asText()).contains("unsigned");
-            assertThat(servedVersion(s)).isEqualTo("1.0.0");
+            assertThat(s.servedVersion()).isEqualTo("1.0.0");
             Http.Answer named = s.http.postJson("/models/routing/versions/1.1.0/predict", ONE_ITEM);
             assertThat(named.status()).as(named.body()).isEqualTo(422);
             assertThat(named.json().get("type").asText()).isEqualTo("urn:pressmark:problem:unsigned");

@@ -41,8 +41,8 @@ class SpectralLintTest {
         Path out = Path.of(System.getProperty("pressmark.openapi.out", "target/openapi")).toAbsolutePath();
         Files.createDirectories(out);
 
-        byte[] bundle = TestBundles.train(dir.resolve("train"), 1, "classifier: {kind: linear-svm, probabilities: platt}");
-        ServerConfig config = ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(Served.ADMIN)))
+        byte[] bundle = TestBundles.svm();
+        ServerConfig config = Served.config()
                 .withReaderToken(Optional.of(BearerToken.of(Served.READER)));
         Path document = out.resolve("live.json");
         try (Served s = Served.on(dir, config)) {

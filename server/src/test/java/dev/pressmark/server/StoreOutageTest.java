@@ -45,8 +45,8 @@ class StoreOutageTest {
 
     @Test
     void a_service_started_before_its_database_serves_once_it_appears_and_outlives_its_loss() throws Exception {
-        byte[] first = TestBundles.train(dir.resolve("a"), 1, "classifier: {kind: linear-svm, probabilities: platt}");
-        byte[] second = TestBundles.train(dir.resolve("b"), 2, "classifier: {kind: logistic-regression}");
+        byte[] first = TestBundles.svm();
+        byte[] second = TestBundles.logistic();
         int port = freePort();
         Path data = Files.createDirectories(dir.resolve("pgdata"));
         String url = "jdbc:postgresql://127.0.0.1:" + port + "/postgres?user=postgres";

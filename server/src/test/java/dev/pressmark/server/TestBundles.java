@@ -13,10 +13,12 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Instant;
+import java.util.Comparator;
 import java.util.LinkedHashMap;
 import java.util.Map;
 import java.util.SplittableRandom;
 import java.util.concurrent.ConcurrentHashMap;
+import java.util.stream.Stream;
 
 /** Small real bundles, trained in the test on generated listing titles. */
 final class TestBundles {
@@ -32,17 +34,28 @@ final class TestBundles {
     private TestBundles() {
     }
 
-    /**
-     * Trains a three-department model on {@code rows} generated titles; {@code classifier} is the
-     * classifier section, so that two builds differ in their weights.
-     */
-    static byte[] train(Path dir, long seed, String classifier) {
-        return TRAINED.computeIfAbsent(seed + "\n" + classifier, key -> trainNew(dir, seed, classifier)).clone();
+    /** Seed 1, a linear SVM with Platt probabilities: the bundle most of the tests serve. */
+    static byte[] svm() {
+        return train(1, "classifier: {kind: linear-svm, probabilities: platt}");
     }
 
-    private static byte[] trainNew(Path dir, long seed, String classifier) {
+    /** Seed 2, a logistic regression: the second version that differs from {@link #svm()} in data and weights. */
+    static byte[] logistic() {
+        return train(2, "classifier: {kind: logistic-regression}");
+    }
+
+    /**
+     * Trains a three-department model on 300 generated titles; {@code classifier} is the
+     * classifier section, so that two builds differ in their weights.
+     */
+    static byte[] train(long seed, String classifier) {
+        return TRAINED.computeIfAbsent(seed + "\n" + classifier, key -> trainNew(seed, classifier)).clone();
+    }
+
+    private static byte[] trainNew(long seed, String classifier) {
+        Path dir = null;
         try {
-            Files.createDirectories(dir);
+            dir = Files.createTempDirectory("pressmark-test-bundle");
             Path csv = dir.resolve("listings.csv");
             Files.writeString(csv, listings(300, seed));
             Path yaml = dir.resolve("train.yaml");
@@ -54,31 +67,52 @@ final class TestBundles {
                     classifier,
                     "evaluation: {folds: 2, threads: 1}") + "\n");
             TrainConfig config = TrainConfig.read(yaml);
-            LabelledData data = LabelledData.read(Path.of(config.data().file()), config.data().text(), config.data().label(), false);
+            LabelledData data = LabelledData.read(dir.resolve(config.data().file()), config.data().text(), config.data().label(), false);
             return BundleAssembler.assemble(config, data, new TrainingRun(config, data).run(Progress.NONE), CREATED);
         } catch (IOException e) {
             throw new UncheckedIOException(e);
+        } finally {
+            deleteQuietly(dir);
         }
     }
 
+    private static void deleteQuietly(Path dir) {
+        if (dir == null) {
+            return;
+        }
+        try (Stream<Path> paths = Files.walk(dir)) {
+            paths.sorted(Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
+        } catch (IOException e) {
+            // a leftover temporary directory does not make a test wrong
+        }
+    }
+
+    private static final String[][] PARTS = {
+        {"aqua", "flow", "valve", "pipe", "drain"},
+        {"volt", "amp", "switch", "outlet", "breaker"},
+        {"fern", "leaf", "hose", "rake", "planter"},
+    };
+    private static final String[] LABELS = {"plumbing", "electrical", "garden"};
+    private static final String[] SHARED = {"pro", "kit", "pack", "steel", "black"};
+
     /** Three departments whose titles share a few words; brand syllables carry the signal. */
     private static String listings(int rows, long seed) {
-        String[][] parts = {
-            {"aqua", "flow", "valve", "pipe", "drain"},
-            {"volt", "amp", "switch", "outlet", "breaker"},
-            {"fern", "leaf", "hose", "rake", "planter"},
-        };
-        String[] labels = {"plumbing", "electrical", "garden"};
-        String[] shared = {"pro", "kit", "pack", "steel", "black"};
         SplittableRandom random = new SplittableRandom(seed);
         StringBuilder csv = new StringBuilder("title,department\n");
         for (int i = 0; i < rows; i++) {
-            int k = random.nextInt(3);
-            String brand = parts[k][random.nextInt(2)] + parts[random.nextInt(3)][random.nextInt(2)];
-            csv.append(brand).append(' ').append(parts[k][2 + random.nextInt(3)]).append(' ')
-                    .append(shared[random.nextInt(shared.length)]).append(',').append(labels[k]).append('\n');
+            int k = random.nextInt(LABELS.length);
+            csv.append(title(random, k)).append(',').append(LABELS[k]).append('\n');
         }
         return csv.toString();
+    }
+
+    /**
+     * A title of department {@code k} made as the training titles are: a brand of two syllables
+     * (the first one the department's), one of the department's words and a word all share.
+     */
+    static String title(SplittableRandom random, int k) {
+        String brand = PARTS[k][random.nextInt(2)] + PARTS[random.nextInt(PARTS.length)][random.nextInt(2)];
+        return brand + ' ' + PARTS[k][2 + random.nextInt(3)] + ' ' + SHARED[random.nextInt(SHARED.length)];
     }
 
     /**
