@@ -52,53 +52,58 @@ class StoreOutageTest {
         String url = "jdbc:postgresql://127.0.0.1:" + port + "/postgres?user=postgres";
 
         try (ServeProcess serve = ServeProcess.serve(dir, url, Map.of("PRESSMARK_ADMIN_TOKEN", Served.ADMIN))) {
-            // nothing listens on the port: the service is up, not ready, and names the store as the reason
-            assertThat(serve.http.get("/health").status()).isEqualTo(200);
-            Http.Answer ready = serve.http.get("/health/ready");
-            assertThat(ready.status()).isEqualTo(503);
-            assertThat(ready.json().get("store").asText()).startsWith("down: ").contains("127.0.0.1:" + port);
-            assertStoreUnavailable(serve, HttpRequest.newBuilder().POST(HttpRequest.BodyPublishers.ofString(ONE_ITEM)), PREDICT);
-            assertStoreUnavailable(serve, HttpRequest.newBuilder().PUT(HttpRequest.BodyPublishers.ofString("{\"tag\":\"1.0.0\"}"))
-                    .header("Authorization", "Bearer " + Served.ADMIN), "/models/routing/active");
-
-            EmbeddedPostgres postgres = start(port, data);
-            try (BundleStore store = BundleStore.open(url)) {
-                store.publish("routing", "1.0.0", first, "test");
-                store.publish("routing", "1.1.0", second, "test");
-                store.activate("routing", "1.0.0", "test", "start");
-            }
-            awaitStatus(serve, "/health/ready", 200);
-            assertThat(serve.http.postJson(PREDICT, ONE_ITEM).json().get("version").asText()).isEqualTo("1.0.0");
-            int listeners = listeningConnections(postgres);
-            assertThat(listeners).as("the service's LISTEN connection").isEqualTo(1);
-
-            // the database goes away under a running service
-            postgres.close();
-            for (int i = 0; i < 20; i++) {
-                Http.Answer predicted = serve.http.postJson(PREDICT, ONE_ITEM);
-                assertThat(predicted.status()).as(predicted.body()).isEqualTo(200);
-                assertThat(predicted.json().get("version").asText()).isEqualTo("1.0.0");
-            }
-            awaitStatus(serve, "/health/ready", 503);
-            assertThat(serve.http.get("/health/ready").json().get("store").asText()).startsWith("down: ");
-            assertStoreUnavailable(serve, HttpRequest.newBuilder().PUT(HttpRequest.BodyPublishers.ofString("{\"tag\":\"1.1.0\"}"))
-                    .header("Authorization", "Bearer " + Served.ADMIN), "/models/routing/active");
-            assertThat(serve.http.postJson(PREDICT, ONE_ITEM).json().get("version").asText()).isEqualTo("1.0.0");
-
-            // and comes back: the same service takes changes again, by the pool and by the change feed
-            postgres = start(port, data);
             try {
-                awaitStatus(serve, "/health/ready", 200);
-                Http.Answer put = serve.http.putJson("/models/routing/active", "{\"tag\":\"1.1.0\"}", Served.AS_ADMIN);
-                assertThat(put.status()).as(put.body()).isEqualTo(200);
-                assertThat(put.json().get("serving").asText()).isEqualTo("1.1.0");
+                // nothing listens on the port: the service is up, not ready, and names the store as the reason
+                assertThat(serve.http.get("/health").status()).isEqualTo(200);
+                Http.Answer ready = serve.http.get("/health/ready");
+                assertThat(ready.status()).isEqualTo(503);
+                assertThat(ready.json().get("store").asText()).startsWith("down: ").contains("127.0.0.1:" + port);
+                assertStoreUnavailable(serve, HttpRequest.newBuilder().POST(HttpRequest.BodyPublishers.ofString(ONE_ITEM)), PREDICT);
+                assertStoreUnavailable(serve, HttpRequest.newBuilder().PUT(HttpRequest.BodyPublishers.ofString("{\"tag\":\"1.0.0\"}"))
+                        .header("Authorization", "Bearer " + Served.ADMIN), "/models/routing/active");
+
+                EmbeddedPostgres postgres = start(port, data);
                 try (BundleStore store = BundleStore.open(url)) {
-                    store.activate("routing", "1.0.0", "test", "back, from outside the service");
+                    store.publish("routing", "1.0.0", first, "test");
+                    store.publish("routing", "1.1.0", second, "test");
+                    store.activate("routing", "1.0.0", "test", "start");
                 }
-                awaitPredicted(serve, "1.0.0");
-                awaitListening(postgres);
-            } finally {
+                awaitStatus(serve, "/health/ready", 200);
+                assertThat(serve.http.postJson(PREDICT, ONE_ITEM).json().get("version").asText()).isEqualTo("1.0.0");
+                int listeners = listeningConnections(postgres);
+                assertThat(listeners).as("the service's LISTEN connection").isEqualTo(1);
+
+                // the database goes away under a running service
                 postgres.close();
+                for (int i = 0; i < 20; i++) {
+                    Http.Answer predicted = serve.http.postJson(PREDICT, ONE_ITEM);
+                    assertThat(predicted.status()).as(predicted.body()).isEqualTo(200);
+                    assertThat(predicted.json().get("version").asText()).isEqualTo("1.0.0");
+                }
+                awaitStatus(serve, "/health/ready", 503);
+                assertThat(serve.http.get("/health/ready").json().get("store").asText()).startsWith("down: ");
+                assertStoreUnavailable(serve, HttpRequest.newBuilder().PUT(HttpRequest.BodyPublishers.ofString("{\"tag\":\"1.1.0\"}"))
+                        .header("Authorization", "Bearer " + Served.ADMIN), "/models/routing/active");
+                assertThat(serve.http.postJson(PREDICT, ONE_ITEM).json().get("version").asText()).isEqualTo("1.0.0");
+
+                // and comes back: the same service takes changes again, by the pool and by the change feed
+                postgres = start(port, data);
+                try {
+                    awaitStatus(serve, "/health/ready", 200);
+                    Http.Answer put = serve.http.putJson("/models/routing/active", "{\"tag\":\"1.1.0\"}", Served.AS_ADMIN);
+                    assertThat(put.status()).as(put.body()).isEqualTo(200);
+                    assertThat(put.json().get("serving").asText()).isEqualTo("1.1.0");
+                    try (BundleStore store = BundleStore.open(url)) {
+                        store.activate("routing", "1.0.0", "test", "back, from outside the service");
+                    }
+                    awaitPredicted(serve, "1.0.0");
+                    awaitListening(postgres);
+                } finally {
+                    postgres.close();
+                }
+            } catch (AssertionError e) {
+                // the service's log says why it answered as it did
+                throw new AssertionError(e.getMessage() + "\nthe service's stderr:\n" + serve.stderr(), e);
             }
         }
     }

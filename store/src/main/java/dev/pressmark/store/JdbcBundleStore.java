@@ -25,6 +25,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Objects;
 import java.util.Optional;
+import java.util.Set;
 
 /**
  * The store over JDBC, one implementation for both databases; {@link Dialect} holds what differs.
@@ -43,6 +44,8 @@ final class JdbcBundleStore implements BundleStore {
     /** How often {@link #awaitChange} polls the sequence when no notification arrives: 500 ms. */
     static final long POLL_INTERVAL_MS = 500;
     static final String NOTIFY_CHANNEL = "pressmark_activations";
+    /** SQLSTATEs of a PostgreSQL server that ends or refuses connections because it is stopping, crashing or starting. */
+    private static final Set<String> SERVER_GOING_AWAY = Set.of("57P01", "57P02", "57P03");
 
     private final StoreUrl url;
     private final HikariDataSource pool;
@@ -888,6 +891,17 @@ final class JdbcBundleStore implements BundleStore {
     }
 
     private StoreException failure(String operation, SQLException e) {
+        return failure(url, operation, e);
+    }
+
+    /**
+     * What a failed statement means to the caller. A connection that is gone or refused is
+     * {@link StoreException#UNREACHABLE} on PostgreSQL, a state to wait out: SQLSTATE class 08
+     * (connection exception), and 57P01 admin_shutdown, 57P02 crash_shutdown and 57P03
+     * cannot_connect_now (PostgreSQL documentation, Appendix A, "PostgreSQL Error Codes"), which
+     * a server that is stopping, crashing or starting sends on the connections it ends or refuses.
+     */
+    static StoreException failure(StoreUrl url, String operation, SQLException e) {
         String message = String.valueOf(e.getMessage());
         String lower = message.toLowerCase(Locale.ROOT);
         if (lower.contains("readonly") || lower.contains("read-only")) {
@@ -899,11 +913,14 @@ final class JdbcBundleStore implements BundleStore {
             return new StoreException(StoreException.STORAGE_FULL, url.describe() + ": cannot " + operation
                     + ": the disk holding the store is full; nothing was written (" + StoreUrl.redact(firstLine(message)) + ")", e);
         }
-        if (url.dialect() == Dialect.POSTGRESQL && (e instanceof java.sql.SQLTransientConnectionException
-                || e.getSQLState() != null && e.getSQLState().startsWith("08"))) {
+        if (url.dialect() == Dialect.POSTGRESQL && (e instanceof java.sql.SQLTransientConnectionException || connectionLost(e.getSQLState()))) {
             return StoreDatabase.openFailure(url, e);
         }
         return new StoreException(StoreException.FAILURE, url.describe() + ": cannot " + operation + ": " + StoreUrl.redact(message), e);
+    }
+
+    private static boolean connectionLost(String sqlState) {
+        return sqlState != null && (sqlState.startsWith("08") || SERVER_GOING_AWAY.contains(sqlState));
     }
 
     private static String firstLine(String message) {

@@ -6,6 +6,7 @@ import static org.assertj.core.api.Assertions.assertThatThrownBy;
 import java.net.ServerSocket;
 import java.sql.Connection;
 import java.sql.SQLException;
+import java.sql.Statement;
 import java.time.Duration;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
@@ -47,6 +48,33 @@ class PostgresStoreTest extends BundleStoreContract {
             Thread.sleep(50);
         }
         assertThat(waiting.notificationsReceived()).isGreaterThan(notificationsBefore);
+    }
+
+    /**
+     * pg_terminate_backend makes a backend end its connection with FATAL 57P01 admin_shutdown, as
+     * every backend does when the server is stopped ("fast" shutdown). The call on that
+     * connection is unreachable, a state to wait out, not a store failure; a later call connects
+     * anew. (The pool may test an idle connection before handing it out and replace it quietly:
+     * then the first call succeeds, which is right too.)
+     */
+    @Test
+    void a_connection_the_server_ends_is_unreachable_for_that_call_and_the_store_reconnects() throws Exception {
+        store.publish("routing", "a", TestBundles.bundle("routing", 1), ACTOR);
+        assertThat(store.versions("routing")).hasSize(1);
+        try (Connection admin = EmbeddedPostgresServer.get().getPostgresDatabase().getConnection(); Statement s = admin.createStatement()) {
+            s.execute("SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE pid <> pg_backend_pid() AND backend_type = 'client backend'");
+        }
+        Thread.sleep(100); // the ended backends' last message reaches the client's sockets
+        for (int attempt = 0; ; attempt++) {
+            try {
+                assertThat(store.versions("routing")).hasSize(1);
+                break;
+            } catch (StoreException e) {
+                assertThat(e.code()).as(e.getMessage()).isEqualTo(StoreException.UNREACHABLE);
+                // at most one ended connection for each one the pool held
+                assertThat(attempt).as("calls that found an ended connection").isLessThan(StoreDatabase.POSTGRES_POOL_SIZE);
+            }
+        }
     }
 
     @Test
