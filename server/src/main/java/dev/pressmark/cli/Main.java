@@ -2,6 +2,7 @@ package dev.pressmark.cli;
 
 import dev.pressmark.core.PressmarkException;
 import java.io.PrintWriter;
+import java.util.List;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
@@ -14,8 +15,18 @@ import picocli.CommandLine.Option;
         name = "pressmark",
         mixinStandardHelpOptions = true,
         versionProvider = Main.Version.class,
-        description = "Learn, evaluate, publish and serve short-text classifiers.",
-        subcommands = {
+        description = "Learn, evaluate, publish and serve short-text classifiers.")
+public final class Main {
+
+    static final int EXIT_OK = 0;
+    static final int EXIT_FAILURE = 1;
+    static final int EXIT_USAGE = 2;
+
+    @Option(names = "--verbose", description = "Print stack traces of failures.", scope = CommandLine.ScopeType.INHERIT)
+    boolean verbose;
+
+    /** The subcommands, in the order the usage help lists them. */
+    private static final List<Class<?>> COMMANDS = List.of(
             TrainCommand.class,
             EvaluateCommand.class,
             InspectCommand.class,
@@ -35,15 +46,7 @@ import picocli.CommandLine.Option;
             TrustCommand.class,
             ServeCommand.class,
             DemoCommand.class,
-            CommandLine.HelpCommand.class})
-public final class Main {
-
-    static final int EXIT_OK = 0;
-    static final int EXIT_FAILURE = 1;
-    static final int EXIT_USAGE = 2;
-
-    @Option(names = "--verbose", description = "Print stack traces of failures.", scope = CommandLine.ScopeType.INHERIT)
-    boolean verbose;
+            CommandLine.HelpCommand.class);
 
     public static void main(String[] args) {
         System.exit(run(args));
@@ -51,9 +54,53 @@ public final class Main {
 
     /** Runs the command line and returns the exit code; the seam the tests use. */
     static int run(String... args) {
-        CommandLine commandLine = new CommandLine(new Main());
+        CommandLine commandLine = commandLineFor(args);
         commandLine.setExecutionExceptionHandler(Main::handleFailure);
         return commandLine.execute(args);
+    }
+
+    /** The whole command tree, every subcommand in it: what the usage help lists. */
+    static CommandLine commandLine() {
+        return withCommands(COMMANDS);
+    }
+
+    /**
+     * The command tree that {@code args} need. picocli builds a subcommand's model by reflection
+     * over its class, its options and its mixins; building all of them cost about 0.15 s of every
+     * start (docs/benchmarks.md), so a run that names a subcommand gets that one alone. Anything
+     * else (no subcommand, {@code help}, a name that is not a command) gets the whole tree, so
+     * that usage help and picocli's suggestions for a mistyped name list every command.
+     */
+    static CommandLine commandLineFor(String... args) {
+        String named = subcommandName(args);
+        for (Class<?> type : COMMANDS) {
+            if (type != CommandLine.HelpCommand.class && nameOf(type).equals(named)) {
+                return withCommands(List.of(type));
+            }
+        }
+        return commandLine();
+    }
+
+    private static CommandLine withCommands(List<Class<?>> commands) {
+        CommandLine root = new CommandLine(new Main());
+        for (Class<?> type : commands) {
+            root.addSubcommand(nameOf(type), type);
+        }
+        return root;
+    }
+
+    private static String nameOf(Class<?> type) {
+        return type.getAnnotation(Command.class).name();
+    }
+
+    /** The first argument that is not an option: the root command's options take no values. */
+    private static String subcommandName(String... args) {
+        for (String arg : args) {
+            if (!arg.startsWith("-")) {
+                return arg;
+            }
+        }
+        return "";
     }
 
     private static int handleFailure(Exception e, CommandLine commandLine, CommandLine.ParseResult parseResult) {

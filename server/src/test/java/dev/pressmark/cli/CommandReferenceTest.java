@@ -43,7 +43,7 @@ class CommandReferenceTest {
     @Test
     void every_command_appears_in_the_reference() {
         String reference = reference();
-        CommandLine root = new CommandLine(new Main());
+        CommandLine root = Main.commandLine();
         for (String name : root.getSubcommands().keySet()) {
             assertThat(reference).contains("### `pressmark " + name);
         }
@@ -52,7 +52,7 @@ class CommandReferenceTest {
 
     /** Every command's usage help, depth first in the order the program lists them. */
     static String reference() {
-        CommandLine root = new CommandLine(new Main());
+        CommandLine root = Main.commandLine();
         root.setUsageHelpWidth(WIDTH);
         StringBuilder out = new StringBuilder();
         append(out, root);

@@ -65,7 +65,7 @@ class ContainerFilesTest {
         assertThat(commands).hasSize(4);
         for (List<String> command : commands) {
             assertThat(command).as("a command line").isNotEmpty();
-            CommandLine.ParseResult parsed = new CommandLine(new Main()).parseArgs(command.toArray(String[]::new));
+            CommandLine.ParseResult parsed = Main.commandLine().parseArgs(command.toArray(String[]::new));
             assertThat(parsed.subcommand()).as(String.join(" ", command)).isNotNull();
             assertThat(parsed.subcommand().commandSpec().name()).isEqualTo("serve");
             assertThat(parsed.subcommand().matchedOptionValue("--port", 0)).isEqualTo(ServerConfig.DEFAULT_PORT);
