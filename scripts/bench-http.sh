@@ -128,14 +128,7 @@ echo "bench-http: training a bundle on $rows invented listings in $work" >&2
 # which the model never saw
 java -cp "$jar" dev.pressmark.demo.ListingTitles $((rows + BATCH_ITEMS)) --csv > all.csv
 head -n $((rows + 1)) all.csv > listings.csv
-cat > train.yaml <<'YAML'
-name: routing
-data: {file: listings.csv, text: [title], label: department}
-tokenizer: {kind: wordpiece, vocab_size: 1500}
-features: {max_tokens: 800, weighting: tf, scaling: l2}
-classifier: {kind: linear-svm, c: 1.0, probabilities: platt}
-evaluation: {folds: 2}
-YAML
+cp "$root/scripts/bench-train.yaml" train.yaml
 java -jar "$jar" train --config train.yaml --out routing.pmb > train.out 2>&1 || { cat train.out >&2; die "training failed"; }
 
 # Request bodies, from the CSV rows past the training set: unquote the title, then quote it for JSON.

@@ -11,6 +11,7 @@
 #        mvn -q -B package -DskipTests; scripts/bench-start.sh /tmp/a.jar server/target/pressmark.jar
 # Environment: ROUNDS (default 4).
 set -euo pipefail
+root="$(cd "$(dirname "$0")/.." && pwd)"
 die() { echo "bench-start: $*" >&2; exit 1; }
 [ $# -eq 2 ] || die "usage: scripts/bench-start.sh JAR_A JAR_B"
 jar_a="$(realpath "$1")"
@@ -31,14 +32,7 @@ now_ms() { local t="$EPOCHREALTIME"; t="${t/./}"; echo $(( t / 1000 )); }
 cd "$work"
 echo "bench-start: a store of 20 versions in $work (built with A)" >&2
 java -cp "$jar_a" dev.pressmark.demo.ListingTitles 5000 --csv > listings.csv
-cat > train.yaml <<'YAML'
-name: routing
-data: {file: listings.csv, text: [title], label: department}
-tokenizer: {kind: wordpiece, vocab_size: 1500}
-features: {max_tokens: 800, weighting: tf, scaling: l2}
-classifier: {kind: linear-svm, c: 1.0, probabilities: platt}
-evaluation: {folds: 2}
-YAML
+cp "$root/scripts/bench-train.yaml" train.yaml
 java -jar "$jar_a" train --config train.yaml --out routing.pmb > train.out 2>&1 || { cat train.out >&2; die "training failed"; }
 for i in $(seq 1 20); do
   activate=()
