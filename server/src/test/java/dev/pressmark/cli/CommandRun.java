@@ -9,6 +9,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Map;
 import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.TimeUnit;
 
@@ -22,6 +23,15 @@ record CommandRun(int exitCode, String out, String err) {
     }
 
     static CommandRun of(Path workDir, byte[] input, String... args) {
+        return of(workDir, Map.of(), input, args);
+    }
+
+    /**
+     * With {@code env} added to the child's environment. The child never inherits this JVM's
+     * {@code PRESSMARK_STORE} or {@code PRESSMARK_ADMIN_TOKEN}: a developer's own settings must not
+     * reach a test.
+     */
+    static CommandRun of(Path workDir, Map<String, String> env, byte[] input, String... args) {
         List<String> command = new ArrayList<>();
         command.add(Path.of(System.getProperty("java.home"), "bin", "java").toString());
         command.add("-cp");
@@ -29,7 +39,11 @@ record CommandRun(int exitCode, String out, String err) {
         command.add(Main.class.getName());
         command.addAll(List.of(args));
         try {
-            Process process = new ProcessBuilder(command).directory(workDir.toFile()).start();
+            ProcessBuilder builder = new ProcessBuilder(command).directory(workDir.toFile());
+            builder.environment().remove("PRESSMARK_STORE");
+            builder.environment().remove("PRESSMARK_ADMIN_TOKEN");
+            builder.environment().putAll(env);
+            Process process = builder.start();
             CompletableFuture<byte[]> out = drain(process.getInputStream());
             CompletableFuture<byte[]> err = drain(process.getErrorStream());
             try (OutputStream stdin = process.getOutputStream()) {

@@ -41,6 +41,27 @@ class StoreCommandsTest {
     }
 
     @Test
+    void the_store_comes_from_pressmark_store_when_no_store_option_is_given_and_the_option_wins_over_it() throws Exception {
+        bundle("first.pmb", 1);
+        Path elsewhere = Files.createDirectories(dir.resolve("elsewhere"));
+        Map<String, String> env = Map.of("PRESSMARK_STORE", "sqlite:" + elsewhere.resolve("team.db"));
+        byte[] none = new byte[0];
+        CommandRun published = CommandRun.of(dir, env, none, "publish", "first.pmb", "--name", "routing", "--tag", "1.0.0", "--activate");
+        assertThat(published.exitCode()).as(published.err()).isZero();
+        assertThat(elsewhere.resolve("team.db")).exists();
+        assertThat(dir.resolve("pressmark.db")).doesNotExist();
+
+        CommandRun listed = CommandRun.of(dir, env, none, "versions", "routing");
+        assertThat(listed.exitCode()).as(listed.err()).isZero();
+        assertThat(listed.out()).containsPattern("\\* 1\\.0\\.0 ");
+        // --store names another store: the default file, which has no such model
+        CommandRun overridden = CommandRun.of(dir, env, none, "versions", "routing", "--store", "sqlite:" + dir.resolve("pressmark.db"));
+        assertThat(overridden.exitCode()).isEqualTo(1);
+        assertThat(overridden.err()).contains("routing");
+        assertThat(dir.resolve("pressmark.db")).exists();
+    }
+
+    @Test
     void publish_activate_versions_rollback_and_history_work_in_an_empty_directory_with_no_set_up() throws Exception {
         Path first = bundle("first.pmb", 1);
         bundle("second.pmb", 2);
