@@ -66,8 +66,8 @@ public final class Main {
 
     /**
      * The command tree that {@code args} need. picocli builds a subcommand's model by reflection
-     * over its class, its options and its mixins; building all of them cost about 0.15 s of every
-     * start (docs/benchmarks.md), so a run that names a subcommand gets that one alone. Anything
+     * over its class, its options and its mixins; building all twenty cost 55-75 ms of every run
+     * (docs/benchmarks.md, "Start-up"), so a run that names a subcommand gets that one alone. Anything
      * else (no subcommand, {@code help}, a name that is not a command) gets the whole tree, so
      * that usage help and picocli's suggestions for a mistyped name list every command.
      */
