@@ -22,9 +22,6 @@ public final class Main {
     static final int EXIT_FAILURE = 1;
     static final int EXIT_USAGE = 2;
 
-    @Option(names = "--verbose", description = "Print stack traces of failures.", scope = CommandLine.ScopeType.INHERIT)
-    boolean verbose;
-
     /** The subcommands, in the order the usage help lists them. */
     private static final List<Class<?>> COMMANDS = List.of(
             TrainCommand.class,
@@ -47,6 +44,9 @@ public final class Main {
             ServeCommand.class,
             DemoCommand.class,
             CommandLine.HelpCommand.class);
+
+    @Option(names = "--verbose", description = "Print stack traces of failures.", scope = CommandLine.ScopeType.INHERIT)
+    boolean verbose;
 
     public static void main(String[] args) {
         System.exit(run(args));
