@@ -41,7 +41,8 @@ for i in $(seq 1 20); do
     || die "publishing v$i failed"
 done
 
-# One start of serve, to the first 200 from /health/ready; prints its milliseconds.
+# One start of serve, to the first 200 from /health/ready; sets serve_ms. Called in this shell,
+# not in a command substitution, so that cleanup sees server_pid if a start fails half-way.
 serve_once() {
   local jar="$1" t0 port="" code
   t0="$(now_ms)"
@@ -57,7 +58,7 @@ serve_once() {
     fi
     sleep 0.01
   done
-  echo $(( $(now_ms) - t0 ))
+  serve_ms=$(( $(now_ms) - t0 ))
   kill "$server_pid"
   wait "$server_pid" 2>/dev/null || true
   server_pid=""
@@ -75,8 +76,8 @@ median() { printf '%s\n' "$@" | sort -n | awk '{ v[NR] = $1 } END { print (NR % 
 serve_a=(); serve_b=(); versions_a=(); versions_b=()
 for r in $(seq 1 "$rounds"); do
   echo "bench-start: round $r of $rounds" >&2
-  for i in 1 2 3; do serve_a+=("$(serve_once "$jar_a")"); done
-  for i in 1 2 3; do serve_b+=("$(serve_once "$jar_b")"); done
+  for i in 1 2 3; do serve_once "$jar_a"; serve_a+=("$serve_ms"); done
+  for i in 1 2 3; do serve_once "$jar_b"; serve_b+=("$serve_ms"); done
   for i in 1 2 3; do versions_a+=("$(versions_once "$jar_a")"); done
   for i in 1 2 3; do versions_b+=("$(versions_once "$jar_b")"); done
 done
