@@ -101,8 +101,8 @@ class StoreOutageTest {
                 } finally {
                     postgres.close();
                 }
-            } catch (AssertionError e) {
-                // the service's log says why it answered as it did
+            } catch (AssertionError | RuntimeException e) {
+                // the service's log says why it answered as it did (or did not answer)
                 throw new AssertionError(e.getMessage() + "\nthe service's stderr:\n" + serve.stderr(), e);
             }
         }
