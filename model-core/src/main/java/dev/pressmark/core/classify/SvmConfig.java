@@ -7,8 +7,8 @@ import java.util.Objects;
  *
  * @param c the cost of a margin violation (the inverse of the regularisation strength), &gt; 0
  * @param loss hinge or squared hinge
- * @param tolerance the solver stops when the spread of the projected dual gradient,
- *     {@code max PG - min PG}, over one pass is at most this, &gt; 0
+ * @param tolerance the solver stops when the spread of the projected dual gradient and 0,
+ *     {@code max(PG, 0) - min(PG, 0)}, over one pass is at most this, &gt; 0
  * @param maxIterations the cap on passes over the data, &gt;= 1; a model that hit it records
  *     that it did not converge
  * @param bias the value of the constant feature appended to every row, &gt;= 0; its weight is

@@ -20,6 +20,13 @@ import java.util.SplittableRandom;
  * previous pass's extremes is shrunk away, and when the remaining ones meet the tolerance the
  * solver reactivates all of them and stops only if the full set meets it too.
  *
+ * <p>A coordinate shrunk early can later belong inside its box; the shrunk problem then has
+ * another optimum, and on a degenerate problem (many identical rows) it can fail to meet a tight
+ * tolerance for tens of thousands of passes, so the reactivation above never comes. Our own
+ * safeguard, not part of the paper: the solver also reactivates every coordinate after
+ * {@value #FIRST_REVIEW} passes on a shrunk set, then after twice as many each time, which costs
+ * about {@code log2(maxIterations)} extra full passes at most.
+ *
  * <p>The bias is the weight of a constant feature of value {@code bias} appended to every row, so
  * it is regularised like the other weights.
  */
@@ -27,6 +34,8 @@ public final class SvmSolver {
 
     /** Below this, a projected gradient counts as zero and the coordinate is left alone. */
     private static final double ZERO_GRADIENT = 1e-12;
+    /** Passes on a shrunk set before the first forced reactivation; the period doubles after each. */
+    static final int FIRST_REVIEW = 100;
 
     private SvmSolver() {
     }
@@ -58,10 +67,25 @@ public final class SvmSolver {
         double shrinkAbove = Double.POSITIVE_INFINITY;
         double shrinkBelow = Double.NEGATIVE_INFINITY;
         int iteration = 0;
+        long review = FIRST_REVIEW;
+        int sinceFullSet = 0;
         while (iteration < config.maxIterations()) {
+            if (active < n && sinceFullSet >= review) {
+                active = n;
+                shrinkAbove = Double.POSITIVE_INFINITY;
+                shrinkBelow = Double.NEGATIVE_INFINITY;
+                review *= 2;
+            }
+            if (active == n) {
+                sinceFullSet = 0;
+            }
+            sinceFullSet++;
             Rows.shuffle(index, active, random);
-            double pgMax = Double.NEGATIVE_INFINITY;
-            double pgMin = Double.POSITIVE_INFINITY;
+            // Starting both extremes at 0 makes the spread bound every |pg|, which the KKT
+            // conditions need; from ±∞, a pass whose gradients were all equal, say all -2 on a
+            // problem of two identical rows of opposite classes, would pass for converged.
+            double pgMax = 0.0;
+            double pgMin = 0.0;
             for (int s = 0; s < active; s++) {
                 int i = index[s];
                 double y = positive[i] ? 1.0 : -1.0;

@@ -96,6 +96,30 @@ class SolverHandWorkedTest {
         assertThat(alpha[1]).isEqualTo(0.5);
     }
 
+    @Test
+    void two_identical_rows_of_opposite_classes_balance_at_a_zero_weight() {
+        // Both rows are the bias feature alone, so the primal is ½w² + C·max(0, 1 − w) +
+        // C·max(0, 1 + w) = ½w² + 2C on [−1, 1], smallest at w = 0; the dual gradient of row i is
+        // α_1 − α_2 ∓ 1 and pushes both duals up to C. On the way, with C = 3.01, one pass can
+        // leave α = (3, 3.01) with both gradients equal to −2, a point that a stopping rule on the
+        // spread max PG − min PG alone would take for the optimum.
+        SparseMatrix x = SparseMatrix.builder(1)
+                .addRow(new int[] {}, new double[] {})
+                .addRow(new int[] {}, new double[] {})
+                .build();
+        double c = 3.01;
+        for (long seed = 0; seed < 8; seed++) {
+            double[] w = new double[2];
+            double[] alpha = new double[2];
+            SolverRun run = SvmSolver.solve(x, POSITIVE, new double[] {c, c},
+                    new SvmConfig(1.0, SvmLoss.HINGE, TIGHT, 1000, 1.0), new SplittableRandom(seed), w, alpha);
+
+            assertThat(run.converged()).isTrue();
+            assertThat(alpha).as("seed %d", seed).containsExactly(c, c);
+            assertThat(w[1]).as("seed %d", seed).isEqualTo(0.0);
+        }
+    }
+
     private static SvmConfig config(SvmLoss loss) {
         return new SvmConfig(1.0, loss, TIGHT, 1000, 0.0);
     }
