@@ -87,7 +87,7 @@ class SolverPropertiesTest {
      * off by the iteration cap can be far above it); converged at a tight tolerance, the duality
      * gap is negligible and the returned w must be no worse than 0.
      */
-    @Property(tries = 20000)
+    @Property(tries = 100)
     void the_trained_weights_are_no_worse_than_the_zero_vector(@ForAll long seed,
             @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
         Random problem = Random.problem(seed);
