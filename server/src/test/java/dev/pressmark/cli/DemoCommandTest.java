@@ -86,7 +86,7 @@ class DemoCommandTest {
         Path keep = dir.resolve("kept");
         Files.createDirectories(keep);
         Files.writeString(keep.resolve("pressmark.db"), "someone's store");
-        CommandRun run = CommandRun.of(dir, "", "demo", "--port", "0", "--keep", keep.toString());
+        CommandRun run = CommandRun.run(dir, "demo", "--port", "0", "--keep", keep.toString());
         assertThat(run.exitCode()).isEqualTo(1);
         assertThat(run.err()).contains("pressmark: " + keep.resolve("pressmark.db") + " exists already").doesNotContain("training");
         assertThat(keep.resolve("pressmark.db")).hasContent("someone's store");

@@ -88,7 +88,7 @@ class ServeCommandTest {
     @Test
     void a_port_that_is_taken_is_a_one_line_failure_with_exit_code_1() throws Exception {
         try (ServerSocket taken = new ServerSocket(0, 1, InetAddress.getLoopbackAddress())) {
-            CommandRun run = CommandRun.of(dir, "", "serve", "--port", String.valueOf(taken.getLocalPort()),
+            CommandRun run = CommandRun.run(dir, "serve", "--port", String.valueOf(taken.getLocalPort()),
                     "--store", "sqlite:" + dir.resolve("store.db"));
             assertThat(run.exitCode()).isEqualTo(1);
             assertThat(run.err()).contains("pressmark: 127.0.0.1:" + taken.getLocalPort() + ": cannot listen there")
@@ -100,7 +100,7 @@ class ServeCommandTest {
     @Test
     void an_sqlite_store_that_cannot_be_opened_is_a_one_line_failure_with_exit_code_1_not_a_wait() throws Exception {
         java.nio.file.Path missing = dir.resolve("no-such-directory").resolve("store.db");
-        CommandRun run = CommandRun.of(dir, "", "serve", "--port", "0", "--store", "sqlite:" + missing);
+        CommandRun run = CommandRun.run(dir, "serve", "--port", "0", "--store", "sqlite:" + missing);
         assertThat(run.exitCode()).isEqualTo(1);
         assertThat(run.err()).contains("pressmark: cannot create the store " + missing).doesNotContain("\tat ");
         assertThat(run.out()).doesNotContain("serving on");

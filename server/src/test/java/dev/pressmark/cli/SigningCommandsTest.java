@@ -45,7 +45,7 @@ class SigningCommandsTest {
     }
 
     private CommandRun run(String... args) {
-        return CommandRun.of(dir, "", args);
+        return CommandRun.run(dir, args);
     }
 
     private static CommandRun ok(CommandRun run) {

@@ -37,7 +37,7 @@ class StoreCommandsTest {
     }
 
     private CommandRun run(String... args) {
-        return CommandRun.of(dir, "", args);
+        return CommandRun.run(dir, args);
     }
 
     @Test

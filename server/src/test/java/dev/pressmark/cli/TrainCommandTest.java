@@ -32,7 +32,7 @@ class TrainCommandTest {
 
     @Test
     void trains_a_bundle_and_its_report_and_prints_the_metric_table() throws IOException {
-        CommandRun run = CommandRun.of(dir, "", "train", "--config", "train.yaml");
+        CommandRun run = CommandRun.run(dir, "train", "--config", "train.yaml");
         assertThat(run.exitCode()).as(run.err()).isZero();
         assertThat(run.out()).startsWith("metric").contains("accuracy", "balanced_accuracy", "roc_auc");
         assertThat(dir.resolve("routing.pmb")).isRegularFile();
@@ -42,20 +42,20 @@ class TrainCommandTest {
 
     @Test
     void the_bundle_predicts_inspects_and_reports_from_the_command_line() {
-        assertThat(CommandRun.of(dir, "", "train", "--config", "train.yaml", "--out", "m.pmb").exitCode()).isZero();
-        CommandRun predicted = CommandRun.of(dir, "", "predict", "m.pmb", "Aquaward ball valve 3/4in", "--format", "json");
+        assertThat(CommandRun.run(dir, "train", "--config", "train.yaml", "--out", "m.pmb").exitCode()).isZero();
+        CommandRun predicted = CommandRun.run(dir, "predict", "m.pmb", "Aquaward ball valve 3/4in", "--format", "json");
         assertThat(predicted.exitCode()).as(predicted.err()).isZero();
         assertThat(predicted.out()).contains("\"label\" : \"plumbing\"", "probabilities");
-        CommandRun inspected = CommandRun.of(dir, "", "inspect", "m.pmb", "--json");
+        CommandRun inspected = CommandRun.run(dir, "inspect", "m.pmb", "--json");
         assertThat(inspected.out()).contains("\"test\"", "\"cv\"", "\"std_err\"", "\"data_sha256\"");
-        assertThat(CommandRun.of(dir, "", "report", "m.pmb", "--out", "again.html").exitCode()).isZero();
+        assertThat(CommandRun.run(dir, "report", "m.pmb", "--out", "again.html").exitCode()).isZero();
         assertThat(dir.resolve("again.html")).isRegularFile();
     }
 
     @Test
     void an_unknown_config_key_fails_with_the_line_and_writes_nothing() throws IOException {
         Files.writeString(dir.resolve("bad.yaml"), "name: routing\nfeatures:\n  max_tokenz: 10\n");
-        CommandRun run = CommandRun.of(dir, "", "train", "--config", "bad.yaml");
+        CommandRun run = CommandRun.run(dir, "train", "--config", "bad.yaml");
         assertThat(run.exitCode()).isEqualTo(1);
         assertThat(run.err()).startsWith("pressmark: bad.yaml: line 3: unknown key \"features.max_tokenz\"");
         assertThat(dir.resolve("routing.pmb")).doesNotExist();
@@ -63,11 +63,11 @@ class TrainCommandTest {
 
     @Test
     void a_corrupted_bundle_is_refused_naming_the_checksum() throws IOException {
-        assertThat(CommandRun.of(dir, "", "train", "--config", "train.yaml", "--out", "m.pmb").exitCode()).isZero();
+        assertThat(CommandRun.run(dir, "train", "--config", "train.yaml", "--out", "m.pmb").exitCode()).isZero();
         byte[] bytes = Files.readAllBytes(dir.resolve("m.pmb"));
         bytes[bytes.length / 2] ^= 0x01;
         Files.write(dir.resolve("bad.pmb"), bytes);
-        CommandRun run = CommandRun.of(dir, "", "inspect", "bad.pmb");
+        CommandRun run = CommandRun.run(dir, "inspect", "bad.pmb");
         assertThat(run.exitCode()).isEqualTo(1);
         assertThat(run.err()).startsWith("pressmark: ").doesNotContain("Exception");
     }

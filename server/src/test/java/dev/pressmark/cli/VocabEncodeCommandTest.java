@@ -43,7 +43,7 @@ class VocabEncodeCommandTest {
     @Test
     void a_missing_vocabulary_is_a_one_line_failure_with_exit_code_1() {
         Path missing = dir.resolve("nope.txt");
-        CommandRun run = CommandRun.of(dir, "", "vocab", "encode", "--vocab", missing.toString());
+        CommandRun run = CommandRun.run(dir, "vocab", "encode", "--vocab", missing.toString());
         assertThat(run.exitCode()).isEqualTo(1);
         assertThat(run.err()).isEqualTo("pressmark: " + missing + ": no such file\n");
     }
@@ -66,14 +66,14 @@ class VocabEncodeCommandTest {
 
     @Test
     void a_missing_required_option_is_a_usage_error_with_exit_code_2() {
-        CommandRun run = CommandRun.of(dir, "", "vocab", "encode");
+        CommandRun run = CommandRun.run(dir, "vocab", "encode");
         assertThat(run.exitCode()).isEqualTo(2);
         assertThat(run.err()).contains("Missing required option: '--vocab=FILE'");
     }
 
     @Test
     void help_lists_the_commands() {
-        CommandRun run = CommandRun.of(dir, "", "--help");
+        CommandRun run = CommandRun.run(dir, "--help");
         assertThat(run.exitCode()).isZero();
         assertThat(run.out()).contains("vocab");
     }

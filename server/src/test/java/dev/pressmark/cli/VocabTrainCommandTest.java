@@ -29,7 +29,7 @@ class VocabTrainCommandTest {
     @Test
     void writes_a_vocabulary_that_starts_with_the_special_tokens_and_encodes_its_corpus() throws IOException {
         Path out = dir.resolve("vocab.txt");
-        CommandRun run = CommandRun.of(dir, "", "vocab", "train", "--data", corpus().toString(), "--size", "300", "--out", out.toString());
+        CommandRun run = CommandRun.run(dir, "vocab", "train", "--data", corpus().toString(), "--size", "300", "--out", out.toString());
         assertThat(run.exitCode()).as(run.err()).isZero();
         WordPieceVocabulary vocabulary = WordPieceVocabulary.read(out);
         assertThat(vocabulary.size()).isEqualTo(300);
@@ -42,14 +42,14 @@ class VocabTrainCommandTest {
     @Test
     void the_same_corpus_and_size_give_the_same_file_byte_for_byte() throws IOException {
         Path corpus = corpus();
-        assertThat(CommandRun.of(dir, "", "vocab", "train", "--data", corpus.toString(), "--size", "200", "--out", "a.txt").exitCode()).isZero();
-        assertThat(CommandRun.of(dir, "", "vocab", "train", "--data", corpus.toString(), "--size", "200", "--out", "b.txt").exitCode()).isZero();
+        assertThat(CommandRun.run(dir, "vocab", "train", "--data", corpus.toString(), "--size", "200", "--out", "a.txt").exitCode()).isZero();
+        assertThat(CommandRun.run(dir, "vocab", "train", "--data", corpus.toString(), "--size", "200", "--out", "b.txt").exitCode()).isZero();
         assertThat(Files.readAllBytes(dir.resolve("a.txt"))).isEqualTo(Files.readAllBytes(dir.resolve("b.txt")));
     }
 
     @Test
     void a_size_below_the_alphabet_is_refused_naming_the_minimum_and_writes_nothing() throws IOException {
-        CommandRun run = CommandRun.of(dir, "", "vocab", "train", "--data", corpus().toString(), "--size", "10", "--out", "v.txt");
+        CommandRun run = CommandRun.run(dir, "vocab", "train", "--data", corpus().toString(), "--size", "10", "--out", "v.txt");
         assertThat(run.exitCode()).isEqualTo(1);
         assertThat(run.err()).containsPattern("size must be at least \\d+");
         assertThat(dir.resolve("v.txt")).doesNotExist();
@@ -58,7 +58,7 @@ class VocabTrainCommandTest {
 
     @Test
     void a_missing_data_file_names_the_path() {
-        CommandRun run = CommandRun.of(dir, "", "vocab", "train", "--data", "missing.txt", "--size", "100", "--out", "v.txt");
+        CommandRun run = CommandRun.run(dir, "vocab", "train", "--data", "missing.txt", "--size", "100", "--out", "v.txt");
         assertThat(run.exitCode()).isEqualTo(1);
         assertThat(run.err()).isEqualTo("pressmark: missing.txt: no such file\n");
     }
@@ -66,7 +66,7 @@ class VocabTrainCommandTest {
     @Test
     void invalid_utf8_in_the_data_names_the_line_and_byte_offset() throws IOException {
         Files.write(dir.resolve("bad.txt"), new byte[] {'a', 'b', '\n', 'c', 'd', 'e', (byte) 0xC0, (byte) 0x80, '\n'});
-        CommandRun run = CommandRun.of(dir, "", "vocab", "train", "--data", "bad.txt", "--size", "100", "--out", "v.txt");
+        CommandRun run = CommandRun.run(dir, "vocab", "train", "--data", "bad.txt", "--size", "100", "--out", "v.txt");
         assertThat(run.exitCode()).isEqualTo(1);
         assertThat(run.err()).isEqualTo("pressmark: bad.txt: line 2: invalid UTF-8 at byte offset 6\n");
         assertThat(dir.resolve("v.txt")).doesNotExist();
@@ -74,7 +74,7 @@ class VocabTrainCommandTest {
 
     @Test
     void a_non_numeric_size_is_a_usage_error() throws IOException {
-        CommandRun run = CommandRun.of(dir, "", "vocab", "train", "--data", corpus().toString(), "--size", "many", "--out", "v.txt");
+        CommandRun run = CommandRun.run(dir, "vocab", "train", "--data", corpus().toString(), "--size", "many", "--out", "v.txt");
         assertThat(run.exitCode()).isEqualTo(2);
     }
 }

@@ -4,6 +4,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.pressmark.cli.CommandRun;
 import dev.pressmark.store.PromotionPolicy;
 import dev.pressmark.store.StoreEvent;
 import java.nio.file.Path;
@@ -131,22 +132,22 @@ class PromotionTest {
     @Test
     void the_command_line_refuses_with_exit_1_naming_the_metric_both_values_and_the_margin_and_forces_only_with_a_reason() throws Exception {
         try (Served s = serving(dir, Served.config())) {
-            ServeProcess.Finished refused = ServeProcess.runCapturing(dir, "activate", "routing", "0.9.0", "--store", s.storeUrl);
+            CommandRun refused = CommandRun.run(dir, "activate", "routing", "0.9.0", "--store", s.storeUrl);
             assertThat(refused.exitCode()).as(refused.err()).isEqualTo(1);
             assertThat(refused.err()).startsWith("pressmark: not activating routing 0.9.0: balanced_accuracy")
                     .contains(Double.toString(goodValue), Double.toString(weakValue), "0.02", "--force --reason");
 
-            ServeProcess.Finished noReason = ServeProcess.runCapturing(dir, "activate", "routing", "0.9.0", "--force", "--store", s.storeUrl);
+            CommandRun noReason = CommandRun.run(dir, "activate", "routing", "0.9.0", "--force", "--store", s.storeUrl);
             assertThat(noReason.exitCode()).isEqualTo(2);
             assertThat(noReason.err()).contains("--force needs --reason");
 
-            ServeProcess.Finished lenient = ServeProcess.runCapturing(dir, "activate", "routing", "0.9.0", "--max-drop", "0.9", "--store", s.storeUrl);
+            CommandRun lenient = CommandRun.run(dir, "activate", "routing", "0.9.0", "--max-drop", "0.9", "--store", s.storeUrl);
             assertThat(lenient.exitCode()).as(lenient.err()).isZero();
             assertThat(lenient.out()).contains("activated routing 0.9.0");
 
-            ServeProcess.Finished back = ServeProcess.runCapturing(dir, "rollback", "routing", "--store", s.storeUrl);
+            CommandRun back = CommandRun.run(dir, "rollback", "routing", "--store", s.storeUrl);
             assertThat(back.exitCode()).as(back.err()).isZero();
-            ServeProcess.Finished forced = ServeProcess.runCapturing(dir, "activate", "routing", "0.9.0", "--force", "--reason", "drill",
+            CommandRun forced = CommandRun.run(dir, "activate", "routing", "0.9.0", "--force", "--reason", "drill",
                     "--store", s.storeUrl);
             assertThat(forced.exitCode()).as(forced.err()).isZero();
             assertThat(forced.out()).contains("forced past the promotion check", "activated routing 0.9.0");
@@ -157,7 +158,7 @@ class PromotionTest {
     @Test
     void the_command_line_shadow_reaches_a_running_server_and_shadow_report_reads_the_stored_reports() throws Exception {
         try (Served s = serving(dir, Served.config())) {
-            ServeProcess.Finished started = ServeProcess.runCapturing(dir, "shadow", "routing", "0.9.0", "--fraction", "1", "--store", s.storeUrl);
+            CommandRun started = CommandRun.run(dir, "shadow", "routing", "0.9.0", "--fraction", "1", "--store", s.storeUrl);
             assertThat(started.exitCode()).as(started.err()).isZero();
             assertThat(started.out()).contains("shadowing routing 0.9.0 against the active 1.0.0");
             long deadline = System.nanoTime() + 2_000_000_000L;
@@ -168,7 +169,7 @@ class PromotionTest {
             for (int i = 0; i < 4; i++) {
                 s.http.postJson("/models/routing/predict", ShadowScoringTest.items(5, i));
             }
-            ServeProcess.Finished stop = ServeProcess.runCapturing(dir, "shadow", "routing", "--stop", "--store", s.storeUrl);
+            CommandRun stop = CommandRun.run(dir, "shadow", "routing", "--stop", "--store", s.storeUrl);
             assertThat(stop.exitCode()).as(stop.err()).isZero();
             assertThat(stop.out()).contains("stopped the shadow of routing 0.9.0");
             long saved = System.nanoTime() + 10_000_000_000L;
@@ -176,17 +177,17 @@ class PromotionTest {
                 assertThat(System.nanoTime()).as("the final report saved within 10 s").isLessThan(saved);
                 Thread.sleep(50);
             }
-            ServeProcess.Finished json = ServeProcess.runCapturing(dir, "shadow-report", "routing", "--json", "--store", s.storeUrl);
+            CommandRun json = CommandRun.run(dir, "shadow-report", "routing", "--json", "--store", s.storeUrl);
             assertThat(json.exitCode()).as(json.err()).isZero();
             JsonNode report = JSON.readTree(json.out());
             JsonNode served = s.http.get("/models/routing/shadow").json();
             assertThat(report.get("samples").asLong()).isEqualTo(20);
             assertThat(report.get("running").asBoolean()).isFalse();
             assertThat(report).isEqualTo(served);
-            ServeProcess.Finished text = ServeProcess.runCapturing(dir, "shadow-report", "routing", "--store", s.storeUrl);
+            CommandRun text = CommandRun.run(dir, "shadow-report", "routing", "--store", s.storeUrl);
             assertThat(text.out()).contains("shadow of routing 0.9.0 against 1.0.0, stopped", "items scored 20");
 
-            ServeProcess.Finished usage = ServeProcess.runCapturing(dir, "shadow", "routing", "--store", s.storeUrl);
+            CommandRun usage = CommandRun.run(dir, "shadow", "routing", "--store", s.storeUrl);
             assertThat(usage.exitCode()).isEqualTo(2);
         }
     }

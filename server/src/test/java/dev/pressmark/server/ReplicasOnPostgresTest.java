@@ -3,6 +3,7 @@ package dev.pressmark.server;
 import static org.assertj.core.api.Assertions.assertThat;
 
 import com.fasterxml.jackson.databind.JsonNode;
+import dev.pressmark.cli.CommandRun;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.store.Activation;
 import dev.pressmark.store.BundleStore;
@@ -89,7 +90,8 @@ class ReplicasOnPostgresTest {
 
                     // the command line in its own JVM, with the replicas polled while it runs
                     CompletableFuture<Integer> activating = CompletableFuture.supplyAsync(
-                            () -> ServeProcess.run(dir, "activate", "routing", "1.0.0", "--store", url, "--reason", "back"));
+                            () -> CommandRun.run(dir, "activate", "routing", "1.0.0", "--store", url, "--reason", "back")
+                                    .succeeded().exitCode());
                     served = firstServed(both, "1.0.0", scoreOf, activating);
                     assertThat(activating.join()).isZero();
                     activatedAt = newest(store, "1.0.0").activatedAt();

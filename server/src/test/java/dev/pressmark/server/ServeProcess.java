@@ -2,7 +2,7 @@ package dev.pressmark.server;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import dev.pressmark.cli.Main;
+import dev.pressmark.cli.CommandRun;
 import java.io.BufferedReader;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
@@ -20,8 +20,8 @@ import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 
 /**
- * {@code pressmark} in a child JVM, as an operator runs it: {@link #serve} starts a service and
- * reads its port from the line it prints; {@link #run} runs a command to its end.
+ * {@code pressmark serve} in a child JVM, as an operator runs it: {@link #serve} starts a service
+ * and reads its port from the line it prints. {@link CommandRun} runs the other commands to their end.
  */
 public final class ServeProcess implements AutoCloseable {
 
@@ -70,72 +70,9 @@ public final class ServeProcess implements AutoCloseable {
         }
     }
 
-    /** Runs a {@code pressmark} command to its end; returns its exit code, with its stderr on failure. */
-    static int run(Path dir, String... args) {
-        Process process = start(dir, Map.of(), args);
-        CompletableFuture<String> err = collect(process);
-        try {
-            process.getOutputStream().close();
-            if (!process.waitFor(STARTED_WITHIN.toSeconds(), TimeUnit.SECONDS)) {
-                stop(process);
-                throw new AssertionError("pressmark " + String.join(" ", args) + " did not finish in " + STARTED_WITHIN);
-            }
-            int code = process.exitValue();
-            if (code != 0) {
-                throw new AssertionError("pressmark " + String.join(" ", args) + " exited with " + code + ":\n" + err.join());
-            }
-            return code;
-        } catch (IOException e) {
-            throw new UncheckedIOException(e);
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new AssertionError("interrupted", e);
-        }
-    }
-
-    /** What a finished {@code pressmark} command printed, and its exit code. */
-    record Finished(int exitCode, String out, String err) {
-    }
-
-    /** Runs a {@code pressmark} command to its end, whatever its exit code, and keeps both outputs. */
-    static Finished runCapturing(Path dir, String... args) {
-        Process process = start(dir, Map.of(), args);
-        CompletableFuture<String> err = collect(process);
-        CompletableFuture<String> out = CompletableFuture.supplyAsync(() -> {
-            try (ByteArrayOutputStream buffer = new ByteArrayOutputStream()) {
-                process.getInputStream().transferTo(buffer);
-                return buffer.toString(StandardCharsets.UTF_8);
-            } catch (IOException e) {
-                throw new UncheckedIOException(e);
-            }
-        });
-        try {
-            process.getOutputStream().close();
-            if (!process.waitFor(STARTED_WITHIN.toSeconds(), TimeUnit.SECONDS)) {
-                stop(process);
-                throw new AssertionError("pressmark " + String.join(" ", args) + " did not finish in " + STARTED_WITHIN);
-            }
-            return new Finished(process.exitValue(), out.join(), err.join());
-        } catch (IOException e) {
-            throw new UncheckedIOException(e);
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new AssertionError("interrupted", e);
-        }
-    }
-
     private static Process start(Path dir, Map<String, String> env, String... args) {
-        List<String> command = new ArrayList<>(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(),
-                // start-up dominates these short runs on two cores; the client compiler alone gets there sooner
-                "-XX:TieredStopAtLevel=1", "-XX:+UseSerialGC",
-                "-cp", System.getProperty("java.class.path"), Main.class.getName()));
-        command.addAll(List.of(args));
-        ProcessBuilder builder = new ProcessBuilder(command).directory(dir.toFile());
-        builder.environment().remove("PRESSMARK_ADMIN_TOKEN");
-        builder.environment().remove("PRESSMARK_STORE");
-        builder.environment().putAll(env);
         try {
-            return builder.start();
+            return CommandRun.builder(dir, env, args).start();
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
