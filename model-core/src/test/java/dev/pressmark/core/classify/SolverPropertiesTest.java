@@ -140,6 +140,40 @@ class SolverPropertiesTest {
         }
     }
 
+    /**
+     * The same certificate for logistic regression. Its dual (Yu, Huang and Lin, 2011, eq. 4, with
+     * the constant −Σ C_i log C_i that makes the optimal values meet) is f(α) = ½‖w‖² +
+     * Σ_i [α_i log α_i + (C_i − α_i) log(C_i − α_i) − C_i log C_i]. Row i's share of P(w) + f(α)
+     * is C_i times the Kullback-Leibler divergence between two Bernoulli laws whose log-odds differ
+     * by the dual gradient that the stopping rule bounds, at most C_i · tolerance² / 8. The bound
+     * allowed here, tolerance · Σ C_i, leaves room for the gradients of the last pass being read
+     * before each row's own step.
+     */
+    @Property(tries = 100)
+    void a_converged_logistic_run_closes_the_duality_gap(@ForAll long seed,
+            @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
+        Random problem = Random.problem(seed);
+        double[] cost = problem.costs(c);
+        double[] w = new double[problem.x.columns() + 1];
+        double[] alpha = new double[problem.x.rows()];
+        SolverRun run = LogisticSolver.solve(problem.x, problem.positive, cost,
+                LogisticConfig.defaults().withTolerance(TIGHT).withMaxIterations(PLENTY),
+                new SplittableRandom(seed), w, alpha);
+
+        assertThat(run.converged()).isTrue();
+        double primal = LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, w);
+        double dual = 0.0;
+        for (double wj : w) {
+            dual += 0.5 * wj * wj;
+        }
+        for (int i = 0; i < alpha.length; i++) {
+            double rest = cost[i] - alpha[i];
+            dual += alpha[i] * Math.log(alpha[i]) + rest * Math.log(rest) - cost[i] * Math.log(cost[i]);
+        }
+        double gap = primal + dual;
+        assertThat(gap).isBetween(-ROUNDING * (1.0 + primal), TIGHT * Arrays.stream(cost).sum() + ROUNDING * (1.0 + primal));
+    }
+
     @Property(tries = 50)
     void one_versus_rest_over_two_classes_agrees_with_the_binary_model(@ForAll long seed) {
         Random problem = Random.problem(seed);
