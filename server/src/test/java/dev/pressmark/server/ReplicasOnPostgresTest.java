@@ -78,25 +78,27 @@ class ReplicasOnPostgresTest {
                 CompletableFuture<ServeProcess> startingB = CompletableFuture.supplyAsync(() -> replica(url));
                 try (ServeProcess a = join(startingA, startingB); ServeProcess b = join(startingB, startingA)) {
                     List<ServeProcess> both = List.of(a, b);
-                    firstServed(both, "1.0.0", scoreOf, CompletableFuture.completedFuture(0));
+                    ServeProcess.explainingFailures(() -> {
+                        firstServed(both, "1.0.0", scoreOf, CompletableFuture.completedFuture(0));
 
-                    Http.Answer put = a.http.putJson("/models/routing/active", "{\"tag\":\"1.1.0\"}", Served.AS_ADMIN);
-                    assertThat(put.status()).as(put.body()).isEqualTo(200);
-                    List<Instant> served = firstServed(both, "1.1.0", scoreOf, CompletableFuture.completedFuture(0));
-                    Instant activatedAt = newest(store, "1.1.0").activatedAt();
-                    assertThat(Duration.between(activatedAt, served.get(1)))
-                            .as("replica B serving what was activated through replica A").isLessThan(PICKED_UP_WITHIN);
-                    assertThat(Duration.between(activatedAt, served.get(0))).as("replica A").isLessThan(PICKED_UP_WITHIN);
+                        Http.Answer put = a.http.putJson("/models/routing/active", "{\"tag\":\"1.1.0\"}", Served.AS_ADMIN);
+                        assertThat(put.status()).as(put.body()).isEqualTo(200);
+                        List<Instant> served = firstServed(both, "1.1.0", scoreOf, CompletableFuture.completedFuture(0));
+                        Instant activatedAt = newest(store, "1.1.0").activatedAt();
+                        assertThat(Duration.between(activatedAt, served.get(1)))
+                                .as("replica B serving what was activated through replica A").isLessThan(PICKED_UP_WITHIN);
+                        assertThat(Duration.between(activatedAt, served.get(0))).as("replica A").isLessThan(PICKED_UP_WITHIN);
 
-                    // the command line in its own JVM, with the replicas polled while it runs
-                    CompletableFuture<Integer> activating = CompletableFuture.supplyAsync(
-                            () -> CommandRun.run(dir, "activate", "routing", "1.0.0", "--store", url, "--reason", "back")
-                                    .succeeded().exitCode());
-                    served = firstServed(both, "1.0.0", scoreOf, activating);
-                    assertThat(activating.join()).isZero();
-                    activatedAt = newest(store, "1.0.0").activatedAt();
-                    assertThat(Duration.between(activatedAt, served.get(0))).as("replica A after the command").isLessThan(PICKED_UP_WITHIN);
-                    assertThat(Duration.between(activatedAt, served.get(1))).as("replica B after the command").isLessThan(PICKED_UP_WITHIN);
+                        // the command line in its own JVM, with the replicas polled while it runs
+                        CompletableFuture<Integer> activating = CompletableFuture.supplyAsync(
+                                () -> CommandRun.run(dir, "activate", "routing", "1.0.0", "--store", url, "--reason", "back")
+                                        .succeeded().exitCode());
+                        served = firstServed(both, "1.0.0", scoreOf, activating);
+                        assertThat(activating.join()).isZero();
+                        activatedAt = newest(store, "1.0.0").activatedAt();
+                        assertThat(Duration.between(activatedAt, served.get(0))).as("replica A after the command").isLessThan(PICKED_UP_WITHIN);
+                        assertThat(Duration.between(activatedAt, served.get(1))).as("replica B after the command").isLessThan(PICKED_UP_WITHIN);
+                    }, a, b);
                 }
             }
         }

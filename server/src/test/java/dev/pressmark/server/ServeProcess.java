@@ -102,6 +102,30 @@ public final class ServeProcess implements AutoCloseable {
         }
     }
 
+    /** A check that may throw anything. */
+    @FunctionalInterface
+    public interface Check {
+        void run() throws Exception;
+    }
+
+    /**
+     * Runs {@code check}; if it fails, the failure also carries what each of {@code services}
+     * wrote to stderr (which stops them): their log says why they answered as they did, or did not
+     * answer at all.
+     */
+    public static void explainingFailures(Check check, ServeProcess... services) throws Exception {
+        try {
+            check.run();
+        } catch (AssertionError | Exception e) {
+            StringBuilder logs = new StringBuilder(String.valueOf(e.getMessage()));
+            for (int i = 0; i < services.length; i++) {
+                logs.append("\n\nservice ").append(i + 1).append(" of ").append(services.length)
+                        .append(", stderr:\n").append(services[i].stderr());
+            }
+            throw new AssertionError(logs.toString(), e);
+        }
+    }
+
     /** Stops the service if it still runs and returns all it wrote to stderr. */
     public String stderr() {
         stop(process);

@@ -52,7 +52,7 @@ class StoreOutageTest {
         String url = "jdbc:postgresql://127.0.0.1:" + port + "/postgres?user=postgres";
 
         try (ServeProcess serve = ServeProcess.serve(dir, url, Map.of("PRESSMARK_ADMIN_TOKEN", Served.ADMIN))) {
-            try {
+            ServeProcess.explainingFailures(() -> {
                 // nothing listens on the port: the service is up, not ready, and names the store as the reason
                 assertThat(serve.http.get("/health").status()).isEqualTo(200);
                 Http.Answer ready = serve.http.get("/health/ready");
@@ -101,10 +101,7 @@ class StoreOutageTest {
                 } finally {
                     postgres.close();
                 }
-            } catch (AssertionError | RuntimeException e) {
-                // the service's log says why it answered as it did (or did not answer)
-                throw new AssertionError(e.getMessage() + "\nthe service's stderr:\n" + serve.stderr(), e);
-            }
+            }, serve);
         }
     }
 
