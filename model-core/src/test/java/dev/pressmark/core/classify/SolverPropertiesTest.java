@@ -94,20 +94,12 @@ class SolverPropertiesTest {
         double[] cost = problem.costs(c);
         double[] zero = new double[problem.x.columns() + 1];
         for (SvmLoss loss : SvmLoss.values()) {
-            double[] w = new double[zero.length];
-            SolverRun run = SvmSolver.solve(problem.x, problem.positive, cost,
-                    SvmConfig.defaults().withLoss(loss).withTolerance(TIGHT).withMaxIterations(PLENTY),
-                    new SplittableRandom(seed), w, new double[problem.x.rows()]);
-            assertThat(run.converged()).as("%s converged", loss).isTrue();
+            double[] w = Solved.svm(problem, cost, loss, seed).w;
             double atZero = SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, loss, zero);
             assertThat(SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, loss, w))
                     .isLessThanOrEqualTo(atZero * (1.0 + GAP));
         }
-        double[] w = new double[zero.length];
-        SolverRun run = LogisticSolver.solve(problem.x, problem.positive, cost,
-                LogisticConfig.defaults().withTolerance(TIGHT).withMaxIterations(PLENTY),
-                new SplittableRandom(seed), w, new double[problem.x.rows()]);
-        assertThat(run.converged()).as("logistic converged").isTrue();
+        double[] w = Solved.logistic(problem, cost, seed).w;
         double atZero = LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, zero);
         assertThat(LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, w))
                 .isLessThanOrEqualTo(atZero * (1.0 + GAP));
@@ -126,15 +118,9 @@ class SolverPropertiesTest {
         Random problem = Random.problem(seed);
         double[] cost = problem.costs(c);
         for (SvmLoss loss : SvmLoss.values()) {
-            double[] w = new double[problem.x.columns() + 1];
-            double[] alpha = new double[problem.x.rows()];
-            SolverRun run = SvmSolver.solve(problem.x, problem.positive, cost,
-                    SvmConfig.defaults().withLoss(loss).withTolerance(TIGHT).withMaxIterations(PLENTY),
-                    new SplittableRandom(seed), w, alpha);
-
-            assertThat(run.converged()).as("%s converged", loss).isTrue();
-            double primal = SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, loss, w);
-            double gap = primal + dualObjective(loss, cost, alpha, w);
+            Solved solved = Solved.svm(problem, cost, loss, seed);
+            double primal = SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, loss, solved.w);
+            double gap = primal + dualObjective(loss, cost, solved.alpha, solved.w);
             double bound = 2.0 * TIGHT * Arrays.stream(cost).sum() + ROUNDING * (1.0 + primal);
             assertThat(gap).as("%s duality gap", loss).isBetween(-ROUNDING * (1.0 + primal), bound);
         }
@@ -154,16 +140,11 @@ class SolverPropertiesTest {
             @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
         Random problem = Random.problem(seed);
         double[] cost = problem.costs(c);
-        double[] w = new double[problem.x.columns() + 1];
-        double[] alpha = new double[problem.x.rows()];
-        SolverRun run = LogisticSolver.solve(problem.x, problem.positive, cost,
-                LogisticConfig.defaults().withTolerance(TIGHT).withMaxIterations(PLENTY),
-                new SplittableRandom(seed), w, alpha);
-
-        assertThat(run.converged()).isTrue();
-        double primal = LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, w);
+        Solved solved = Solved.logistic(problem, cost, seed);
+        double[] alpha = solved.alpha;
+        double primal = LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, solved.w);
         double dual = 0.0;
-        for (double wj : w) {
+        for (double wj : solved.w) {
             dual += 0.5 * wj * wj;
         }
         for (int i = 0; i < alpha.length; i++) {
@@ -276,6 +257,32 @@ class SolverPropertiesTest {
             out[j] = 0.0 - w[j]; // keeps an untouched +0.0 from becoming -0.0
         }
         return out;
+    }
+
+    /** The weights and duals of a solve at {@link #TIGHT} within {@link #PLENTY} passes, which must converge. */
+    private record Solved(double[] w, double[] alpha) {
+
+        static Solved svm(Random problem, double[] cost, SvmLoss loss, long seed) {
+            Solved solved = empty(problem);
+            SolverRun run = SvmSolver.solve(problem.x, problem.positive, cost,
+                    SvmConfig.defaults().withLoss(loss).withTolerance(TIGHT).withMaxIterations(PLENTY),
+                    new SplittableRandom(seed), solved.w, solved.alpha);
+            assertThat(run.converged()).as("%s converged", loss).isTrue();
+            return solved;
+        }
+
+        static Solved logistic(Random problem, double[] cost, long seed) {
+            Solved solved = empty(problem);
+            SolverRun run = LogisticSolver.solve(problem.x, problem.positive, cost,
+                    LogisticConfig.defaults().withTolerance(TIGHT).withMaxIterations(PLENTY),
+                    new SplittableRandom(seed), solved.w, solved.alpha);
+            assertThat(run.converged()).as("logistic converged").isTrue();
+            return solved;
+        }
+
+        private static Solved empty(Random problem) {
+            return new Solved(new double[problem.x.columns() + 1], new double[problem.x.rows()]);
+        }
     }
 
     /** A small random sparse binary problem: 2 to 40 rows, 1 to 15 columns, values in [-2, 2]. */
