@@ -2,6 +2,7 @@ package dev.pressmark.core.classify;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import java.util.Arrays;
 import java.util.SplittableRandom;
 import net.jqwik.api.ForAll;
 import net.jqwik.api.Property;
@@ -62,7 +63,7 @@ class PlattScalingPropertiesTest {
         }
 
         assertThat(ours).as("ours at a = %s, b = %s; the simplex's at %s", fit.a(), fit.b(),
-                java.util.Arrays.toString(best.getPoint())).isLessThanOrEqualTo(best.getValue() * (1.0 + SLACK) + SLACK);
+                Arrays.toString(best.getPoint())).isLessThanOrEqualTo(best.getValue() * (1.0 + SLACK) + SLACK);
     }
 
     /**
