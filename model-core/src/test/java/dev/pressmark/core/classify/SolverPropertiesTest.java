@@ -143,10 +143,7 @@ class SolverPropertiesTest {
         Solved solved = Solved.logistic(problem, cost, seed);
         double[] alpha = solved.alpha;
         double primal = LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, solved.w);
-        double dual = 0.0;
-        for (double wj : solved.w) {
-            dual += 0.5 * wj * wj;
-        }
+        double dual = 0.5 * Rows.squaredNorm(solved.w);
         for (int i = 0; i < alpha.length; i++) {
             double rest = cost[i] - alpha[i];
             dual += alpha[i] * Math.log(alpha[i]) + rest * Math.log(rest) - cost[i] * Math.log(cost[i]);
@@ -240,10 +237,7 @@ class SolverPropertiesTest {
 
     /** The dual {@code f(α) = ½‖w‖² + Σ_i D_ii α_i² / 2 − Σ_i α_i} with {@code w = Σ_i y_i α_i x_i}. */
     private static double dualObjective(SvmLoss loss, double[] cost, double[] alpha, double[] w) {
-        double sum = 0.0;
-        for (double wj : w) {
-            sum += 0.5 * wj * wj;
-        }
+        double sum = 0.5 * Rows.squaredNorm(w);
         for (int i = 0; i < alpha.length; i++) {
             double diagonal = loss == SvmLoss.HINGE ? 0.0 : 0.5 / cost[i];
             sum += 0.5 * diagonal * alpha[i] * alpha[i] - alpha[i];
