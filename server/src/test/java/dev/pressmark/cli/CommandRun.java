@@ -31,12 +31,12 @@ public record CommandRun(int exitCode, String out, String err) {
         return of(workDir, input.getBytes(StandardCharsets.UTF_8), args);
     }
 
-    public static CommandRun of(Path workDir, byte[] input, String... args) {
+    static CommandRun of(Path workDir, byte[] input, String... args) {
         return of(workDir, Map.of(), input, args);
     }
 
     /** With {@code env} added to the child's environment, as {@link #builder} says. */
-    public static CommandRun of(Path workDir, Map<String, String> env, byte[] input, String... args) {
+    static CommandRun of(Path workDir, Map<String, String> env, byte[] input, String... args) {
         try {
             Process process = builder(workDir, env, args).start();
             CompletableFuture<byte[]> out = drain(process.getInputStream());
