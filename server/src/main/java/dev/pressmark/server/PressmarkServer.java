@@ -180,6 +180,11 @@ public final class PressmarkServer implements AutoCloseable {
         return shadows;
     }
 
+    /** The versions this server serves now; for tests in this package. */
+    LiveModels live() {
+        return live;
+    }
+
     /** Stops listening, lets the tap's queue drain briefly, writes the final shadow reports, then stops following the store. */
     @Override
     public void close() {

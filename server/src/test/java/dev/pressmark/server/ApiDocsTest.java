@@ -22,7 +22,6 @@ import io.swagger.v3.parser.core.models.SwaggerParseResult;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Duration;
 import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
@@ -40,8 +39,6 @@ import org.junit.jupiter.api.io.TempDir;
  */
 class ApiDocsTest {
 
-    /** Generous: the follower waits 500 ms at a time on the feed. */
-    private static final Duration FEED_PICKUP = Duration.ofSeconds(10);
     private static final ObjectMapper JSON = new ObjectMapper();
     private static final Pattern ASSET = Pattern.compile("(?:src|href)=\"([^\"]+)\"");
 
@@ -78,15 +75,6 @@ class ApiDocsTest {
         return BundleAssembler.assemble(config, data, new TrainingRun(config, data).run(Progress.NONE), Instant.parse("2026-01-01T00:00:00Z"));
     }
 
-    /** The store's change feed reaches the server a moment after an activation made beside it. */
-    private static void awaitServing(Served s, String tag) {
-        long deadline = System.nanoTime() + FEED_PICKUP.toNanos();
-        while (!s.http.get("/health/ready").json().at("/models/routing/serving").asText().equals(tag)) {
-            assertThat(System.nanoTime()).as("serving " + tag + " within " + FEED_PICKUP).isLessThan(deadline);
-            Thread.onSpinWait();
-        }
-    }
-
     private static OpenAPI parsedCleanly(String text) {
         ParseOptions options = new ParseOptions();
         options.setResolve(true);
@@ -105,7 +93,6 @@ class ApiDocsTest {
     void the_served_json_and_yaml_parse_without_messages_and_say_the_same() throws IOException {
         try (Served s = Served.on(dir)) {
             s.serving(threeLabels);
-            awaitServing(s, "1.0.0");
 
             Http.Answer json = s.http.get("/openapi.json");
             assertThat(json.status()).isEqualTo(200);
@@ -129,7 +116,6 @@ class ApiDocsTest {
     void activating_a_version_with_other_labels_changes_the_document() {
         try (Served s = Served.on(dir)) {
             s.serving(threeLabels);
-            awaitServing(s, "1.0.0");
             OpenAPI before = parsedCleanly(s.http.get("/openapi.json").body());
             assertThat(labelEnum(before)).containsExactly("electrical", "garden", "plumbing");
             assertThat(before.getInfo().getDescription()).contains("routing 1.0.0");
@@ -155,7 +141,6 @@ class ApiDocsTest {
     void the_document_s_example_request_gets_the_example_answer_from_the_server() throws IOException {
         try (Served s = Served.on(dir)) {
             s.serving(threeLabels);
-            awaitServing(s, "1.0.0");
             JsonNode doc = s.http.get("/openapi.json").json();
             JsonNode operation = doc.at("/paths/~1models~1routing~1predict/post");
             JsonNode request = operation.at("/requestBody/content/application~1json/examples/typical/value");
@@ -189,7 +174,6 @@ class ApiDocsTest {
                 .withReaderToken(Optional.of(BearerToken.of(Served.READER)));
         try (Served s = Served.on(dir, config)) {
             s.serving(threeLabels);
-            awaitServing(s, "1.0.0");
             assertThat(s.http.get("/models").status()).isEqualTo(401);
             Http.Answer json = s.http.get("/openapi.json");
             assertThat(json.status()).isEqualTo(200);

@@ -4,6 +4,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 import dev.pressmark.store.BundleStore;
 import java.nio.file.Path;
+import java.time.Duration;
 import java.util.Optional;
 
 /** A real server on a loopback port over a real SQLite store file, and a client for it. */
@@ -12,6 +13,8 @@ final class Served implements AutoCloseable {
     static final String ADMIN = "admin-secret-1";
     static final String READER = "reader-secret-2";
     static final String[] AS_ADMIN = {"Authorization", "Bearer " + ADMIN};
+    /** Generous: the follower waits 500 ms at a time on the feed. */
+    private static final Duration FEED_PICKUP = Duration.ofSeconds(10);
 
     final String storeUrl;
     final BundleStore store;
@@ -46,11 +49,33 @@ final class Served implements AutoCloseable {
         }
     }
 
-    /** Publishes {@code bundle} as routing 1.0.0 and activates it: the one model most tests serve. */
+    /**
+     * Publishes {@code bundle} as routing 1.0.0, activates it and waits until the server serves it:
+     * the one model most tests serve.
+     */
     Served serving(byte[] bundle) {
         store.publish("routing", "1.0.0", bundle, "test");
         store.activate("routing", "1.0.0", "test", "first");
+        awaitServing("1.0.0");
         return this;
+    }
+
+    /**
+     * Waits until the server serves routing {@code tag}. It learns of an activation made through
+     * the store beside it from the store's change feed, a moment later. Asked in process, not over
+     * HTTP, so that the wait adds no request to what a test counts.
+     */
+    void awaitServing(String tag) {
+        long deadline = System.nanoTime() + FEED_PICKUP.toNanos();
+        while (!server.live().active("routing").map(LiveVersion::tag).orElse("").equals(tag)) {
+            assertThat(System.nanoTime()).as("serving " + tag + " within " + FEED_PICKUP).isLessThan(deadline);
+            try {
+                Thread.sleep(5); // leaves the cores to the follower that does the loading
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+                throw new AssertionError("interrupted while waiting for " + tag, e);
+            }
+        }
     }
 
     /** Publishes {@code bundle} as routing {@code tag} without activating it. */
