@@ -13,6 +13,7 @@ import dev.pressmark.core.feature.SparseMatrix;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Comparator;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -42,6 +43,7 @@ public final class Bundle {
     private final ModelWeights model;
     private final LinearClassifier classifier;
     private final JsonNode profile;
+    private final ThreadLocal<Scratch> scratch;
 
     private Bundle(JsonNode manifest, List<String> labels, TextPipeline pipeline, ModelWeights model, JsonNode profile) {
         this.manifest = manifest;
@@ -51,6 +53,7 @@ public final class Bundle {
         this.model = model;
         this.classifier = model.classifier();
         this.profile = profile;
+        this.scratch = ThreadLocal.withInitial(() -> new Scratch(pipeline));
     }
 
     /**
@@ -188,15 +191,36 @@ public final class Bundle {
     public List<Prediction> predict(List<Map<String, String>> items, int maxTokensPerField) {
         requirePositive(maxTokensPerField);
         List<String[]> rows = rows(items);
-        TextPipeline.Tokens cutTokens = TextPipeline.tokenize(pipeline.tokenizer(), rows, maxTokensPerField);
-        List<List<List<String>>> tokens = cutTokens.rows();
-        int[] cut = cutTokens.dropped();
-        SparseMatrix x = pipeline.features().transform(tokens);
+        Scratch scratch = this.scratch.get();
+        SparseMatrix.Builder builder = SparseMatrix.builder(pipeline.features().featureCount());
+        int[] unknown = new int[rows.size()];
+        int[] cut = new int[rows.size()];
+        for (int i = 0; i < rows.size(); i++) {
+            int length = scratch.encoder.encode(rows.get(i), maxTokensPerField, scratch.cols, scratch.vals);
+            builder.addRow(Arrays.copyOf(scratch.cols, length), Arrays.copyOf(scratch.vals, length));
+            unknown[i] = scratch.encoder.unknownTokens();
+            cut[i] = scratch.encoder.droppedTokens();
+        }
+        SparseMatrix x = builder.build();
         List<Prediction> predictions = new ArrayList<>(rows.size());
         for (int i = 0; i < rows.size(); i++) {
-            predictions.add(prediction(x, i, pipeline.unknownTokens(tokens.get(i)), cut[i]));
+            predictions.add(prediction(x, i, unknown[i], cut[i]));
         }
         return predictions;
+    }
+
+    /** One thread's encoder and row buffers, so that a request allocates nothing the size of the feature space. */
+    private static final class Scratch {
+
+        private final RowEncoder encoder;
+        private final int[] cols;
+        private final double[] vals;
+
+        Scratch(TextPipeline pipeline) {
+            this.encoder = pipeline.rowEncoder();
+            this.cols = new int[pipeline.features().featureCount()];
+            this.vals = new double[pipeline.features().featureCount()];
+        }
     }
 
     /**

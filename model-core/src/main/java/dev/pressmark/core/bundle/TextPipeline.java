@@ -6,7 +6,10 @@ import dev.pressmark.core.tokenize.CharNgramTokenizer;
 import dev.pressmark.core.tokenize.Tokenizer;
 import dev.pressmark.core.tokenize.ViewsTokenizer;
 import dev.pressmark.core.tokenize.WordPieceVocabulary;
+import dev.pressmark.core.feature.SpanIndex;
 import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.Map;
 import java.util.List;
 import java.util.Objects;
 
@@ -15,21 +18,73 @@ import java.util.Objects;
  * and the fitted feature space over their tokens. Training builds one per fold and one for the
  * final model; serving rebuilds the final one from the bundle, so both apply exactly the same
  * steps. With several views, every token carries its view's tag ({@link ViewsTokenizer}). Immutable
- * and thread-safe.
- *
- * @param views how each view's tokenizer was made, as the bundle stores it
- * @param tokenizer the tokenizer the views describe, tagging tokens when there are several
- * @param features the fitted feature space; its columns are the model's input fields
+ * and thread-safe; a {@link RowEncoder} is not, so each thread takes its own.
  */
-public record TextPipeline(List<TokenizerSpec> views, Tokenizer tokenizer, FeatureSpace features) {
+public final class TextPipeline {
 
-    public TextPipeline {
-        views = List.copyOf(views);
-        if (views.isEmpty()) {
+    private final List<TokenizerSpec> views;
+    private final Tokenizer tokenizer;
+    private final FeatureSpace features;
+    /** Per text column and view, the features of that view's tokens; built on first use. */
+    private volatile SpanIndex[][] spanIndex;
+
+    public TextPipeline(List<TokenizerSpec> views, Tokenizer tokenizer, FeatureSpace features) {
+        this.views = List.copyOf(views);
+        if (this.views.isEmpty()) {
             throw new IllegalArgumentException("a text pipeline needs at least one view");
         }
-        Objects.requireNonNull(tokenizer, "tokenizer");
-        Objects.requireNonNull(features, "features");
+        this.tokenizer = Objects.requireNonNull(tokenizer, "tokenizer");
+        this.features = Objects.requireNonNull(features, "features");
+    }
+
+    public List<TokenizerSpec> views() {
+        return views;
+    }
+
+    public Tokenizer tokenizer() {
+        return tokenizer;
+    }
+
+    public FeatureSpace features() {
+        return features;
+    }
+
+    /** A new encoder of rows of text straight into feature rows; for one thread at a time. */
+    public RowEncoder rowEncoder() {
+        SpanIndex[][] index = spanIndex;
+        if (index == null) {
+            index = buildSpanIndex();
+            spanIndex = index;
+        }
+        List<Tokenizer> viewTokenizers = tokenizer instanceof ViewsTokenizer tagged ? tagged.views() : List.of(tokenizer);
+        boolean[] wordPiece = new boolean[views.size()];
+        for (int v = 0; v < wordPiece.length; v++) {
+            wordPiece[v] = views.get(v).isWordPiece();
+        }
+        return new RowEncoder(features.encoder(), viewTokenizers, index, wordPiece);
+    }
+
+    private SpanIndex[][] buildSpanIndex() {
+        ViewsTokenizer tagged = tokenizer instanceof ViewsTokenizer v ? v : null;
+        SpanIndex[][] index = new SpanIndex[features.columns().size()][views.size()];
+        for (int c = 0; c < index.length; c++) {
+            List<Map<String, Integer>> byView = new ArrayList<>();
+            for (int v = 0; v < views.size(); v++) {
+                byView.add(new HashMap<>());
+            }
+            for (Map.Entry<String, Integer> entry : features.tokensOf(c).entrySet()) {
+                String token = entry.getKey();
+                int view = tagged == null ? 0 : tagged.viewOf(token);
+                if (view >= 0) {
+                    String raw = tagged == null ? token : token.substring(tagged.tags().get(view).length() + 1);
+                    byView.get(view).put(raw, entry.getValue());
+                }
+            }
+            for (int v = 0; v < views.size(); v++) {
+                index[c][v] = new SpanIndex(byView.get(v));
+            }
+        }
+        return index;
     }
 
     /** A pipeline of one view. */

@@ -189,6 +189,11 @@ public final class FeatureSpace {
         return tokens[Objects.checkIndex(j, tokens.length)];
     }
 
+    /** Every token of text column {@code c} that is a feature, with its index. */
+    public Map<String, Integer> tokensOf(int c) {
+        return index.get(c);
+    }
+
     /** The index of the feature of {@code token} in {@code column}, or -1 if it is not a feature. */
     public int indexOf(String column, String token) {
         int c = columns.indexOf(column);
@@ -356,10 +361,15 @@ public final class FeatureSpace {
         private final FeatureSpace space;
         /** Occurrences per feature in the current row; all zero between rows. */
         private final int[] counts;
+        /** The features of the current row, in the order first seen. */
+        private final int[] seen;
+        private int length;
+        private int rowTokens;
 
         private Encoder(FeatureSpace space) {
             this.space = space;
             this.counts = new int[space.featureCount()];
+            this.seen = new int[space.featureCount()];
         }
 
         /**
@@ -368,48 +378,76 @@ public final class FeatureSpace {
          * {@link FeatureSpace#featureCount()} entries.
          */
         public int encode(List<List<String>> row, int[] cols, double[] vals) {
-            int m = space.featureCount();
-            if (cols.length < m || vals.length < m) {
-                throw new IllegalArgumentException("cols and vals must have at least " + m
-                        + " entries (one per feature), had " + cols.length + " and " + vals.length);
-            }
+            requireRoom(cols, vals);
             return encode(-1, row, cols, vals);
         }
 
         int encode(int rowIndex, List<List<String>> row, int[] cols, double[] vals) {
             List<String> columns = space.columns;
             checkRow(rowIndex, row, columns);
-            int length = 0;
-            int rowTokens = 0;
             for (int c = 0; c < columns.size(); c++) {
                 Map<String, Integer> tokenIndex = space.index.get(c);
                 int position = 0;
                 for (String token : row.get(c)) {
                     if (token == null) {
-                        FeatureKernels.clear(counts, cols, length);
+                        reset();
                         throw nullToken(rowIndex, columns.get(c), position);
                     }
                     Integer j = tokenIndex.get(token);
-                    if (j != null) {
-                        int feature = j;
-                        if (counts[feature]++ == 0) {
-                            cols[length++] = feature;
-                        }
-                    }
+                    add(j == null ? -1 : j);
                     position++;
                 }
-                rowTokens += position;
             }
-            Arrays.sort(cols, 0, length);
-            FeatureKernels.weigh(space.config.weighting(), space.config.sublinear(), cols, length, counts, rowTokens,
+            return finish(cols, vals);
+        }
+
+        /**
+         * Counts one token of the current row: feature {@code j}, or -1 for a token that is no
+         * feature (it still counts towards the row's length).
+         */
+        public void add(int j) {
+            rowTokens++;
+            if (j >= 0 && counts[j]++ == 0) {
+                seen[length++] = j;
+            }
+        }
+
+        /**
+         * Writes the features of the tokens {@link #add}ed since the last row into {@code cols}
+         * (strictly increasing) and {@code vals}, weighted and scaled, starts a new row and returns
+         * how many it wrote. Both arrays must hold at least {@link FeatureSpace#featureCount()}
+         * entries.
+         */
+        public int finish(int[] cols, double[] vals) {
+            requireRoom(cols, vals);
+            int written = length;
+            System.arraycopy(seen, 0, cols, 0, written);
+            Arrays.sort(cols, 0, written);
+            FeatureKernels.weigh(space.config.weighting(), space.config.sublinear(), cols, written, counts, rowTokens,
                     space.idf, vals);
             switch (space.config.scaling()) {
-                case L2 -> FeatureKernels.l2Normalize(vals, length);
-                case STANDARDIZE -> length = FeatureKernels.scaleColumns(cols, vals, length, space.scales);
+                case L2 -> FeatureKernels.l2Normalize(vals, written);
+                case STANDARDIZE -> written = FeatureKernels.scaleColumns(cols, vals, written, space.scales);
                 case NONE -> { }
                 default -> throw new IllegalArgumentException("unknown scaling " + space.config.scaling());
             }
-            return length;
+            length = 0;
+            rowTokens = 0;
+            return written;
+        }
+
+        private void reset() {
+            FeatureKernels.clear(counts, seen, length);
+            length = 0;
+            rowTokens = 0;
+        }
+
+        private void requireRoom(int[] cols, double[] vals) {
+            int m = space.featureCount();
+            if (cols.length < m || vals.length < m) {
+                throw new IllegalArgumentException("cols and vals must have at least " + m
+                        + " entries (one per feature), had " + cols.length + " and " + vals.length);
+            }
         }
     }
 

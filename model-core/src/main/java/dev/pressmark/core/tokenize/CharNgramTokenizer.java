@@ -91,6 +91,64 @@ public final class CharNgramTokenizer implements Tokenizer {
         return out;
     }
 
+    @Override
+    public int scan(String text, int maxTokens, Spans sink) {
+        String normalized = normalizer.normalize(text);
+        int length = normalized.length();
+        StringBuilder marked = new StringBuilder(Math.min(length, 64) + 2);
+        int[] offsets = new int[Math.min(length, 64) + 3];
+        int emitted = 0;
+        int dropped = 0;
+        for (int start = PreTokenizer.wordStart(normalized, 0); start < length; ) {
+            int end = PreTokenizer.wordEnd(normalized, start);
+            marked.setLength(0);
+            marked.append(START).append(normalized, start, end).append(END);
+            int points = Character.codePointCount(marked, 0, marked.length());
+            if (offsets.length < points + 1) {
+                offsets = new int[points + 1];
+            }
+            for (int p = 0, i = 0; p <= points; p++) {
+                offsets[p] = i;
+                i += i < marked.length() ? Character.charCount(Character.codePointAt(marked, i)) : 0;
+            }
+            int grams = gramsOf(points);
+            int room = Math.max(0, Math.min(grams, maxTokens - emitted));
+            if (room > 0) {
+                emitWord(marked, offsets, points, room, sink);
+            }
+            emitted += room;
+            dropped += grams - room;
+            start = PreTokenizer.wordStart(normalized, end);
+        }
+        return dropped;
+    }
+
+    /** How many n-grams a marked word of {@code points} code points gives. */
+    private int gramsOf(int points) {
+        int count = 0;
+        for (int n = minN; n <= maxN; n++) {
+            if (points <= n) {
+                return count + 1;
+            }
+            count += points - n + 1;
+        }
+        return count;
+    }
+
+    /** The first {@code room} n-grams of a marked word, as spans between code point offsets. */
+    private void emitWord(CharSequence marked, int[] offsets, int points, int room, Spans sink) {
+        int left = room;
+        for (int n = minN; n <= maxN && left > 0; n++) {
+            if (points <= n) {
+                sink.token(marked, 0, offsets[points]);
+                return;
+            }
+            for (int offset = 0; offset + n <= points && left > 0; offset++, left--) {
+                sink.token(marked, offsets[offset], offsets[offset + n]);
+            }
+        }
+    }
+
     /** The n-grams of the marked word {@code marked[0, points)}, in scikit-learn's order. */
     private void addWord(int[] marked, int points, StringBuilder gram, List<String> out) {
         for (int n = minN; n <= maxN; n++) {

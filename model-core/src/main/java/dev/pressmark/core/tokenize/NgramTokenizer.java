@@ -42,6 +42,40 @@ public final class NgramTokenizer implements Tokenizer {
     }
 
     @Override
+    public int scan(String text, int maxTokens, Spans sink) {
+        if (n == 1) {
+            return tokens.scan(text, maxTokens, sink);
+        }
+        List<String> unigrams = tokens.tokenize(text);
+        StringBuilder gram = new StringBuilder();
+        int emitted = 0;
+        int total = 0;
+        for (int i = 0; i < unigrams.size(); i++) {
+            for (int order = 1; order <= n && order <= i + 1; order++) {
+                total++;
+                if (emitted == maxTokens) {
+                    continue;
+                }
+                emitted++;
+                if (order == 1) {
+                    String unigram = unigrams.get(i);
+                    sink.token(unigram, 0, unigram.length());
+                    continue;
+                }
+                gram.setLength(0);
+                for (int t = i - order + 1; t <= i; t++) {
+                    if (t > i - order + 1) {
+                        gram.append(JOIN);
+                    }
+                    gram.append(unigrams.get(t));
+                }
+                sink.token(gram, 0, gram.length());
+            }
+        }
+        return total - emitted;
+    }
+
+    @Override
     public List<String> tokenize(String text) {
         List<String> unigrams = tokens.tokenize(text);
         if (n == 1) {
