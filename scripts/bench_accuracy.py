@@ -150,6 +150,21 @@ def table(dirs):
         verdicts.append("%s: %s" % (name, "at the reference" if difference >= -MARGIN else "below the reference"))
     print("\n".join(lines))
     print()
+    print("Every reference candidate's test accuracy (features in brackets; * did not converge in 1000 passes):")
+    print()
+    refs = []
+    for d in dirs:
+        with open(os.path.join(d, "reference.json")) as f:
+            refs.append((os.path.basename(os.path.normpath(d)), json.load(f)))
+    print("| reference candidate | " + " | ".join(name for name, _ in refs) + " |")
+    print("|---|" + "---|" * len(refs))
+    for i, candidate in enumerate(refs[0][1]["candidates"]):
+        cells = []
+        for _, ref in refs:
+            c = ref["candidates"][i]
+            cells.append("%.4f (%s)%s" % (c["accuracy"], format(c["features"], ","), "" if c["converged"] else " *"))
+        print("| %s | %s |" % (candidate["config"], " | ".join(cells)))
+    print()
     print("Goal: pressmark's test accuracy no more than %.3f below the reference's best; " % MARGIN + "; ".join(verdicts) + ".")
 
 
