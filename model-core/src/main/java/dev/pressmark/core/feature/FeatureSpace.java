@@ -60,8 +60,14 @@ import java.util.Objects;
  */
 public final class FeatureSpace {
 
-    /** The version of {@link State} this build writes and the only one it reads. */
-    public static final int FORMAT_VERSION = 1;
+    /**
+     * The newest version of {@link State} this build writes and reads. Version 2 adds
+     * {@code min_df} and {@code sublinear}; a space without them is written as version 1, as
+     * before.
+     */
+    public static final int FORMAT_VERSION = 2;
+    /** The version of a state that has no setting of version 2. */
+    public static final int FORMAT_VERSION_1 = 1;
 
     private final List<String> columns;
     private final FeatureConfig config;
@@ -129,7 +135,18 @@ public final class FeatureSpace {
      *     token; the message names the row
      */
     public static FeatureSpace fit(FeatureConfig config, List<String> columns, List<List<List<String>>> rows) {
-        return FeatureFitter.fit(config, columns, rows);
+        return FeatureFitter.fit(config, columns, rows, ViewCaps.NONE);
+    }
+
+    /** As {@link #fit(FeatureConfig, List, List)}, with a cap on the features of each view as well. */
+    public static FeatureSpace fit(FeatureConfig config, List<String> columns, List<List<List<String>>> rows,
+            ViewCaps caps) {
+        return FeatureFitter.fit(config, columns, rows, caps);
+    }
+
+    /** True when a state of format 1 can hold this space. */
+    public boolean fitsFormat1() {
+        return config.fitsFormat1();
     }
 
     /** The feature rows of {@code rows}, one matrix row each, {@link #featureCount()} columns. */
@@ -259,11 +276,14 @@ public final class FeatureSpace {
         }
         boolean tfidf = config.weighting() == Weighting.TFIDF;
         boolean standardize = config.scaling() == Scaling.STANDARDIZE;
-        return new State(FORMAT_VERSION, columns, config.maxTokens(), config.weighting().key(),
-                config.scaling().key(), trainingRows, features,
+        boolean format1 = fitsFormat1();
+        return new State(format1 ? FORMAT_VERSION_1 : FORMAT_VERSION, columns, config.maxTokens(),
+                config.weighting().key(), config.scaling().key(), trainingRows, features,
                 tfidf ? boxed(idf) : null,
                 standardize ? boxed(means) : null,
-                standardize ? boxed(standardDeviations) : null);
+                standardize ? boxed(standardDeviations) : null,
+                format1 ? null : config.minDf(),
+                format1 ? null : config.sublinear());
     }
 
     /**
@@ -381,7 +401,8 @@ public final class FeatureSpace {
                 rowTokens += position;
             }
             Arrays.sort(cols, 0, length);
-            FeatureKernels.weigh(space.config.weighting(), cols, length, counts, rowTokens, space.idf, vals);
+            FeatureKernels.weigh(space.config.weighting(), space.config.sublinear(), cols, length, counts, rowTokens,
+                    space.idf, vals);
             switch (space.config.scaling()) {
                 case L2 -> FeatureKernels.l2Normalize(vals, length);
                 case STANDARDIZE -> length = FeatureKernels.scaleColumns(cols, vals, length, space.scales);
@@ -421,6 +442,8 @@ public final class FeatureSpace {
      * @param means one per feature under standardize, else absent
      * @param standardDeviations one per feature (population, before scaling) under standardize,
      *     else absent
+     * @param minDf the least document frequency of a feature; absent in format 1 (where it is 1)
+     * @param sublinear whether counts weigh {@code 1 + ln c}; absent in format 1 (where they do not)
      */
     @JsonInclude(JsonInclude.Include.NON_NULL)
     public record State(
@@ -433,7 +456,17 @@ public final class FeatureSpace {
             @JsonProperty("features") List<Feature> features,
             @JsonProperty("idf") List<Double> idf,
             @JsonProperty("means") List<Double> means,
-            @JsonProperty("standard_deviations") List<Double> standardDeviations) {
+            @JsonProperty("standard_deviations") List<Double> standardDeviations,
+            @JsonProperty("min_df") Integer minDf,
+            @JsonProperty("sublinear") Boolean sublinear) {
+
+        /** A state of format 1, which has no {@code min_df} and no {@code sublinear}. */
+        public State(int formatVersion, List<String> columns, int maxTokens, String weighting, String scaling,
+                int trainingRows, List<Feature> features, List<Double> idf, List<Double> means,
+                List<Double> standardDeviations) {
+            this(formatVersion, columns, maxTokens, weighting, scaling, trainingRows, features, idf, means,
+                    standardDeviations, null, null);
+        }
 
         public State {
             columns = copy(columns);

@@ -109,7 +109,7 @@ public final class TrainingRun {
         }
         this.positiveClass = positiveClass(config.data().positive(), labels);
         requireTextInEveryColumn(data);
-        this.fitter = new PipelineFitter(config.tokenizer(), config.features(), config.data().text());
+        this.fitter = new PipelineFitter(config.tokenizers(), config.features(), config.data().text());
     }
 
     private static void requireTextInEveryColumn(LabelledData data) {
