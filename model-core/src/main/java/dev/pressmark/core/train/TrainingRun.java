@@ -76,10 +76,28 @@ public final class TrainingRun {
     private final int[] y;
     private final int positiveClass;
     private final PipelineFitter fitter;
+    /** The train/test split given by the caller, or null to hold out a part as {@code config.split()} says. */
+    private final Split fixedSplit;
 
     public TrainingRun(TrainConfig config, LabelledData data) {
+        this(config, data, null);
+    }
+
+    /**
+     * A run that trains (and cross-validates) on every row of {@code train} and tests once on
+     * every row of {@code test}, instead of holding out a part of one file; {@code config.split()}
+     * is then not used. The result's row indices count {@code train}'s rows first, then
+     * {@code test}'s, as in {@link #data()}.
+     */
+    public static TrainingRun withTestData(TrainConfig config, LabelledData train, LabelledData test) {
+        return new TrainingRun(config, train.followedBy(test), new Split(range(0, train.rows()),
+                range(train.rows(), train.rows() + test.rows())));
+    }
+
+    private TrainingRun(TrainConfig config, LabelledData data, Split fixedSplit) {
         this.config = config;
         this.data = data;
+        this.fixedSplit = fixedSplit;
         this.labels = List.copyOf(new TreeSet<>(data.labels()));
         if (labels.size() < 2) {
             throw new PressmarkException("one-class", data.labelColumn() + ": every row has the label \"" + labels.get(0)
@@ -136,6 +154,11 @@ public final class TrainingRun {
         return labels;
     }
 
+    /** The rows this run reads: the data given, or the training rows followed by the test rows. */
+    public LabelledData data() {
+        return data;
+    }
+
     /** The positive class, or -1 for more than two classes. */
     public int positiveClass() {
         return positiveClass;
@@ -144,7 +167,7 @@ public final class TrainingRun {
     /** Runs everything; progress goes to {@code progress}. */
     public Result run(Progress progress) {
         long seed = config.split().seed();
-        Split split = split(seed);
+        Split split = fixedSplit != null ? fixedSplit : split(seed);
         int[] trainRows = split.train();
         int[] trainLabels = select(y, trainRows);
         requireEnoughRowsForFolds(trainLabels);
@@ -330,6 +353,14 @@ public final class TrainingRun {
             rows.add(data.texts().get(i));
         }
         return rows;
+    }
+
+    private static int[] range(int from, int to) {
+        int[] out = new int[to - from];
+        for (int i = 0; i < out.length; i++) {
+            out[i] = from + i;
+        }
+        return out;
     }
 
     private static int[] select(int[] values, int[] indices) {
