@@ -106,7 +106,7 @@ public record TokenizerConfig(
                 vocabSize == null ? DEFAULT.vocabSize : vocabSize,
                 maxWordChars == null ? DEFAULT.maxWordChars : maxWordChars,
                 lowercase == null ? DEFAULT.lowercase : lowercase,
-                stripAccents == null ? DEFAULT.stripAccents : stripAccents,
+                stripAccents == null ? !keepsAccents(resolvedKind) : stripAccents,
                 cjk == null ? DEFAULT.cjk : cjk,
                 minFrequency == null ? DEFAULT.minFrequency : minFrequency,
                 ngrams == null ? DEFAULT_NGRAMS : ngrams,
@@ -141,6 +141,15 @@ public record TokenizerConfig(
             keys.put("max_tokens", maxTokens);
         }
         return keys;
+    }
+
+    /**
+     * Whether a kind keeps accents unless told otherwise: character n-grams and whole words see the
+     * spelling, and an accent is spelling (place names: {@code ã}, {@code ñ}, {@code ø} point at
+     * a country); WordPiece keeps BERT's uncased default of stripping them.
+     */
+    static boolean keepsAccents(TokenizerKind kind) {
+        return kind == TokenizerKind.CHAR_NGRAMS || kind == TokenizerKind.WORDS;
     }
 
     /** The normaliser these settings describe. */

@@ -72,6 +72,7 @@ class ViewsTrainingTest {
                 .containsExactly(TokenizerKind.WORDPIECE, TokenizerKind.CHAR_NGRAMS, TokenizerKind.WORDS);
         assertThat(config.tokenizers().get(1).maxTokens()).isEqualTo(300);
         assertThat(config.tokenizers().get(2).ngrams()).isEqualTo(2);
+        assertThat(config.tokenizers()).extracting(TokenizerConfig::stripAccents).containsExactly(true, false, false);
         assertThat(config.features().maxTokens()).isEqualTo(dev.pressmark.core.feature.FeatureConfig.ALL);
         assertThat(config.features().minDf()).isEqualTo(2);
         assertThat(config.features().sublinear()).isTrue();
