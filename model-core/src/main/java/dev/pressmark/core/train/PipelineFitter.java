@@ -7,7 +7,7 @@ import dev.pressmark.core.bundle.TokenizerSpec;
 import dev.pressmark.core.feature.FeatureConfig;
 import dev.pressmark.core.feature.FeatureSpace;
 import dev.pressmark.core.feature.SparseMatrix;
-import dev.pressmark.core.feature.ViewCaps;
+import dev.pressmark.core.feature.TokenSource;
 import dev.pressmark.core.tokenize.Tokenizer;
 import dev.pressmark.core.tokenize.ViewsTokenizer;
 import dev.pressmark.core.tokenize.WordCounts;
@@ -34,8 +34,8 @@ final class PipelineFitter {
         this.columns = List.copyOf(columns);
     }
 
-    /** A fitted pipeline with the tokens and feature rows of the rows it was fitted on. */
-    record Fitted(TextPipeline pipeline, List<List<List<String>>> tokens, SparseMatrix x) {
+    /** A fitted pipeline with the feature rows of the rows it was fitted on. */
+    record Fitted(TextPipeline pipeline, SparseMatrix x) {
     }
 
     /** Fits on {@code rows}, each holding one text per column. */
@@ -54,20 +54,18 @@ final class PipelineFitter {
             built.add(spec.tokenizer());
         }
         Tokenizer tokenizer = TextPipeline.combine(specs, built);
-        List<List<List<String>>> tokens = TextPipeline.tokenize(tokenizer, rows);
-        FeatureSpace space = FeatureSpace.fit(features, columns, tokens, caps(tokenizer));
-        return new Fitted(new TextPipeline(specs, tokenizer, space), tokens, space.transform(tokens));
+        List<String> prefixes = TextPipeline.prefixes(tokenizer);
+        TokenSource source = TextPipeline.source(built, rows);
+        FeatureSpace space = FeatureSpace.fit(features, columns, source, prefixes, caps());
+        return new Fitted(new TextPipeline(specs, tokenizer, space), space.transform(source, prefixes));
     }
 
-    private ViewCaps caps(Tokenizer tokenizer) {
+    private int[] caps() {
         int[] caps = new int[tokenizers.size()];
         for (int v = 0; v < caps.length; v++) {
             caps[v] = tokenizers.get(v).maxTokens();
         }
-        if (tokenizer instanceof ViewsTokenizer views) {
-            return new ViewCaps(views::viewOf, caps);
-        }
-        return new ViewCaps(token -> 0, caps);
+        return caps;
     }
 
     private static WordPieceEncoder encoder(TokenizerConfig view, List<String[]> rows, int index, Progress progress) {

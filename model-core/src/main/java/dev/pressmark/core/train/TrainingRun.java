@@ -54,7 +54,6 @@ public final class TrainingRun {
      * @param test the metrics on the held-out test part
      * @param trainRows the rows of the training part, as indices into the data
      * @param testRows the rows of the test part
-     * @param finalTokens the tokens of the training part, for the profile
      * @param warnings solver warnings, for example an iteration cap that was hit
      */
     public record Result(
@@ -66,7 +65,6 @@ public final class TrainingRun {
             Evaluation test,
             int[] trainRows,
             int[] testRows,
-            List<List<List<String>>> finalTokens,
             List<String> warnings) {
     }
 
@@ -198,7 +196,7 @@ public final class TrainingRun {
         progress.finish();
         warnings.forEach(progress::note);
         return new Result(labels, positiveClass, fitted.pipeline(), model, FoldSummary.of(foldMetrics), test,
-                trainRows, split.test(), fitted.tokens(), warnings);
+                trainRows, split.test(), warnings);
     }
 
     private Split split(long seed) {
