@@ -98,7 +98,7 @@ final class ServeCommand implements Callable<Integer> {
                 reader, ServerConfig.DEFAULT_MAX_THREADS, accessLog, maxConcurrent, corsOrigins,
                 maxTokensPerField, requestTimeoutMs,
                 new PromotionPolicy(promotionMetric, promotionMaxDrop, promotionMinAgreement, promotionMinSamples),
-                ServerConfig.DEFAULT_TAP_CAPACITY, driftSample);
+                ServerConfig.DEFAULT_TAP_CAPACITY, driftSample, ServerConfig.defaultBodyBudgetBytes(), ServerConfig.DEFAULT_OPEN_METRICS);
         // A PostgreSQL store that is down does not stop the service: it starts not ready and connects when it can.
         BundleStore opened = ReconnectingStore.open(store.url);
         PressmarkServer server;

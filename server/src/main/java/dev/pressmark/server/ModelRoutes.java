@@ -130,7 +130,7 @@ final class ModelRoutes {
     /** Answers a predict request; one the active version answered goes to the traffic tap too, when a listener wants the model. */
     private void predict(Context ctx, String name, LiveVersion served, Deadline deadline, boolean tapped) throws IOException {
         ctx.attribute(RequestRecorder.VERSION, served.tag());
-        List<Map<String, String>> items = requests.items(ctx, served.bundle().inputFields());
+        List<Map<String, String>> items = requests.items(ctx, served.bundle().inputFields(), deadline);
         ctx.attribute(RequestRecorder.ITEMS, items.size());
         // each item is scored on its own, so scoring in batches gives the same predictions and a place to stop
         List<Prediction> predictions = new ArrayList<>(items.size());
@@ -162,7 +162,7 @@ final class ModelRoutes {
         LiveVersion served = activeLive(name);
         ctx.attribute(RequestRecorder.VERSION, served.tag());
         Bundle bundle = served.bundle();
-        List<Map<String, String>> items = requests.items(ctx, bundle.inputFields());
+        List<Map<String, String>> items = requests.items(ctx, bundle.inputFields(), deadline);
         ctx.attribute(RequestRecorder.ITEMS, items.size());
         List<Explanation> explanations = new ArrayList<>(items.size());
         for (Map<String, String> item : items) {

@@ -28,6 +28,12 @@ public final class PressmarkServer implements AutoCloseable {
     /** How long start-up waits for the active models before listening anyway (and reporting not ready). */
     private static final Duration INITIAL_LOAD_WAIT = Duration.ofSeconds(60);
     private static final int MIN_THREADS = 4;
+    /**
+     * Threads kept beyond the connector's own and the model requests' bound, for everything else:
+     * health, readiness, metrics, docs and reads of the store. Model requests that wait for a slow
+     * body hold their admission slot, never these.
+     */
+    static final int OTHER_THREADS = 4;
     private static final int IDLE_TIMEOUT_MS = 60_000;
     /** How long stopping waits for sampled requests still queued for the shadow candidates. */
     private static final long TAP_DRAIN_MS = 1_000;
@@ -74,20 +80,23 @@ public final class PressmarkServer implements AutoCloseable {
         if (config.driftSample() > 0.0) {
             tap.register(drift);
         }
-        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics,
+        Bodies bodies = new Bodies(new BodyBudget(config.bodyBudgetBytes()));
+        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config, bodies), new Views(json), access, metrics,
                 config.requestTimeoutMs(), tap, shadows, config.promotion(), drift);
         RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
         Problems problems = new Problems(json);
-        Admission admission = new Admission(config.maxConcurrent());
+        Admission admission = new Admission(config.maxConcurrent(), bodies);
         ApiDocs docs = new ApiDocs(live, config);
+        QueuedThreadPool pool = new QueuedThreadPool(config.maxThreads(), Math.min(MIN_THREADS, config.maxThreads()), IDLE_TIMEOUT_MS);
+        pool.setName("pressmark-http");
+        // Reserved threads wait for the connector's own work and take nothing from the queue, where health checks wait.
+        pool.setReservedThreads(0);
         Javalin app = Javalin.create(c -> {
             c.showJavalinBanner = false;
             c.useVirtualThreads = false;
             c.jsonMapper(new JavalinJackson(json, false));
             // Bodies are read and bounded by Requests; this only keeps the framework's own reads in line.
             c.http.maxRequestSize = Math.max(config.maxJsonBytes(), config.maxBundleBytes());
-            QueuedThreadPool pool = new QueuedThreadPool(config.maxThreads(), Math.min(MIN_THREADS, config.maxThreads()), IDLE_TIMEOUT_MS);
-            pool.setName("pressmark-http");
             c.jetty.threadPool = pool;
             c.router.ignoreTrailingSlashes = true;
             // A known path with the wrong method is a 405 naming the allowed methods, not a 404.
@@ -148,6 +157,10 @@ public final class PressmarkServer implements AutoCloseable {
             metrics.close();
             throw e;
         }
+        // The connector's acceptors and selectors lease threads of their own; the model requests may hold
+        // maxConcurrent more; what is left over serves everything else, whatever the model requests do.
+        int leased = pool.getThreadPoolBudget() == null ? 0 : pool.getThreadPoolBudget().getLeasedThreads();
+        pool.setMaxThreads(Math.max(config.maxThreads(), leased + config.maxConcurrent() + OTHER_THREADS));
         try {
             live.awaitInitialLoad(INITIAL_LOAD_WAIT);
         } catch (InterruptedException e) {

@@ -46,6 +46,7 @@ final class Problems {
         ApiProblem problem = toProblem(failure);
         // A refusal for load is expected behaviour, not a failure to investigate.
         if (problem.status() >= 500 && !"busy".equals(problem.slug()) && !STORE_UNAVAILABLE.equals(problem.slug())
+                && !BodyBudget.SPENT.equals(problem.slug())
                 && !Deadline.EXCEEDED.equals(problem.slug())) {
             LOG.error("{} {} failed", ctx.method(), ctx.path(), failure);
         }
@@ -70,6 +71,9 @@ final class Problems {
                     body.set(m.getKey(), m.getValue());
                 }
             }
+        }
+        if (problem.headerName() != null) {
+            ctx.header(problem.headerName(), problem.headerValue());
         }
         if (problem.status() == 401) {
             ctx.header("WWW-Authenticate", "Bearer");
