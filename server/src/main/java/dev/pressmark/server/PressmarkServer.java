@@ -43,8 +43,10 @@ public final class PressmarkServer implements AutoCloseable {
     private final Metrics metrics;
     private final TrafficTap tap;
     private final ShadowScoring shadows;
+    private final Supervisor supervisor;
 
-    private PressmarkServer(Javalin app, LiveModels live, Metrics metrics, TrafficTap tap, ShadowScoring shadows) {
+    private PressmarkServer(Javalin app, LiveModels live, Metrics metrics, TrafficTap tap, ShadowScoring shadows, Supervisor supervisor) {
+        this.supervisor = supervisor;
         this.app = app;
         this.live = live;
         this.metrics = metrics;
@@ -71,10 +73,11 @@ public final class PressmarkServer implements AutoCloseable {
         Metrics metrics = new Metrics();
         // The models load on the follower's thread while the HTTP side starts on this one; start-up waits for both.
         // A request that comes in between loads the model it names itself, and /health/ready says 503 until then.
-        LiveModels live = LiveModels.start(store, metrics);
+        Supervisor supervisor = new Supervisor(metrics);
+        LiveModels live = LiveModels.start(store, metrics, supervisor);
         Access access = new Access(config.adminToken(), config.readerToken());
-        TrafficTap tap = new TrafficTap(config.tapCapacity(), metrics);
-        ShadowScoring shadows = new ShadowScoring(store, live, metrics, config.maxTokensPerField());
+        TrafficTap tap = new TrafficTap(config.tapCapacity(), metrics, supervisor);
+        ShadowScoring shadows = new ShadowScoring(store, live, metrics, config.maxTokensPerField(), supervisor);
         tap.register(shadows);
         DriftWatch drift = new DriftWatch(live, metrics, config.driftSample(), DriftWindow.DEFAULT_CAPACITY);
         if (config.driftSample() > 0.0) {
@@ -82,7 +85,7 @@ public final class PressmarkServer implements AutoCloseable {
         }
         Bodies bodies = new Bodies(new BodyBudget(config.bodyBudgetBytes()));
         ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config, bodies), new Views(json), access, metrics,
-                config.requestTimeoutMs(), tap, shadows, config.promotion(), drift);
+                config.requestTimeoutMs(), tap, shadows, config.promotion(), drift, supervisor);
         RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
         Problems problems = new Problems(json);
         Admission admission = new Admission(config.maxConcurrent(), bodies);
@@ -172,7 +175,7 @@ public final class PressmarkServer implements AutoCloseable {
             throw new IllegalStateException("interrupted while loading the active models", e);
         }
         shadows.start();
-        PressmarkServer server = new PressmarkServer(app, live, metrics, tap, shadows);
+        PressmarkServer server = new PressmarkServer(app, live, metrics, tap, shadows, supervisor);
         LOG.info("listening on http://{}:{} (store {}; admin endpoints {}; reading endpoints {})", config.host(), server.port(),
                 store.describe(), config.adminToken().isPresent() ? "enabled" : "disabled",
                 config.readerToken().isPresent() ? "need the reader token" : "open");
@@ -187,6 +190,11 @@ public final class PressmarkServer implements AutoCloseable {
     /** The tap that answered predict requests pass through: a seam for the tests and for other listeners. */
     TrafficTap tap() {
         return tap;
+    }
+
+    /** The supervisor of the background loops; for tests in this package. */
+    Supervisor supervisor() {
+        return supervisor;
     }
 
     ShadowScoring shadows() {

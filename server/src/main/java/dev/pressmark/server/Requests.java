@@ -22,6 +22,13 @@ final class Requests {
 
     static final String JSON = "application/json";
     static final Set<String> BUNDLE_TYPES = Set.of("application/octet-stream", "application/zip");
+    /**
+     * A text is cut while it is read after this many characters per token scored: a token of
+     * ordinary text takes 4 to 10 characters with its space, so the cut text still holds every
+     * token the scorer keeps; only a text of words longer than this (scored as unknown tokens)
+     * keeps fewer.
+     */
+    static final int CHARS_PER_SCORED_TOKEN = 64;
     /** Enough for a sentence or two in the events. */
     static final int MAX_REASON_CHARS = 1_000;
 
@@ -35,7 +42,8 @@ final class Requests {
     Requests(ObjectMapper json, ServerConfig config, Bodies bodies) {
         this.json = json;
         this.bodies = bodies;
-        this.items = new ItemsReader(json.getFactory(), config.maxItems());
+        this.items = new ItemsReader(json.getFactory(), config.maxItems(),
+                (int) Math.min(Integer.MAX_VALUE, (long) config.maxTokensPerField() * CHARS_PER_SCORED_TOKEN));
         this.maxJsonBytes = config.maxJsonBytes();
         this.maxBundleBytes = config.maxBundleBytes();
         this.maxTokensPerField = config.maxTokensPerField();
@@ -82,15 +90,19 @@ final class Requests {
      * The {@code items} of a predict or explain request, each mapping every input field of the model
      * to its text; the body must arrive before {@code deadline}.
      */
-    List<Map<String, String>> items(Context ctx, List<String> inputFields, Deadline deadline) throws IOException {
+    ItemsReader.Items items(Context ctx, List<String> inputFields, Deadline deadline) throws IOException {
         requireType(ctx, Set.of(JSON));
-        return items(bodies.read(ctx, maxJsonBytes, deadline), inputFields);
+        return readItems(bodies.read(ctx, maxJsonBytes, deadline), inputFields);
     }
 
     /** The {@code items} of a body already read within its limit. */
     List<Map<String, String>> items(byte[] body, List<String> inputFields) throws IOException {
+        return readItems(body, inputFields).list();
+    }
+
+    private ItemsReader.Items readItems(byte[] body, List<String> inputFields) throws IOException {
         try {
-            return items.read(body, inputFields);
+            return items.readItems(body, inputFields);
         } catch (CharConversionException e) {
             throw notJsonText(e);
         }
