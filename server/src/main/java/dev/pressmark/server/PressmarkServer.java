@@ -114,6 +114,10 @@ public final class PressmarkServer implements AutoCloseable {
             }
             c.requestLogger.http(recorder);
         });
+        if (!config.corsOrigins().isEmpty()) {
+            // after the CORS plugin's own before-handler, which marks a foreign origin but lets the endpoint run
+            app.before(new Origins(config.corsOrigins())::check);
+        }
         app.exception(Exception.class, problems::handle);
         // The framework's own refusals (405 among them) go to its plain-text mapper unless their type is named here.
         app.exception(HttpResponseException.class, problems::handle);

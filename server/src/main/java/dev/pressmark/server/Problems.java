@@ -34,6 +34,9 @@ final class Problems {
     /** As long as the server waits at most between two attempts to reach a store that is down. */
     static final String STORE_RETRY_AFTER_SECONDS = String.valueOf(ReconnectingStore.MAX_RETRY_MS / 1000);
 
+    /** How much of a bad value a problem detail repeats: enough to recognise it, never the whole of a huge one. */
+    static final int QUOTED_CHARS = 40;
+
     private static final Logger LOG = LoggerFactory.getLogger(Problems.class);
 
     private final ObjectMapper json;
@@ -82,6 +85,15 @@ final class Problems {
             ctx.header("Allow", e.getDetails().get("availableMethods"));
         }
         ctx.status(problem.status()).contentType(CONTENT_TYPE).result(body.toString());
+    }
+
+    /** {@code value} in double quotes, cut to its first {@value #QUOTED_CHARS} characters with a note of its length when longer. */
+    static String quote(String value) {
+        if (value.length() <= QUOTED_CHARS) {
+            return "\"" + value + "\"";
+        }
+        int end = Character.isHighSurrogate(value.charAt(QUOTED_CHARS - 1)) ? QUOTED_CHARS - 1 : QUOTED_CHARS;
+        return "\"" + value.substring(0, end) + "...\" (" + value.length() + " characters)";
     }
 
     static ApiProblem toProblem(Exception failure) {
