@@ -47,10 +47,10 @@ final class Console {
     }
 
     void register(Javalin app) {
-        app.get("/", this::page);
-        app.get(SCRIPT_PATH, ctx -> asset(ctx, script, "text/javascript; charset=utf-8"));
-        app.get(STYLE_PATH, ctx -> asset(ctx, style, "text/css; charset=utf-8"));
-        app.get(CHARTS_PATH, this::chart);
+        PressmarkServer.readable(app, "/", this::page);
+        PressmarkServer.readable(app, SCRIPT_PATH, ctx -> asset(ctx, script, "text/javascript; charset=utf-8"));
+        PressmarkServer.readable(app, STYLE_PATH, ctx -> asset(ctx, style, "text/css; charset=utf-8"));
+        PressmarkServer.readable(app, CHARTS_PATH, this::chart);
     }
 
     private void page(Context ctx) {

@@ -9,6 +9,7 @@ import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.drift.DriftWindow;
 import dev.pressmark.store.BundleStore;
 import io.javalin.Javalin;
+import io.javalin.http.Handler;
 import io.javalin.http.HttpResponseException;
 import io.javalin.json.JavalinJackson;
 import io.javalin.util.JavalinBindException;
@@ -128,28 +129,28 @@ public final class PressmarkServer implements AutoCloseable {
                 problems.handle(ApiProblem.notFound("no-such-endpoint", "no endpoint " + ctx.method() + " " + ctx.path()), ctx);
             }
         });
-        app.get("/health", routes::health);
-        app.get("/health/ready", routes::ready);
-        app.get("/models", routes::models);
-        app.get("/models/{name}", routes::model);
-        app.get("/models/{name}/versions", routes::versions);
-        app.get("/models/{name}/drift", routes::drift);
-        app.get("/models/{name}/versions/{tag}", routes::version);
+        readable(app, "/health", routes::health);
+        readable(app, "/health/ready", routes::ready);
+        readable(app, "/models", routes::models);
+        readable(app, "/models/{name}", routes::model);
+        readable(app, "/models/{name}/versions", routes::versions);
+        readable(app, "/models/{name}/drift", routes::drift);
+        readable(app, "/models/{name}/versions/{tag}", routes::version);
         app.put("/models/{name}/versions/{tag}", admission.bounded(routes::publish));
         app.post("/models/{name}/predict", admission.bounded(routes::predictActive));
         app.post("/models/{name}/versions/{tag}/predict", admission.bounded(routes::predictNamed));
         app.post("/models/{name}/explain", admission.bounded(routes::explain));
         app.put("/models/{name}/active", admission.bounded(routes::activate));
         app.put("/models/{name}/shadow", admission.bounded(routes::startShadow));
-        app.get("/models/{name}/shadow", routes::shadow);
+        readable(app, "/models/{name}/shadow", routes::shadow);
         app.delete("/models/{name}/shadow", admission.bounded(routes::stopShadow));
         app.post("/models/{name}/rollback", admission.bounded(routes::rollback));
-        app.get("/metrics", ctx -> ctx.contentType(Metrics.CONTENT_TYPE).result(metrics.scrape()));
+        readable(app, "/metrics", ctx -> ctx.contentType(Metrics.CONTENT_TYPE).result(metrics.scrape()));
         new Console(store, live, access, config.readerToken().isPresent()).register(app);
-        app.get("/openapi.json", docs::json);
-        app.get("/openapi.yaml", docs::yaml);
-        app.get("/docs", docs::page);
-        app.get(ApiDocs.ASSETS + "{file}", docs::asset);
+        readable(app, "/openapi.json", docs::json);
+        readable(app, "/openapi.yaml", docs::yaml);
+        readable(app, "/docs", docs::page);
+        readable(app, ApiDocs.ASSETS + "{file}", docs::asset);
         try {
             app.start(config.host(), config.port());
         } catch (JavalinBindException e) {
@@ -184,6 +185,18 @@ public final class PressmarkServer implements AutoCloseable {
                 store.describe(), config.adminToken().isPresent() ? "enabled" : "disabled",
                 config.readerToken().isPresent() ? "need the reader token" : "open");
         return server;
+    }
+
+    /**
+     * Registers {@code handler} for GET and for HEAD, which must answer with GET's status and
+     * headers and no body (RFC 9110, section 9.3.2; Jetty drops the body of a HEAD answer). The
+     * framework's own HEAD answer is a bare 200 whatever GET would say, so a load balancer that
+     * probes with HEAD would keep a replica that is not ready in rotation.
+     */
+    static void readable(Javalin app, String path, Handler handler) {
+        Handler guarded = Admission.guarded(handler);
+        app.get(path, guarded);
+        app.head(path, guarded);
     }
 
     /** The port listened on; the one picked when the config asked for 0. */
