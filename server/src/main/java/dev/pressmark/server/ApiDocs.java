@@ -9,6 +9,7 @@ import io.swagger.v3.oas.models.OpenAPI;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.UncheckedIOException;
+import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
@@ -68,11 +69,12 @@ final class ApiDocs {
     }
 
     void json(Context ctx) {
-        ctx.contentType(Requests.JSON).result(current().json());
+        ctx.contentType(Requests.JSON).result(current().json().getBytes(StandardCharsets.UTF_8));
     }
 
     void yaml(Context ctx) {
-        ctx.contentType(YAML).result(current().yaml());
+        // as bytes: labels and field names may be any text, and a String would go out in ISO-8859-1 for this type
+        ctx.contentType(YAML).result(current().yaml().getBytes(StandardCharsets.UTF_8));
     }
 
     void page(Context ctx) {

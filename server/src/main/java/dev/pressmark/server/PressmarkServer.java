@@ -1,5 +1,6 @@
 package dev.pressmark.server;
 
+import com.fasterxml.jackson.core.ErrorReportConfiguration;
 import com.fasterxml.jackson.core.JsonFactory;
 import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.core.StreamWriteFeature;
@@ -63,7 +64,10 @@ public final class PressmarkServer implements AutoCloseable {
      * reads back to the same double: every predict answer carries a score and a probability per label.
      */
     static ObjectMapper jsonMapper() {
-        JsonFactory factory = JsonFactory.builder().enable(StreamWriteFeature.USE_FAST_DOUBLE_WRITER).build();
+        // A parse error quotes at most a short prefix of the bad token, and never the body around it.
+        JsonFactory factory = JsonFactory.builder().enable(StreamWriteFeature.USE_FAST_DOUBLE_WRITER)
+                .errorReportConfiguration(ErrorReportConfiguration.builder().maxErrorTokenLength(Problems.QUOTED_CHARS).maxRawContentLength(0).build())
+                .build();
         return new ObjectMapper(factory).enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS).enable(JsonParser.Feature.STRICT_DUPLICATE_DETECTION);
     }
 

@@ -148,7 +148,8 @@ final class Requests {
             return new ShadowBody(tag, Shadow.DEFAULT_FRACTION);
         }
         if (!fraction.isNumber() || !(fraction.doubleValue() > 0 && fraction.doubleValue() <= 1)) {
-            throw ApiProblem.invalidField("fraction", "must be a number in (0, 1], the share of requests scored, was " + fraction);
+            throw ApiProblem.invalidField("fraction", "must be a number in (0, 1], the share of requests scored, was "
+                    + Problems.quote(fraction.toString()));
         }
         return new ShadowBody(tag, fraction.doubleValue());
     }
@@ -204,7 +205,7 @@ final class Requests {
         return switch (raw) {
             case "true" -> true;
             case "false" -> false;
-            default -> throw ApiProblem.invalidField(name, "must be true or false, was \"" + raw + "\"");
+            default -> throw ApiProblem.invalidField(name, "must be true or false, was " + Problems.quote(raw));
         };
     }
 
@@ -218,7 +219,7 @@ final class Requests {
         try {
             value = Integer.parseInt(raw);
         } catch (NumberFormatException e) {
-            throw ApiProblem.invalidField(name, "must be an integer, was \"" + raw + "\"");
+            throw ApiProblem.invalidField(name, "must be an integer, was " + Problems.quote(raw));
         }
         if (value < min || value > max) {
             throw ApiProblem.invalidField(name, "must be in [" + min + ", " + max + "], was " + value);
@@ -231,7 +232,7 @@ final class Requests {
         String type = header == null ? "" : header.split(";", 2)[0].strip().toLowerCase(Locale.ROOT);
         if (!accepted.contains(type)) {
             throw ApiProblem.unsupportedMediaType("Content-Type must be " + String.join(" or ", accepted.stream().sorted().toList())
-                    + ", was " + (header == null ? "missing" : "\"" + header + "\""));
+                    + ", was " + (header == null ? "missing" : Problems.quote(header)));
         }
     }
 }
