@@ -68,6 +68,11 @@ final class ModelRoutes {
         Map<String, String> down = supervisor.down();
         boolean ready = readiness.ready() && down.isEmpty();
         ObjectNode body = views.object().put("status", ready ? "ready" : "not-ready");
+        if (!access.mayRead(ctx)) {
+            // a probe needs the status only; which models, versions and failures are there is for readers
+            ctx.status(ready ? 200 : 503).json(body);
+            return;
+        }
         body.put("store", readiness.storeProblem().map(p -> "down: " + p).orElse("up"));
         ObjectNode models = body.putObject("models");
         readiness.active().forEach((model, tag) -> models.putObject(model).put("active", tag));

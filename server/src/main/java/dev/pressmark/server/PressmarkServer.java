@@ -94,7 +94,7 @@ public final class PressmarkServer implements AutoCloseable {
         RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
         Problems problems = new Problems(json);
         Admission admission = new Admission(config.maxConcurrent(), bodies);
-        ApiDocs docs = new ApiDocs(live, config);
+        ApiDocs docs = new ApiDocs(live, config, access);
         QueuedThreadPool pool = new QueuedThreadPool(config.maxThreads(), Math.min(MIN_THREADS, config.maxThreads()), IDLE_TIMEOUT_MS);
         pool.setName("pressmark-http");
         // Reserved threads wait for the connector's own work and take nothing from the queue, where health checks wait.
@@ -149,7 +149,13 @@ public final class PressmarkServer implements AutoCloseable {
         readable(app, "/models/{name}/shadow", routes::shadow);
         app.delete("/models/{name}/shadow", admission.bounded(routes::stopShadow));
         app.post("/models/{name}/rollback", admission.bounded(routes::rollback));
-        readable(app, "/metrics", ctx -> ctx.contentType(Metrics.CONTENT_TYPE).result(metrics.scrape()));
+        readable(app, "/metrics", ctx -> {
+            // per-label prediction counts and the served versions are for readers, unless opened to a scraper
+            if (!config.openMetrics()) {
+                access.requireReader(ctx);
+            }
+            ctx.contentType(Metrics.CONTENT_TYPE).result(metrics.scrape());
+        });
         new Console(store, live, access, config.readerToken().isPresent()).register(app);
         readable(app, "/openapi.json", docs::json);
         readable(app, "/openapi.yaml", docs::yaml);
