@@ -47,7 +47,9 @@ class MemoryAttackTest {
             store.publish("routing", "1.0.0", TestBundles.train(4, "classifier: {kind: linear-svm, probabilities: platt}"), "test");
             store.activate("routing", "1.0.0", "test", "first");
         }
-        try (ServeProcess serve = ServeProcess.serve(dir, storeUrl, List.of(HEAP), Map.of(), "--no-access-log", "--drift-sample", "1")) {
+        try (ServeProcess serve = ServeProcess.serve(dir, storeUrl, List.of(HEAP), Map.of(), "--no-access-log", "--drift-sample", "1",
+                // a loaded machine must not turn the admitted requests into deadline refusals: this test is about memory
+                "--request-timeout-ms", "120000")) {
             ServeProcess.explainingFailures(() -> {
                 List<Integer> hugeText = attack(serve.port, oneHugeText());
                 List<Integer> manyItems = attack(serve.port, manyLongItems());
