@@ -58,16 +58,15 @@ final class LiveModels implements AutoCloseable {
     private final Thread follower;
     private volatile boolean stopped;
 
-    private LiveModels(BundleStore store, Metrics metrics) {
+    private LiveModels(BundleStore store, Metrics metrics, Supervisor supervisor) {
         this.store = store;
         this.metrics = metrics;
-        this.follower = new Thread(this::follow, "pressmark-change-feed");
-        this.follower.setDaemon(true);
+        this.follower = supervisor.thread("pressmark-change-feed", this::follow);
     }
 
     /** Loads every model's active version, then starts following the change feed. */
-    static LiveModels start(BundleStore store, Metrics metrics) {
-        LiveModels models = new LiveModels(store, metrics);
+    static LiveModels start(BundleStore store, Metrics metrics, Supervisor supervisor) {
+        LiveModels models = new LiveModels(store, metrics, supervisor);
         models.follower.start();
         return models;
     }
