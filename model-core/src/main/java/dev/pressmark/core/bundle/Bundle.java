@@ -86,14 +86,29 @@ public final class Bundle {
         return from(BundleArchive.read(bytes), "bundle");
     }
 
-    /** Rebuilds the model from verified contents; {@code source} names it in messages. */
+    /** Rebuilds the model from verified contents within {@link BundleLimits#DEFAULT}; {@code source} names it in messages. */
     public static Bundle from(BundleContents contents, String source) {
+        return from(contents, source, BundleLimits.DEFAULT);
+    }
+
+    /**
+     * Rebuilds the model from verified contents. The sizes that the entries declare (features,
+     * vocabulary tokens) are checked against {@code limits} before anything is built from them; a
+     * bundle past one is a {@link BundleException#LIMIT} naming it.
+     */
+    public static Bundle from(BundleContents contents, String source, BundleLimits limits) {
         JsonNode manifest = contents.manifest();
         try {
             List<String> labels = strings(manifest.path(LABELS));
-            TokenizerSpec spec = JSON.readValue(contents.entry(BundleArchive.TOKENIZER), TokenizerSpec.class);
-            FeatureSpace features = FeatureSpace.fromState(JSON.readValue(contents.entry(BundleArchive.FEATURES), FeatureSpace.State.class));
-            LinearWeights weights = WeightsCodec.read(contents.entry(BundleArchive.WEIGHTS));
+            byte[] tokenizer = contents.entry(BundleArchive.TOKENIZER);
+            byte[] featureState = contents.entry(BundleArchive.FEATURES);
+            ArrayCounter.requireAtMost(tokenizer, BundleArchive.TOKENIZER, "vocabulary", limits.maxVocabularyTokens(), "tokens",
+                    "a vocabulary's size");
+            ArrayCounter.requireAtMost(featureState, BundleArchive.FEATURES, "features", limits.maxFeatures(), "features",
+                    "a model's features");
+            TokenizerSpec spec = JSON.readValue(tokenizer, TokenizerSpec.class);
+            FeatureSpace features = FeatureSpace.fromState(JSON.readValue(featureState, FeatureSpace.State.class));
+            LinearWeights weights = WeightsCodec.read(contents.entry(BundleArchive.WEIGHTS), limits.maxFeatures());
             JsonNode classifierNode = manifest.path(CLASSIFIER);
             List<PlattScaling> platt = new ArrayList<>();
             for (JsonNode sigmoid : classifierNode.path("platt")) {
@@ -108,6 +123,8 @@ public final class Bundle {
             }
             JsonNode profile = JSON.readTree(contents.entry(BundleArchive.PROFILE));
             return new Bundle(manifest, labels, new TextPipeline(spec, spec.tokenizer(), features), model, profile);
+        } catch (BundleException e) {
+            throw new BundleException(e.code(), source + ": " + e.getMessage(), e);
         } catch (IOException | IllegalArgumentException e) {
             throw new BundleException(BundleException.CORRUPT, source + ": not a usable model: " + e.getMessage(), e);
         }
