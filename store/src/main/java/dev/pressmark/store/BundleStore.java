@@ -41,9 +41,11 @@ public interface BundleStore extends AutoCloseable {
     }
 
     /**
-     * Checks the bundle (every entry's checksum, through the bundle reader), computes the SHA-256
-     * of the whole file, and stores it as {@code model}/{@code tag} in one transaction. A tag that
-     * exists is refused, even with identical bytes. The version is not activated.
+     * Checks the bundle (every entry's checksum, through the bundle reader), loads it as a model
+     * within {@link dev.pressmark.core.bundle.BundleLimits#DEFAULT} ({@link StoreException#UNUSABLE}
+     * when it does not load, {@link StoreException#LIMIT} naming the limit it goes past), computes
+     * the SHA-256 of the whole file, and stores it as {@code model}/{@code tag} in one transaction.
+     * A tag that exists is refused, even with identical bytes. The version is not activated.
      */
     default Version publish(String model, String tag, byte[] bundle, String actor) {
         return publish(model, tag, bundle, PublishOptions.DEFAULT, actor);
@@ -67,6 +69,15 @@ public interface BundleStore extends AutoCloseable {
      * the pair is gone whether the candidate was promoted or another version took over.
      */
     Activation activate(String model, String tag, String actor, String reason);
+
+    /**
+     * Activates as {@link #activate(String, String, String, String)} does, but only if the active
+     * version is still {@code expectedActive} (empty: none) when the transaction that writes the
+     * activation reads it: a compare-and-set on the active tag. Otherwise it changes nothing and
+     * fails with {@link StoreException#ACTIVE_CHANGED}, so a decision made against one active
+     * version is never applied over another that some other client activated in between.
+     */
+    Activation activate(String model, String tag, Optional<String> expectedActive, String actor, String reason);
 
     /**
      * Re-activates the version that was active before the current one, appending an activation.
@@ -97,8 +108,18 @@ public interface BundleStore extends AutoCloseable {
      */
     LoadedBundle load(String model, String tag);
 
-    /** Recomputes the SHA-256 of every stored version, or of one model's when {@code model} is not empty. */
+    /**
+     * Recomputes the SHA-256 of every stored version, or of one model's when {@code model} is not
+     * empty, and loads each one whose checksum matches as a model, within the default limits.
+     */
     VerifyReport verify(Optional<String> model);
+
+    /**
+     * Reads every row of the store's metadata (models, versions without their bundles, activations),
+     * so that damage to the pages holding them shows here: what a readiness check runs. Fails as
+     * any other read does.
+     */
+    void probe();
 
     /** A model's activations, newest first. */
     List<Activation> activations(String model);

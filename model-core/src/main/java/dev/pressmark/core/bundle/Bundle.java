@@ -4,6 +4,7 @@ import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
+import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.classify.LinearClassifier;
 import dev.pressmark.core.classify.LinearWeights;
 import dev.pressmark.core.classify.PlattScaling;
@@ -125,7 +126,7 @@ public final class Bundle {
             return new Bundle(manifest, labels, new TextPipeline(spec, spec.tokenizer(), features), model, profile);
         } catch (BundleException e) {
             throw new BundleException(e.code(), source + ": " + e.getMessage(), e);
-        } catch (IOException | IllegalArgumentException e) {
+        } catch (IOException | IllegalArgumentException | PressmarkException e) {
             throw new BundleException(BundleException.CORRUPT, source + ": not a usable model: " + e.getMessage(), e);
         }
     }
