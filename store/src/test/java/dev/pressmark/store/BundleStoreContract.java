@@ -372,6 +372,62 @@ abstract class BundleStoreContract {
         assertThat(store.activations("routing")).hasSize(1);
     }
 
+    private static Promotion.Request plainActivation(String tag) {
+        return new Promotion.Request("routing", tag, false, "", PromotionPolicy.defaults(), ACTOR);
+    }
+
+    @Test
+    void a_promotion_checked_against_a_version_that_another_client_replaced_meanwhile_fails_cleanly() throws Exception {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        publish("routing", "c", 3);
+        store.activate("routing", "a", ACTOR, "first");
+        try (BundleStore other = BundleStore.open(url)) {
+            // the real store, except that its load (the step between the check and the write) lets another client activate b first
+            BundleStore interleaved = (BundleStore) java.lang.reflect.Proxy.newProxyInstance(BundleStore.class.getClassLoader(),
+                    new Class<?>[] {BundleStore.class}, (proxy, method, args) -> {
+                        if (method.getName().equals("load")) {
+                            other.activate("routing", "b", "other", "in between");
+                        }
+                        try {
+                            return method.invoke(store, args);
+                        } catch (java.lang.reflect.InvocationTargetException e) {
+                            throw e.getCause();
+                        }
+                    });
+            assertThatThrownBy(() -> Promotion.activate(interleaved, plainActivation("c"), Optional.empty()))
+                    .isInstanceOf(StoreException.class)
+                    .hasMessage("cannot activate routing c: the active version changed from a to b since it was checked; check again")
+                    .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.ACTIVE_CHANGED);
+            assertThat(store.activeVersion("routing")).map(Version::tag).contains("b");
+            assertThat(store.activations("routing")).extracting(Activation::tag).containsExactly("b", "a");
+        }
+        Promotion.Result again = Promotion.activate(store, plainActivation("c"), Optional.empty());
+        assertThat(again.activation().tag()).isEqualTo("c");
+        assertThat(again.outcome().passed()).isTrue();
+        assertThat(store.events("routing").get(0).detail()).isEqualTo("replaces b");
+    }
+
+    @Test
+    void a_promotion_of_a_version_this_process_cannot_load_is_refused_and_the_active_version_stays() throws Exception {
+        publish("routing", "a", 1);
+        store.activate("routing", "a", ACTOR, "first");
+        storeBehindTheStoresBack("routing", "big", UnusableBundles.claimingMaxIntFeatures());
+        assertThatThrownBy(() -> Promotion.activate(store, plainActivation("big"), Optional.empty()))
+                .isInstanceOf(StoreException.class)
+                .hasMessage("cannot activate routing big: weights.bin: the header declares 2,147,483,647 features, more than 1,048,576,"
+                        + " the limit on a model's features")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.LIMIT);
+        assertThat(store.activeVersion("routing")).map(Version::tag).contains("a");
+        assertThat(store.activations("routing")).hasSize(1);
+    }
+
+    @Test
+    void forcing_a_promotion_needs_a_reason() {
+        assertThatThrownBy(() -> new Promotion.Request("routing", "a", true, " ", PromotionPolicy.defaults(), ACTOR))
+                .isInstanceOf(IllegalArgumentException.class).hasMessageContaining("reason is required");
+    }
+
     @Test
     void unknown_models_and_versions_are_named() {
         publish("routing", "a", 1);
