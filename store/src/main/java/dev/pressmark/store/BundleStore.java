@@ -64,6 +64,14 @@ public interface BundleStore extends AutoCloseable {
     Version publish(String model, String tag, byte[] bundle, PublishOptions options, String actor);
 
     /**
+     * Publishes the bundle file {@code bundle} as {@link #publish(String, String, byte[], PublishOptions, String)}
+     * does, without reading it into memory first: it must be a regular file within the bundle size
+     * limit (checked before it is read), its SHA-256 is computed while it is read, and the stored
+     * bytes are checked against that SHA-256 in the same transaction. Messages start with the path.
+     */
+    Version publish(String model, String tag, java.nio.file.Path bundle, PublishOptions options, String actor);
+
+    /**
      * Makes {@code tag} the active version of {@code model}. Activating the active version again
      * changes nothing. A running shadow of the model stops: it compared a pair of versions, and
      * the pair is gone whether the candidate was promoted or another version took over.

@@ -13,6 +13,7 @@ import java.io.IOException;
 import java.io.FilterInputStream;
 import java.io.InputStream;
 import java.io.OutputStream;
+import java.nio.file.Path;
 import java.security.DigestInputStream;
 import java.security.MessageDigest;
 import java.sql.Connection;
@@ -67,11 +68,8 @@ final class JdbcBundleStore implements BundleStore {
 
     @Override
     public Version publish(String model, String tag, byte[] bundle, PublishOptions options, String actor) {
-        Objects.requireNonNull(options, "options");
-        Names.model(model);
-        Names.tag(tag);
-        Names.actor(actor);
         Objects.requireNonNull(bundle, "bundle");
+        checkPublish(model, tag, options, actor);
         BundleContents contents;
         try {
             contents = BundleArchive.read(bundle);
@@ -79,7 +77,48 @@ final class JdbcBundleStore implements BundleStore {
             throw BundleCheck.notABundle(e, "");
         }
         BundleCheck.load(contents, model, tag, "cannot publish ");
-        String sha256 = Sha256.hex(bundle);
+        return insert(model, tag, contents, Sha256.hex(bundle), bundle.length, new BundleBytes() {
+            @Override
+            public void bind(PreparedStatement statement, int index) throws SQLException {
+                statement.setBytes(index, bundle);
+            }
+        }, options, actor);
+    }
+
+    @Override
+    public Version publish(String model, String tag, Path bundle, PublishOptions options, String actor) {
+        Objects.requireNonNull(bundle, "bundle");
+        checkPublish(model, tag, options, actor);
+        long size = BundleFile.size(bundle);
+        MessageDigest digest = Sha256.newDigest();
+        BundleContents contents = BundleFile.read(bundle, digest);
+        BundleCheck.load(contents, model, tag, "cannot publish ");
+        String sha256 = Sha256.toHex(digest.digest());
+        try (BundleFile.Stored stored = new BundleFile.Stored(bundle, size, sha256)) {
+            return insert(model, tag, contents, sha256, size, stored, options, actor);
+        }
+    }
+
+    private static void checkPublish(String model, String tag, PublishOptions options, String actor) {
+        Objects.requireNonNull(options, "options");
+        Names.model(model);
+        Names.tag(tag);
+        Names.actor(actor);
+    }
+
+    /** The bundle's bytes as the publishing transaction stores them. */
+    interface BundleBytes {
+        /** Sets the statement parameter that holds the bytes. */
+        void bind(PreparedStatement statement, int index) throws SQLException;
+
+        /** After the statement ran: fails the transaction if what it stored is not what was checked. */
+        default void verify() {
+        }
+    }
+
+    /** Stores a checked bundle in one transaction. */
+    private Version insert(String model, String tag, BundleContents contents, String sha256, long size, BundleBytes bytes, PublishOptions options,
+            String actor) {
         String manifest = contents.manifestJson();
         long now = now();
         return write("publish " + model + " " + tag, c -> {
@@ -101,20 +140,21 @@ final class JdbcBundleStore implements BundleStore {
                 insert.setString(1, model);
                 insert.setString(2, tag);
                 insert.setString(3, sha256);
-                insert.setLong(4, bundle.length);
+                insert.setLong(4, size);
                 insert.setLong(5, now);
                 insert.setString(6, manifest);
-                insert.setBytes(7, bundle);
+                bytes.bind(insert, 7);
                 insert.setString(8, options.signatureJson().orElse(null));
                 insert.setString(9, contractJson);
                 insert.executeUpdate();
+                bytes.verify();
             }
             String signedBy = options.signatureJson().map(json -> ", signed by key " + BundleSignature.parse(json, "the signature").keyId())
                     .orElse("");
-            event(c, now, actor, StoreEvent.PUBLISH, model, tag, "sha256 " + sha256 + ", " + bundle.length + " bytes" + signedBy
+            event(c, now, actor, StoreEvent.PUBLISH, model, tag, "sha256 " + sha256 + ", " + size + " bytes" + signedBy
                     + ", contract " + contract.version() + contract.against().map(a -> " (" + contract.diff().describe() + " against " + a + ")")
                     .orElse(""));
-            return new Version(model, tag, sha256, bundle.length, Instant.ofEpochMilli(now), manifest, false, false, options.signatureJson(),
+            return new Version(model, tag, sha256, size, Instant.ofEpochMilli(now), manifest, false, false, options.signatureJson(),
                     Optional.of(contractJson));
         });
     }

@@ -429,6 +429,57 @@ abstract class BundleStoreContract {
     }
 
     @Test
+    void a_bundle_published_from_a_file_is_streamed_into_the_store_with_the_files_sha256() throws Exception {
+        java.nio.file.Path dir = java.nio.file.Files.createTempDirectory("pressmark-publish");
+        try {
+            byte[] bundle = TestBundles.sized("routing", 5, TestBundles.FIELDS, TestBundles.LABELS, 4096);
+            java.nio.file.Path file = java.nio.file.Files.write(dir.resolve("b.pmb"), bundle);
+            Version published = store.publish("routing", "1", file, PublishOptions.DEFAULT, ACTOR);
+            assertThat(published.sha256()).isEqualTo(jdkSha256(bundle));
+            assertThat(published.sizeBytes()).isEqualTo(bundle.length);
+            // load recomputes the SHA-256 of the stored bytes and refuses them when it differs from the recorded one
+            assertThat(store.load("routing", "1").contents().entry(BundleArchive.WEIGHTS)).isEqualTo(BundleArchive.read(bundle).entry(BundleArchive.WEIGHTS));
+            assertThat(store.verify(Optional.empty()).ok()).isTrue();
+        } finally {
+            try (var files = java.nio.file.Files.walk(dir)) {
+                files.sorted(java.util.Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
+            }
+        }
+    }
+
+    @Test
+    void a_device_a_directory_or_a_file_past_the_size_limit_is_refused_before_it_is_read() throws Exception {
+        java.nio.file.Path dir = java.nio.file.Files.createTempDirectory("pressmark-publish");
+        try {
+            assertThatThrownBy(() -> store.publish("routing", "1", java.nio.file.Path.of("/dev/zero"), PublishOptions.DEFAULT, ACTOR))
+                    .isInstanceOf(StoreException.class)
+                    .hasMessage("/dev/zero: not a regular file (a directory, device or pipe); a bundle is a file");
+            assertThatThrownBy(() -> store.publish("routing", "1", dir, PublishOptions.DEFAULT, ACTOR))
+                    .hasMessageEndingWith("not a regular file (a directory, device or pipe); a bundle is a file");
+            java.nio.file.Path huge = dir.resolve("huge.pmb");
+            try (java.io.RandomAccessFile sparse = new java.io.RandomAccessFile(huge.toFile(), "rw")) {
+                sparse.setLength(BundleArchive.MAX_BUNDLE_BYTES + 1); // sparse: no disk blocks, nothing to read
+            }
+            assertThatThrownBy(() -> store.publish("routing", "1", huge, PublishOptions.DEFAULT, ACTOR))
+                    .isInstanceOf(StoreException.class)
+                    .hasMessage(huge + ": 536,870,913 bytes, more than 536,870,912, the limit on a bundle's size")
+                    .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.LIMIT);
+            java.nio.file.Path zeros = dir.resolve("zeros.pmb");
+            try (java.io.RandomAccessFile sparse = new java.io.RandomAccessFile(zeros.toFile(), "rw")) {
+                sparse.setLength(400L << 20);
+            }
+            assertThatThrownBy(() -> store.publish("routing", "1", zeros, PublishOptions.DEFAULT, ACTOR))
+                    .hasMessage(zeros + ": not a bundle: it does not start as a ZIP file")
+                    .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.NOT_A_BUNDLE);
+            assertThat(store.models()).isEmpty();
+        } finally {
+            try (var files = java.nio.file.Files.walk(dir)) {
+                files.sorted(java.util.Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
+            }
+        }
+    }
+
+    @Test
     void unknown_models_and_versions_are_named() {
         publish("routing", "a", 1);
         assertThatThrownBy(() -> store.activate("routing", "zz", ACTOR, "")).hasMessage("no version zz of model routing in the store");
