@@ -1,7 +1,6 @@
 package dev.pressmark.core.train;
 
 import static org.assertj.core.api.Assertions.assertThat;
-import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
 import dev.pressmark.core.PressmarkException;
 import java.io.IOException;
