@@ -159,10 +159,13 @@ final class LiveModels implements AutoCloseable {
             metrics.serving(model, loaded.tag());
             failures.remove(model);
             LOG.info("serving {} {} (sha256 {}), loaded in {} ms", model, loaded.tag(), loaded.sha256(), (System.nanoTime() - start) / 1_000_000);
-        } catch (RuntimeException e) {
-            failures.put(model, new LoadFailure(version.tag(), e.getMessage()));
+        } catch (RuntimeException | OutOfMemoryError e) {
+            // a bundle too big for this heap fails its own load, not the change feed that asked for it: the arrays it
+            // was building are garbage once this frame is gone
+            String why = e instanceof OutOfMemoryError ? "not enough memory to load it (" + e.getMessage() + ")" : String.valueOf(e.getMessage());
+            failures.put(model, new LoadFailure(version.tag(), why));
             LOG.warn("cannot load {} {}; {}: {}", model, version.tag(),
-                    serving == null ? "nothing serves it" : "still serving " + serving.tag(), e.getMessage());
+                    serving == null ? "nothing serves it" : "still serving " + serving.tag(), why);
         }
     }
 
@@ -227,6 +230,8 @@ final class LiveModels implements AutoCloseable {
             return new Readiness(false, storeProblem, activeTags, serving, failed);
         }
         try {
+            // a real read of every metadata row: a damaged page under them fails here, not first at /versions
+            store.probe();
             for (ModelSummary model : store.models()) {
                 if (model.activeTag().isEmpty()) {
                     continue;

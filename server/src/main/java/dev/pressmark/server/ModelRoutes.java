@@ -8,7 +8,7 @@ import dev.pressmark.core.bundle.Prediction;
 import dev.pressmark.store.Activation;
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.ModelSummary;
-import dev.pressmark.store.PromotionCheck;
+import dev.pressmark.store.Promotion;
 import dev.pressmark.store.PromotionPolicy;
 import dev.pressmark.store.ShadowStatus;
 import dev.pressmark.store.PublishOptions;
@@ -220,29 +220,29 @@ final class ModelRoutes {
     }
 
     /**
-     * Activates a version after the promotion check ({@link PromotionCheck}) against the active
-     * one; a refusal is a 409 whose {@code checks} member lists each failed check, unless the body
-     * says {@code "force": true} with a {@code reason}, which then goes into the events with the
-     * failed checks.
+     * Activates a version through the one activation rule ({@link Promotion}): the promotion check
+     * against the active version, loading it here, and a compare-and-set on the active tag. A
+     * refusal is a 409 whose {@code checks} member lists each failed check, unless the body says
+     * {@code "force": true} with a {@code reason}, which then goes into the events with the failed
+     * checks.
      */
     void activate(Context ctx) throws IOException {
         access.requireAdmin(ctx);
         String name = ctx.pathParam("name");
         Requests.ActivateBody body = Requests.activateBody(requests.jsonBody(ctx));
-        Version candidate = storedVersion(name, body.tag());
-        PromotionCheck.Outcome outcome = PromotionCheck.check(candidate, store.activeVersion(name),
-                shadows.status(name, Optional.of(body.tag())).map(ShadowStatus::summary), promotion);
-        if (!outcome.passed() && !body.force()) {
-            throw ApiProblem.conflict("promotion-refused", "Promotion check failed", outcome.describe()
-                    + "; send \"force\": true with a \"reason\" to activate anyway").withMembers(views.promotion(outcome));
+        storedVersion(name, body.tag());
+        String reason = body.force() || !body.reason().isEmpty() ? body.reason() : "activated over HTTP";
+        Promotion.Result result;
+        try {
+            result = Promotion.activate(store, new Promotion.Request(name, body.tag(), body.force(), reason, promotion, ACTOR),
+                    shadows.status(name, Optional.of(body.tag())).map(ShadowStatus::summary));
+        } catch (Promotion.Refused e) {
+            throw ApiProblem.conflict(Promotion.Refused.CODE, "Promotion check failed", e.outcome().describe()
+                    + "; send \"force\": true with a \"reason\" to activate anyway").withMembers(views.promotion(e.outcome()));
         }
-        String reason = body.force()
-                ? "forced" + (outcome.passed() ? "" : " past the promotion check (" + outcome.describe() + ")") + ": " + body.reason()
-                : body.reason().isEmpty() ? "activated over HTTP" : body.reason();
-        Activation activation = store.activate(name, body.tag(), ACTOR, reason);
         shadows.sync();
-        ObjectNode answer = answerActivation(name, activation);
-        answer.set("promotion_check", views.promotion(outcome).put("forced", body.force()));
+        ObjectNode answer = answerActivation(name, result.activation());
+        answer.set("promotion_check", views.promotion(result.outcome()).put("forced", body.force()));
         ctx.json(answer);
     }
 

@@ -163,6 +163,9 @@ final class Problems {
             case StoreException.INVALID_NAME -> ApiProblem.invalidField("name", e.getMessage());
             case StoreException.INVALID_TAG -> ApiProblem.invalidField("tag", e.getMessage());
             case StoreException.NOT_A_BUNDLE -> new ApiProblem(400, "not-a-bundle", "Not a usable bundle", e.getMessage(), List.of());
+            case StoreException.UNUSABLE -> new ApiProblem(422, e.code(), "Bundle does not load", e.getMessage(), List.of());
+            case StoreException.LIMIT -> new ApiProblem(422, e.code(), "Bundle beyond a limit", e.getMessage(), List.of());
+            case StoreException.ACTIVE_CHANGED -> new ApiProblem(409, e.code(), "Active version changed", e.getMessage(), List.of());
             case StoreException.TAG_EXISTS -> new ApiProblem(409, "tag-exists", "Tag already published", e.getMessage(), List.of());
             case StoreException.INVALID_FRACTION -> ApiProblem.invalidField("fraction", e.getMessage());
             case StoreException.NO_ACTIVE, StoreException.SHADOW_OF_ACTIVE ->
