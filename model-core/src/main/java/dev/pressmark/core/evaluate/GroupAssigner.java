@@ -13,10 +13,10 @@ import java.util.SplittableRandom;
  * <p>The spread of class k, with T_k its rows, A_k those placed so far (this group included) and
  * c_bk those in bin b, is
  * <pre>  s_k = sqrt(Σ_b (c_bk − w_b·A_k)² / w_b) / T_k = sqrt(Σ_b c_bk² / w_b − A_k²) / T_k</pre>
- * and a bin's cost is Σ_k s_k after the group joins it. For equal shares 1/F, s_k is F
- * times the standard deviation over the folds of the class's fold share c_bk/T_k, so the choice is
- * exactly scikit-learn's (the mean over classes of that deviation); unequal shares weigh each bin's
- * gap by its share, as a chi-square distance does. Only the classes the group has change, so one
+ * and a bin's cost is Σ_k s_k after the group joins it. For equal shares 1/F, s_k is F times the
+ * standard deviation over the folds of the class's fold share c_bk/T_k, so the choice is
+ * scikit-learn's (the mean over classes of that deviation) up to the tie tolerance; unequal
+ * shares weigh each bin's gap by its share, as a chi-square distance does. Only the classes the group has change, so one
  * candidate bin costs O(classes of the group), with Σ_b c_bk²/w_b kept per class. Among equal costs
  * (relative 1e−12) the bin least filled for its share wins, then the lower index (scikit-learn:
  * the fold with fewest rows). Fold sizes are not steered beyond that: steering them was tried and
