@@ -227,6 +227,40 @@ class GroupedResamplingTest {
         assertThat(Resampling.groupedStratifiedSplit(data.labels, data.groups, k, testFraction, seed)).isEqualTo(out);
     }
 
+    /** The split's order guarantee: permuting the rows moves each row's side with it. */
+    @Property(tries = 60)
+    void permuting_the_rows_permutes_the_split_alongside(
+            @ForAll long seed, @ForAll @IntRange(min = 20, max = 200) int n, @ForAll @IntRange(min = 2, max = 4) int k,
+            @ForAll @IntRange(min = 4, max = 80) int groupCount) {
+        SplittableRandom random = new SplittableRandom(seed);
+        Data data = data(random, n, k, groupCount, 2);
+        int rows = data.labels.length;
+        int[] perm = new int[rows];
+        for (int i = 0; i < rows; i++) {
+            perm[i] = i;
+        }
+        Fixtures.shuffle(perm, random);
+        int[] labels = new int[rows];
+        int[] groups = new int[rows];
+        for (int i = 0; i < rows; i++) {
+            labels[i] = data.labels[perm[i]];
+            groups[i] = data.groups[perm[i]];
+        }
+        boolean[] before = tested(Resampling.groupedStratifiedSplit(data.labels, data.groups, k, 0.3, seed), rows);
+        boolean[] after = tested(Resampling.groupedStratifiedSplit(labels, groups, k, 0.3, seed), rows);
+        for (int i = 0; i < rows; i++) {
+            assertThat(after[i]).as("permuted row %d (row %d before)", i, perm[i]).isEqualTo(before[perm[i]]);
+        }
+    }
+
+    private static boolean[] tested(GroupedSplit split, int rows) {
+        boolean[] out = new boolean[rows];
+        for (int row : split.split().test()) {
+            out[row] = true;
+        }
+        return out;
+    }
+
     @Test
     void a_group_too_large_for_the_test_side_stays_in_training_and_is_reported() {
         // 20 rows, test target round(0.25 × 20) = 5: group 42 has 8 rows, the rest are pairs.
@@ -256,7 +290,8 @@ class GroupedResamplingTest {
     void with_small_groups_the_test_share_lands_near_the_target(
             @ForAll long seed, @ForAll @IntRange(min = 200, max = 600) int n, @ForAll @IntRange(min = 2, max = 4) int k,
             @ForAll @DoubleRange(min = 0.1, max = 0.4) double testFraction) {
-        // About three rows a group: each placement moves the share by at most 1/n·(largest group).
+        // About three rows a group. Not a bound the greedy promises: 3,000 tries once all landed within
+        // 0.02 (and not within 0.01), so 0.03 leaves room while still failing a greedy that ignores the target.
         Data data = data(new SplittableRandom(seed), n, k, n / 3, 2);
         GroupedSplit out = Resampling.groupedStratifiedSplit(data.labels, data.groups, k, testFraction, seed);
         assertThat(out.achievedTestFraction()).isCloseTo(testFraction, org.assertj.core.api.Assertions.within(0.03));
