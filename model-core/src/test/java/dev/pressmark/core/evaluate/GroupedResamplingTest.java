@@ -2,11 +2,15 @@ package dev.pressmark.core.evaluate;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
+import static org.assertj.core.api.Assertions.within;
 
 import dev.pressmark.core.PressmarkException;
+import java.util.Arrays;
 import java.util.HashMap;
+import java.util.HashSet;
 import java.util.List;
 import java.util.Map;
+import java.util.Set;
 import java.util.SplittableRandom;
 import net.jqwik.api.ForAll;
 import net.jqwik.api.Property;
@@ -65,7 +69,7 @@ class GroupedResamplingTest {
         int rows = data.labels.length;
         for (int repeat = 0; repeat < repeats; repeat++) {
             int[] testedIn = new int[rows];
-            java.util.Arrays.fill(testedIn, -1);
+            Arrays.fill(testedIn, -1);
             Map<Integer, Integer> foldOfGroup = new HashMap<>();
             for (Fold fold : out.subList(repeat * folds, (repeat + 1) * folds)) {
                 assertThat(fold.repeat()).isEqualTo(repeat);
@@ -294,20 +298,20 @@ class GroupedResamplingTest {
         // 0.02 (and not within 0.01), so 0.03 leaves room while still failing a greedy that ignores the target.
         Data data = data(new SplittableRandom(seed), n, k, n / 3, 2);
         GroupedSplit out = Resampling.groupedStratifiedSplit(data.labels, data.groups, k, testFraction, seed);
-        assertThat(out.achievedTestFraction()).isCloseTo(testFraction, org.assertj.core.api.Assertions.within(0.03));
+        assertThat(out.achievedTestFraction()).isCloseTo(testFraction, within(0.03));
     }
 
     /** Every group is larger than the test target or holds the only rows of some class. */
     private static boolean noGroupCanBeTested(Data data, int testTarget) {
         Map<Integer, Integer> size = new HashMap<>();
-        Map<Integer, java.util.Set<Integer>> groupsOfClass = new HashMap<>();
+        Map<Integer, Set<Integer>> groupsOfClass = new HashMap<>();
         for (int row = 0; row < data.labels.length; row++) {
             size.merge(data.groups[row], 1, Integer::sum);
-            groupsOfClass.computeIfAbsent(data.labels[row], c -> new java.util.HashSet<>()).add(data.groups[row]);
+            groupsOfClass.computeIfAbsent(data.labels[row], c -> new HashSet<>()).add(data.groups[row]);
         }
         for (Map.Entry<Integer, Integer> group : size.entrySet()) {
             boolean alone = false;
-            for (java.util.Set<Integer> groups : groupsOfClass.values()) {
+            for (Set<Integer> groups : groupsOfClass.values()) {
                 alone |= groups.size() == 1 && groups.contains(group.getKey());
             }
             if (group.getValue() <= testTarget && !alone) {
