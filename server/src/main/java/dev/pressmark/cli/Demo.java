@@ -12,6 +12,7 @@ import dev.pressmark.server.BearerToken;
 import dev.pressmark.server.PressmarkServer;
 import dev.pressmark.server.ServerConfig;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import java.io.IOException;
 import java.io.PrintStream;
 import java.io.UncheckedIOException;
@@ -89,7 +90,7 @@ final class Demo implements AutoCloseable {
             log.printf(Locale.ROOT, "pressmark demo: %,d invented listing titles in %s%n", ROWS, data);
             byte[] words = train(data, "word", "v1, whole words", progress, log);
             byte[] subwords = train(data, "wordpiece", "v2, WordPiece subwords", progress, log);
-            store = BundleStore.open("sqlite:" + storeFile);
+            store = JdbcStores.open("sqlite:" + storeFile);
             store.publish(MODEL, WORDS_TAG, words, ACTOR);
             store.activate(MODEL, WORDS_TAG, ACTOR, "demo: the whole-word version first");
             store.publish(MODEL, SUBWORDS_TAG, subwords, ACTOR);

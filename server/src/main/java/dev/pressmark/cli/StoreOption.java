@@ -1,6 +1,7 @@
 package dev.pressmark.cli;
 
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import picocli.CommandLine.Option;
 
 /** The {@code --store URL} option that every store command shares, and the actor it records. */
@@ -12,7 +13,7 @@ final class StoreOption {
     String url;
 
     BundleStore open() {
-        return BundleStore.open(url);
+        return JdbcStores.open(url);
     }
 
     /** Who the audit events name: the user running the command. */

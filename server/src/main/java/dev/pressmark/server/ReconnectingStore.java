@@ -2,6 +2,7 @@ package dev.pressmark.server;
 
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.StoreException;
+import dev.pressmark.store.jdbc.JdbcStores;
 import java.lang.reflect.InvocationHandler;
 import java.lang.reflect.InvocationTargetException;
 import java.lang.reflect.Method;
@@ -43,13 +44,13 @@ public final class ReconnectingStore {
     public static BundleStore open(String url) {
         Objects.requireNonNull(url, "url");
         try {
-            return BundleStore.open(url);
+            return JdbcStores.open(url);
         } catch (StoreException e) {
             if (!StoreException.UNREACHABLE.equals(e.code())) {
                 throw e;
             }
             LOG.warn("{}; serving without a store and trying again (every {} s at most)", e.getMessage(), MAX_RETRY_MS / 1000);
-            Connector connector = new Connector(url, BundleStore.describe(url), e);
+            Connector connector = new Connector(url, JdbcStores.describe(url), e);
             connector.thread.start();
             return (BundleStore) Proxy.newProxyInstance(BundleStore.class.getClassLoader(), new Class<?>[] {BundleStore.class}, connector);
         }
@@ -78,7 +79,7 @@ public final class ReconnectingStore {
             try {
                 while (!closed.await(delayMs, TimeUnit.MILLISECONDS)) {
                     try {
-                        BundleStore opened = BundleStore.open(url);
+                        BundleStore opened = JdbcStores.open(url);
                         synchronized (this) {
                             if (closed.getCount() == 0) {
                                 opened.close();

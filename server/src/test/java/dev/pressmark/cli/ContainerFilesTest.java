@@ -7,6 +7,7 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.server.PressmarkServer;
 import dev.pressmark.server.ServerConfig;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import java.io.IOException;
 import java.net.URI;
 import java.net.http.HttpClient;
@@ -107,7 +108,7 @@ class ContainerFilesTest {
         assertThat(paths).containsExactlyInAnyOrder("/health", "/health/ready");
 
         HttpClient client = HttpClient.newBuilder().connectTimeout(Duration.ofSeconds(5)).build();
-        try (BundleStore store = BundleStore.open("sqlite:" + dir.resolve("store.db"));
+        try (BundleStore store = JdbcStores.open("sqlite:" + dir.resolve("store.db"));
                 PressmarkServer server = PressmarkServer.start(store, ServerConfig.defaults().withPort(0))) {
             for (String path : paths) {
                 HttpResponse<String> response = client.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + server.port() + path))

@@ -4,6 +4,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.Version;
+import dev.pressmark.store.jdbc.JdbcStores;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -38,7 +39,7 @@ class DiskFullTest {
     @Test
     void a_publish_that_fills_the_disk_fails_with_exit_1_naming_the_store_and_leaves_it_intact() throws Exception {
         Path store = dir.resolve("store.db");
-        try (BundleStore s = BundleStore.open("sqlite:" + store)) {
+        try (BundleStore s = JdbcStores.open("sqlite:" + store)) {
             s.publish("routing", "1.0.0", bundle(1, 16 << 10), "test");
             s.publish("routing", "1.1.0", bundle(2, 16 << 10), "test");
             s.activate("routing", "1.0.0", "test", "start");
@@ -72,7 +73,7 @@ class DiskFullTest {
         assertThat(err).as("one clear message, no stack trace").doesNotContain("\tat ");
         assertThat(Files.readString(dir.resolve("verify.rc")).strip()).as(Files.readString(dir.resolve("verify.out"))).isEqualTo("0");
 
-        try (BundleStore s = BundleStore.open("sqlite:" + after.resolve("store.db"))) {
+        try (BundleStore s = JdbcStores.open("sqlite:" + after.resolve("store.db"))) {
             assertThat(s.verify(Optional.empty()).ok()).isTrue();
             assertThat(s.versions("routing")).extracting(Version::tag).containsExactlyInAnyOrder("1.0.0", "1.1.0");
             for (String tag : List.of("1.0.0", "1.1.0")) {

@@ -5,6 +5,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 import dev.pressmark.store.Activation;
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.Version;
+import dev.pressmark.store.jdbc.JdbcStores;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -51,7 +52,7 @@ class HostileNamesTest {
             }
         }
 
-        try (BundleStore store = BundleStore.open("sqlite:" + dir.resolve("pressmark.db"))) {
+        try (BundleStore store = JdbcStores.open("sqlite:" + dir.resolve("pressmark.db"))) {
             assertThat(store.models()).hasSize(1);
             assertThat(store.versions("routing")).extracting(Version::tag).containsExactly("1.0.0");
             assertThat(store.activations("routing")).extracting(Activation::tag).containsExactly("1.0.0");

@@ -8,6 +8,7 @@ import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.bundle.BundleContents;
 import dev.pressmark.core.bundle.BundleLimits;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import java.lang.reflect.InvocationTargetException;
 import java.lang.reflect.Proxy;
 import java.nio.ByteBuffer;
@@ -97,13 +98,13 @@ class BundleLifecycleTest {
     @Test
     void an_activation_checked_against_a_version_another_replica_replaced_meanwhile_answers_409_and_changes_nothing() throws Exception {
         String url = "sqlite:" + dir.resolve("store.db");
-        BundleStore real = BundleStore.open(url);
+        BundleStore real = JdbcStores.open(url);
         real.publish("routing", "1.0.0", TestBundles.svm(), "test");
         real.publish("routing", "1.1.0", TestBundles.logistic(), "test");
         real.publish("routing", "1.2.0", TestBundles.train(3, "classifier: {kind: linear-svm}"), "test");
         real.activate("routing", "1.0.0", "test", "first");
         AtomicBoolean interleaved = new AtomicBoolean();
-        try (BundleStore other = BundleStore.open(url);
+        try (BundleStore other = JdbcStores.open(url);
                 Served s = Served.over(url, racing(real, other, interleaved))) {
             s.awaitServing("1.0.0");
             Http.Answer answer = s.http.putJson("/models/routing/active", "{\"tag\":\"1.2.0\"}", Served.AS_ADMIN);
@@ -141,7 +142,7 @@ class BundleLifecycleTest {
     void readiness_reads_the_store_so_a_zeroed_page_under_the_versions_turns_it_503_while_the_loaded_version_serves() throws Exception {
         String url = "sqlite:" + dir.resolve("store.db");
         Path file = dir.resolve("store.db");
-        try (BundleStore store = BundleStore.open(url)) {
+        try (BundleStore store = JdbcStores.open(url)) {
             byte[] bundle = TestBundles.svm();
             store.publish("routing", "v0", bundle, "test");
             store.activate("routing", "v0", "test", "first");

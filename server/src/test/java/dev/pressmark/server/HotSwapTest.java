@@ -5,6 +5,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 import com.fasterxml.jackson.databind.JsonNode;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.ArrayList;
@@ -54,7 +55,7 @@ class HotSwapTest {
 
     @Test
     void an_activation_through_another_store_handle_is_served_within_two_seconds() throws Exception {
-        try (Served s = Served.on(dir); BundleStore cli = BundleStore.open(s.storeUrl)) {
+        try (Served s = Served.on(dir); BundleStore cli = JdbcStores.open(s.storeUrl)) {
             cli.publish("routing", "1.0.0", first, "cli");
             cli.activate("routing", "1.0.0", "cli", "first");
             assertThat(awaitServed(s, "1.0.0", PICKED_UP_WITHIN)).isLessThan(PICKED_UP_WITHIN);
@@ -70,7 +71,7 @@ class HotSwapTest {
 
     @Test
     void a_version_that_fails_to_load_leaves_the_old_one_serving_and_shows_in_readiness() throws Exception {
-        try (Served s = Served.on(dir); BundleStore cli = BundleStore.open(s.storeUrl)) {
+        try (Served s = Served.on(dir); BundleStore cli = JdbcStores.open(s.storeUrl)) {
             cli.publish("routing", "1.0.0", first, "cli");
             cli.activate("routing", "1.0.0", "cli", "first");
             awaitServed(s, "1.0.0", PICKED_UP_WITHIN);
@@ -111,7 +112,7 @@ class HotSwapTest {
         // four clients per core and about 50 activations, so that requests are in flight whenever a swap lands
         int clients = 8;
         long runNanos = Duration.ofMillis(10_500).toNanos();
-        try (Served s = Served.on(dir); BundleStore cli = BundleStore.open(s.storeUrl)) {
+        try (Served s = Served.on(dir); BundleStore cli = JdbcStores.open(s.storeUrl)) {
             cli.publish("routing", "1.0.0", first, "cli");
             cli.publish("routing", "1.1.0", second, "cli");
             cli.activate("routing", "1.0.0", "cli", "first");

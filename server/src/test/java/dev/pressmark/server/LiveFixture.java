@@ -2,6 +2,7 @@ package dev.pressmark.server;
 
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.net.URI;
@@ -38,7 +39,7 @@ public final class LiveFixture implements AutoCloseable {
     /** Trains, publishes and activates the models in a store under {@code dir}, then starts a server on a free port. */
     public static LiveFixture start(Path dir) {
         byte[] bundle = TestBundles.svm();
-        BundleStore store = BundleStore.open("sqlite:" + dir.resolve("store.db"));
+        BundleStore store = JdbcStores.open("sqlite:" + dir.resolve("store.db"));
         try {
             for (String model : List.of(MODEL, SECOND_MODEL)) {
                 store.publish(model, TAG, bundle, "fixture");

@@ -5,6 +5,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import java.net.URI;
 import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
@@ -43,7 +44,7 @@ class MemoryAttackTest {
     @Test
     void twenty_8_mb_bodies_at_once_in_256_mb_get_answers_or_refusals_and_the_service_stays_whole() throws Exception {
         String storeUrl = "sqlite:" + dir.resolve("store.db");
-        try (BundleStore store = BundleStore.open(storeUrl)) {
+        try (BundleStore store = JdbcStores.open(storeUrl)) {
             store.publish("routing", "1.0.0", TestBundles.train(4, "classifier: {kind: linear-svm, probabilities: platt}"), "test");
             store.activate("routing", "1.0.0", "test", "first");
         }

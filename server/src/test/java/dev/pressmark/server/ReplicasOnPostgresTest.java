@@ -7,6 +7,7 @@ import dev.pressmark.cli.CommandRun;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.store.Activation;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import io.zonky.test.db.postgres.embedded.EmbeddedPostgres;
 import java.io.IOException;
 import java.io.UncheckedIOException;
@@ -68,7 +69,7 @@ class ReplicasOnPostgresTest {
                 s.executeUpdate("CREATE SCHEMA replicas");
             }
             String url = "jdbc:postgresql://127.0.0.1:" + postgres.getPort() + "/postgres?user=postgres&currentSchema=replicas";
-            try (BundleStore store = BundleStore.open(url)) {
+            try (BundleStore store = JdbcStores.open(url)) {
                 store.publish("routing", "1.0.0", first, "test");
                 store.publish("routing", "1.1.0", second, "test");
                 store.activate("routing", "1.0.0", "test", "start");

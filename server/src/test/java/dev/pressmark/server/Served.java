@@ -3,6 +3,7 @@ package dev.pressmark.server;
 import static org.assertj.core.api.Assertions.assertThat;
 
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.Optional;
@@ -50,7 +51,7 @@ final class Served implements AutoCloseable {
 
     static Served on(Path dir, ServerConfig config) {
         String url = "sqlite:" + dir.resolve("store.db");
-        BundleStore store = BundleStore.open(url);
+        BundleStore store = JdbcStores.open(url);
         try {
             return new Served(url, store, PressmarkServer.start(store, config));
         } catch (RuntimeException e) {

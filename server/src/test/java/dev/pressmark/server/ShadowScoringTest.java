@@ -10,6 +10,7 @@ import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.Prediction;
 import dev.pressmark.store.StoreEvent;
+import dev.pressmark.store.jdbc.JdbcStores;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.List;
@@ -195,7 +196,7 @@ class ShadowScoringTest {
 
     @Test
     void a_shadow_started_through_another_store_handle_is_picked_up_within_two_seconds_and_its_report_reaches_the_store() throws Exception {
-        try (Served s = servingTwo(dir, Served.config()); var cli = dev.pressmark.store.BundleStore.open(s.storeUrl)) {
+        try (Served s = servingTwo(dir, Served.config()); var cli = JdbcStores.open(s.storeUrl)) {
             assertThat(s.http.get("/models/routing/shadow").status()).isEqualTo(404);
             long start = System.nanoTime();
             cli.startShadow("routing", "1.1.0", 1.0, "cli");

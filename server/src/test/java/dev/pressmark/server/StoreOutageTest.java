@@ -4,6 +4,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import io.zonky.test.db.postgres.embedded.EmbeddedPostgres;
 import java.io.IOException;
 import java.io.UncheckedIOException;
@@ -63,7 +64,7 @@ class StoreOutageTest {
                         .header("Authorization", "Bearer " + Served.ADMIN), "/models/routing/active");
 
                 EmbeddedPostgres postgres = start(port, data);
-                try (BundleStore store = BundleStore.open(url)) {
+                try (BundleStore store = JdbcStores.open(url)) {
                     store.publish("routing", "1.0.0", first, "test");
                     store.publish("routing", "1.1.0", second, "test");
                     store.activate("routing", "1.0.0", "test", "start");
@@ -93,7 +94,7 @@ class StoreOutageTest {
                     Http.Answer put = serve.http.putJson("/models/routing/active", "{\"tag\":\"1.1.0\"}", Served.AS_ADMIN);
                     assertThat(put.status()).as(put.body()).isEqualTo(200);
                     assertThat(put.json().get("serving").asText()).isEqualTo("1.1.0");
-                    try (BundleStore store = BundleStore.open(url)) {
+                    try (BundleStore store = JdbcStores.open(url)) {
                         store.activate("routing", "1.0.0", "test", "back, from outside the service");
                     }
                     awaitPredicted(serve, "1.0.0");

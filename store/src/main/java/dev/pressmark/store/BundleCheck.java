@@ -10,13 +10,13 @@ import dev.pressmark.core.bundle.BundleLimits;
  * hold (the reader checks them) and its contents load as a model within {@link BundleLimits#DEFAULT}.
  * Turns the reader's failures into the store's codes.
  */
-final class BundleCheck {
+public final class BundleCheck {
 
     private BundleCheck() {
     }
 
     /** The store's refusal of bytes the archive reader refused; {@code prefix} (may be empty) goes in front of the message. */
-    static StoreException notABundle(BundleException e, String prefix) {
+    public static StoreException notABundle(BundleException e, String prefix) {
         if (BundleException.TOO_LARGE.equals(e.code())) {
             return new StoreException(StoreException.LIMIT, prefix + e.getMessage(), e);
         }
@@ -28,7 +28,7 @@ final class BundleCheck {
      * Loads verified contents as a model; a failure is {@link StoreException#LIMIT} or
      * {@link StoreException#UNUSABLE} whose message is {@code what}, the version's name and why.
      */
-    static Bundle load(BundleContents contents, String model, String tag, String what) {
+    public static Bundle load(BundleContents contents, String model, String tag, String what) {
         try {
             return Bundle.from(contents, model + " " + tag, BundleLimits.DEFAULT);
         } catch (BundleException e) {

@@ -12,7 +12,7 @@ import java.util.Optional;
  *
  * <p>Model names match {@value Names#MODEL_PATTERN}, tags {@value Names#TAG_PATTERN}. Every
  * failure is a {@link StoreException}; an {@code actor} is who asked (a user or a service name)
- * and goes into the audit events.
+ * and goes into the audit events. {@code dev.pressmark.store.jdbc.JdbcStores} opens one by URL.
  */
 public interface BundleStore extends AutoCloseable {
 
@@ -23,22 +23,6 @@ public interface BundleStore extends AutoCloseable {
     /** The environment variables a PostgreSQL URL without {@code user} or {@code password} parameters takes them from. */
     String USER_ENV = "PRESSMARK_STORE_USER";
     String PASSWORD_ENV = "PRESSMARK_STORE_PASSWORD";
-
-    /**
-     * Opens (and on first use creates) the store at {@code url}: {@code sqlite:PATH},
-     * {@code jdbc:sqlite:PATH} or {@code jdbc:postgresql://HOST[:PORT]/DATABASE}, the user and
-     * password of PostgreSQL taken from the URL or else from {@code PRESSMARK_STORE_USER} and
-     * {@code PRESSMARK_STORE_PASSWORD}. Migrates the schema; refuses a store whose schema is
-     * newer than this program.
-     */
-    static BundleStore open(String url) {
-        return JdbcBundleStore.open(StoreUrl.parse(url, System.getenv()));
-    }
-
-    /** Where the store at {@code url} is, for messages, as {@link #describe()} says it; opens nothing. */
-    static String describe(String url) {
-        return StoreUrl.parse(url, System.getenv()).describe();
-    }
 
     /**
      * Checks the bundle (every entry's checksum, through the bundle reader), loads it as a model

@@ -1,6 +1,6 @@
 /**
- * The versioned bundle store over JDBC: SQLite by default, PostgreSQL for several replicas.
- * {@link dev.pressmark.store.BundleStore#open(String)} opens one by URL; the schema lives in
- * Flyway migrations under {@code db/migration} and is brought up to date on open.
+ * The versioned bundle store as its callers see it: the {@link dev.pressmark.store.BundleStore}
+ * facade, the values it takes and returns, and {@link dev.pressmark.store.StoreException}. The
+ * implementation over JDBC lives in {@code dev.pressmark.store.jdbc}, which also opens a store by URL.
  */
 package dev.pressmark.store;

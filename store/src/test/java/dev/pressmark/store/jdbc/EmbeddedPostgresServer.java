@@ -1,4 +1,4 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import io.zonky.test.db.postgres.embedded.EmbeddedPostgres;
 import java.io.IOException;

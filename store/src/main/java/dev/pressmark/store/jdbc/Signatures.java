@@ -1,8 +1,10 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import dev.pressmark.core.sign.BundleSignature;
 import dev.pressmark.core.sign.SignatureException;
 import dev.pressmark.core.sign.SigningKeys;
+import dev.pressmark.store.StoreException;
+import dev.pressmark.store.TrustedKey;
 import java.security.PublicKey;
 import java.sql.Connection;
 import java.sql.PreparedStatement;

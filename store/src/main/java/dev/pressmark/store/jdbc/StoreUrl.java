@@ -1,5 +1,7 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
+import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.StoreException;
 import java.nio.file.Path;
 import java.util.Map;
 import java.util.Objects;

@@ -1,7 +1,11 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import dev.pressmark.store.Activation;
+import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.VerifyReport;
+import dev.pressmark.store.Version;
 import java.io.BufferedReader;
 import java.io.IOException;
 import java.io.InputStreamReader;
@@ -98,7 +102,7 @@ final class CrashTrials {
             checkAfterCrash(model, lines);
             trial++;
         }
-        try (BundleStore store = BundleStore.open(url)) {
+        try (BundleStore store = JdbcStores.open(url)) {
             assertThat(store.verify(Optional.empty()).ok()).isTrue();
         }
         return new Result(landings, trial, acknowledged);
@@ -126,7 +130,7 @@ final class CrashTrials {
     }
 
     private void checkAfterCrash(String model, List<String> lines) {
-        try (BundleStore store = BundleStore.open(url)) {
+        try (BundleStore store = JdbcStores.open(url)) {
             boolean hasModel = store.models().stream().anyMatch(m -> m.name().equals(model));
             // this trial's model here; every model at the end
             VerifyReport report = store.verify(hasModel ? Optional.of(model) : Optional.empty());

@@ -1,4 +1,4 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
 import com.fasterxml.jackson.databind.node.ObjectNode;

@@ -1,6 +1,21 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import com.zaxxer.hikari.HikariDataSource;
+import dev.pressmark.store.Activation;
+import dev.pressmark.store.BundleCheck;
+import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.LoadedBundle;
+import dev.pressmark.store.ModelSummary;
+import dev.pressmark.store.Names;
+import dev.pressmark.store.PublishOptions;
+import dev.pressmark.store.Shadow;
+import dev.pressmark.store.ShadowReport;
+import dev.pressmark.store.ShadowSummary;
+import dev.pressmark.store.StoreEvent;
+import dev.pressmark.store.StoreException;
+import dev.pressmark.store.TrustedKey;
+import dev.pressmark.store.Version;
+import dev.pressmark.store.VerifyReport;
 import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.bundle.BundleContents;
 import dev.pressmark.core.bundle.BundleException;
@@ -25,10 +40,8 @@ import java.time.Duration;
 import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.Locale;
 import java.util.Objects;
 import java.util.Optional;
-import java.util.Set;
 
 /**
  * The store over JDBC, one implementation for both databases; {@link Dialect} holds what differs.
@@ -47,17 +60,15 @@ final class JdbcBundleStore implements BundleStore {
     /** How often {@link #awaitChange} polls the sequence when no notification arrives: 500 ms. */
     static final long POLL_INTERVAL_MS = 500;
     static final String NOTIFY_CHANNEL = "pressmark_activations";
-    /** SQLSTATEs of a PostgreSQL server that ends or refuses connections because it is stopping, crashing or starting. */
-    private static final Set<String> SERVER_GOING_AWAY = Set.of("57P01", "57P02", "57P03");
 
     private final StoreUrl url;
-    private final HikariDataSource pool;
+    private final Transactions tx;
     private final Clock clock;
     private final PostgresListener listener;
 
     private JdbcBundleStore(StoreUrl url, HikariDataSource pool, Clock clock) {
         this.url = url;
-        this.pool = pool;
+        this.tx = new Transactions(url, pool);
         this.clock = clock;
         this.listener = url.dialect() == Dialect.POSTGRESQL ? new PostgresListener(url, NOTIFY_CHANNEL) : null;
     }
@@ -121,7 +132,7 @@ final class JdbcBundleStore implements BundleStore {
             String actor) {
         String manifest = contents.manifestJson();
         long now = now();
-        return write("publish " + model + " " + tag, c -> {
+        return tx.write("publish " + model + " " + tag, c -> {
             try (PreparedStatement insert = c.prepareStatement("INSERT INTO models (name, created_at) VALUES (?, ?) ON CONFLICT (name) DO NOTHING")) {
                 insert.setString(1, model);
                 insert.setLong(2, now);
@@ -197,7 +208,7 @@ final class JdbcBundleStore implements BundleStore {
         Names.actor(actor);
         String keyId = Signatures.keyId(publicKeyPem);
         long now = now();
-        return write("trust key " + keyId, c -> {
+        return tx.write("trust key " + keyId, c -> {
             for (TrustedKey key : Signatures.trustedKeys(c)) {
                 if (key.keyId().equals(keyId)) {
                     return key;
@@ -220,7 +231,7 @@ final class JdbcBundleStore implements BundleStore {
         Objects.requireNonNull(keyId, "keyId");
         Names.actor(actor);
         long now = now();
-        write("stop trusting key " + keyId, c -> {
+        tx.write("stop trusting key " + keyId, c -> {
             int removed;
             try (PreparedStatement delete = c.prepareStatement("DELETE FROM trusted_keys WHERE key_id = ?")) {
                 delete.setString(1, keyId);
@@ -237,12 +248,12 @@ final class JdbcBundleStore implements BundleStore {
 
     @Override
     public List<TrustedKey> trustedKeys() {
-        return read("list the trusted keys", Signatures::trustedKeys);
+        return tx.read("list the trusted keys", Signatures::trustedKeys);
     }
 
     @Override
     public List<StoreEvent> storeEvents() {
-        return read("read the store's events", c -> eventList(c, StoreEvent.STORE_WIDE));
+        return tx.read("read the store's events", c -> eventList(c, StoreEvent.STORE_WIDE));
     }
 
     @Override
@@ -271,7 +282,7 @@ final class JdbcBundleStore implements BundleStore {
         Names.actor(actor);
         String why = reason == null ? "" : reason;
         long now = now();
-        return write("activate " + model + " " + tag, c -> {
+        return tx.write("activate " + model + " " + tag, c -> {
             lockModel(c, model);
             VersionRow version = versionRow(c, model, tag);
             if (version == null) {
@@ -301,7 +312,7 @@ final class JdbcBundleStore implements BundleStore {
         Names.model(model);
         Names.actor(actor);
         long now = now();
-        return write("roll back " + model, c -> {
+        return tx.write("roll back " + model, c -> {
             lockModel(c, model);
             Activation current = currentActivation(c, model);
             if (current == null) {
@@ -331,7 +342,7 @@ final class JdbcBundleStore implements BundleStore {
         Names.tag(tag);
         Names.actor(actor);
         long now = now();
-        write("retire " + model + " " + tag, c -> {
+        tx.write("retire " + model + " " + tag, c -> {
             lockModel(c, model);
             VersionRow version = versionRow(c, model, tag);
             if (version == null) {
@@ -357,7 +368,7 @@ final class JdbcBundleStore implements BundleStore {
 
     @Override
     public List<ModelSummary> models() {
-        return read("list models", c -> {
+        return tx.read("list models", c -> {
             List<ModelSummary> models = new ArrayList<>();
             try (PreparedStatement select = c.prepareStatement("SELECT m.name, m.created_at,"
                     + " (SELECT a.tag FROM activations a WHERE a.model = m.name ORDER BY a.seq DESC LIMIT 1),"
@@ -380,7 +391,7 @@ final class JdbcBundleStore implements BundleStore {
     @Override
     public List<Version> versions(String model) {
         Names.model(model);
-        return read("list versions of " + model, c -> {
+        return tx.read("list versions of " + model, c -> {
             requireModel(c, model);
             List<Version> versions = new ArrayList<>();
             try (PreparedStatement select = c.prepareStatement("SELECT " + VERSION_COLUMNS + " FROM versions v WHERE v.model = ? ORDER BY v.id DESC")) {
@@ -399,7 +410,7 @@ final class JdbcBundleStore implements BundleStore {
     public Optional<Version> version(String model, String tag) {
         Names.model(model);
         Names.tag(tag);
-        return read("read " + model + " " + tag, c -> {
+        return tx.read("read " + model + " " + tag, c -> {
             try (PreparedStatement select = c.prepareStatement("SELECT " + VERSION_COLUMNS + " FROM versions v WHERE v.model = ? AND v.tag = ?")) {
                 select.setString(1, model);
                 select.setString(2, tag);
@@ -413,7 +424,7 @@ final class JdbcBundleStore implements BundleStore {
     @Override
     public Optional<Version> activeVersion(String model) {
         Names.model(model);
-        return read("read the active version of " + model, c -> {
+        return tx.read("read the active version of " + model, c -> {
             try (PreparedStatement select = c.prepareStatement("SELECT " + VERSION_COLUMNS + " FROM versions v WHERE v.model = ? AND v.tag ="
                     + " (SELECT a.tag FROM activations a WHERE a.model = ? ORDER BY a.seq DESC LIMIT 1)")) {
                 select.setString(1, model);
@@ -428,7 +439,7 @@ final class JdbcBundleStore implements BundleStore {
     @Override
     public LoadedBundle load(String model, String tag) {
         Version version = version(model, tag).orElseThrow(() -> noSuchVersion(model, tag));
-        return read("load " + model + " " + tag, c -> {
+        return tx.read("load " + model + " " + tag, c -> {
             Signatures.check(version.signatureJson(), version.sha256(), Signatures.trustedKeys(c), model + " " + tag + " will not be served");
             try (PreparedStatement select = c.prepareStatement("SELECT bundle FROM versions WHERE model = ? AND tag = ?")) {
                 select.setString(1, model);
@@ -466,7 +477,7 @@ final class JdbcBundleStore implements BundleStore {
     @Override
     public VerifyReport verify(Optional<String> model) {
         model.ifPresent(Names::model);
-        return read("verify", c -> {
+        return tx.read("verify", c -> {
             if (model.isPresent()) {
                 requireModel(c, model.get());
             }
@@ -540,7 +551,7 @@ final class JdbcBundleStore implements BundleStore {
 
     @Override
     public void probe() {
-        read("read the store's metadata", c -> {
+        tx.read("read the store's metadata", c -> {
             // LENGTH makes each database read every value it measures: a damaged page under any row fails here
             for (String sql : List.of("SELECT COUNT(*), SUM(LENGTH(name)) FROM models",
                     "SELECT COUNT(*), SUM(LENGTH(model) + LENGTH(tag) + LENGTH(sha256) + LENGTH(manifest_json)"
@@ -559,7 +570,7 @@ final class JdbcBundleStore implements BundleStore {
     @Override
     public List<Activation> activations(String model) {
         Names.model(model);
-        return read("read the activations of " + model, c -> {
+        return tx.read("read the activations of " + model, c -> {
             requireModel(c, model);
             try (PreparedStatement select = c.prepareStatement("SELECT " + ACTIVATION_COLUMNS + " FROM activations WHERE model = ? ORDER BY seq DESC")) {
                 select.setString(1, model);
@@ -571,7 +582,7 @@ final class JdbcBundleStore implements BundleStore {
     @Override
     public List<StoreEvent> events(String model) {
         Names.model(model);
-        return read("read the events of " + model, c -> {
+        return tx.read("read the events of " + model, c -> {
             requireModel(c, model);
             return eventList(c, model);
         });
@@ -593,7 +604,7 @@ final class JdbcBundleStore implements BundleStore {
 
     @Override
     public long changeSequence() {
-        return read("read the change sequence", JdbcBundleStore::changeSequence);
+        return tx.read("read the change sequence", JdbcBundleStore::changeSequence);
     }
 
     private static long changeSequence(Connection c) throws SQLException {
@@ -606,7 +617,7 @@ final class JdbcBundleStore implements BundleStore {
 
     @Override
     public List<Activation> activationsSince(long sequence) {
-        return read("read the activations since " + sequence, c -> {
+        return tx.read("read the activations since " + sequence, c -> {
             try (PreparedStatement select = c.prepareStatement("SELECT " + ACTIVATION_COLUMNS + " FROM activations WHERE seq > ? ORDER BY seq")) {
                 select.setLong(1, sequence);
                 return activationList(select);
@@ -640,7 +651,7 @@ final class JdbcBundleStore implements BundleStore {
         Names.actor(actor);
         Shadow.checkFraction(fraction);
         long now = now();
-        return write("start a shadow of " + model + " " + tag, c -> {
+        return tx.write("start a shadow of " + model + " " + tag, c -> {
             lockModel(c, model);
             VersionRow version = versionRow(c, model, tag);
             if (version == null) {
@@ -682,7 +693,7 @@ final class JdbcBundleStore implements BundleStore {
         Names.model(model);
         Names.actor(actor);
         long now = now();
-        return write("stop the shadow of " + model, c -> {
+        return tx.write("stop the shadow of " + model, c -> {
             lockModel(c, model);
             return Optional.ofNullable(endShadow(c, model, now, actor, reason == null || reason.isBlank() ? "stopped" : reason));
         });
@@ -691,7 +702,7 @@ final class JdbcBundleStore implements BundleStore {
     @Override
     public Optional<Shadow> shadow(String model) {
         Names.model(model);
-        return read("read the shadow of " + model, c -> {
+        return tx.read("read the shadow of " + model, c -> {
             List<Shadow> found = shadows(c, model);
             return found.isEmpty() ? Optional.empty() : Optional.of(found.get(0));
         });
@@ -699,7 +710,7 @@ final class JdbcBundleStore implements BundleStore {
 
     @Override
     public List<Shadow> shadows() {
-        return read("read the shadows", c -> shadows(c, null));
+        return tx.read("read the shadows", c -> shadows(c, null));
     }
 
     @Override
@@ -708,7 +719,7 @@ final class JdbcBundleStore implements BundleStore {
         Names.model(report.model());
         Names.tag(report.tag());
         String json = report.summary().toJson().toString();
-        write("save a shadow report of " + report.model(), c -> {
+        tx.write("save a shadow report of " + report.model(), c -> {
             try (PreparedStatement upsert = c.prepareStatement("INSERT INTO shadow_reports (model, tag, replica, run_started_at, updated_at, report_json)"
                     + " VALUES (?, ?, ?, ?, ?, ?) ON CONFLICT (model, tag, replica, run_started_at)"
                     + " DO UPDATE SET updated_at = excluded.updated_at, report_json = excluded.report_json")) {
@@ -728,7 +739,7 @@ final class JdbcBundleStore implements BundleStore {
     public List<ShadowReport> shadowReports(String model, Optional<String> tag) {
         Names.model(model);
         tag.ifPresent(Names::tag);
-        return read("read the shadow reports of " + model, c -> {
+        return tx.read("read the shadow reports of " + model, c -> {
             String where = "model = ?" + (tag.isPresent() ? " AND tag = ?" : "");
             try (PreparedStatement select = c.prepareStatement("SELECT model, tag, replica, run_started_at, updated_at, report_json FROM shadow_reports"
                     + " WHERE " + where + " AND run_started_at = (SELECT MAX(run_started_at) FROM shadow_reports WHERE " + where + ")"
@@ -800,7 +811,7 @@ final class JdbcBundleStore implements BundleStore {
 
     /** A pooled connection, configured as the store's own are. A test seam. */
     Connection rawForTests() throws SQLException {
-        return pool.getConnection();
+        return tx.rawForTests();
     }
 
     @Override
@@ -813,7 +824,7 @@ final class JdbcBundleStore implements BundleStore {
         if (listener != null) {
             listener.close();
         }
-        pool.close();
+        tx.close();
     }
 
     // ---- rows ----
@@ -949,88 +960,6 @@ final class JdbcBundleStore implements BundleStore {
 
     private long now() {
         return clock.millis();
-    }
-
-    // ---- transactions ----
-
-    @FunctionalInterface
-    private interface Work<T> {
-        T run(Connection connection) throws SQLException;
-    }
-
-    private <T> T write(String operation, Work<T> work) {
-        try (Connection c = pool.getConnection()) {
-            c.setAutoCommit(false);
-            T result;
-            try {
-                result = work.run(c);
-                c.commit();
-            } catch (SQLException | RuntimeException e) {
-                // SQLite rolls a transaction back by itself on some errors (SQLITE_FULL among them); then both the rollback
-                // and the commit that the driver's setAutoCommit(true) issues fail, and must not hide the error that matters
-                try {
-                    c.rollback();
-                } catch (SQLException rollbackFailure) {
-                    e.addSuppressed(rollbackFailure);
-                }
-                try {
-                    c.setAutoCommit(true);
-                } catch (SQLException resetFailure) {
-                    e.addSuppressed(resetFailure);
-                }
-                throw e;
-            }
-            c.setAutoCommit(true);
-            return result;
-        } catch (SQLException e) {
-            throw failure(operation, e);
-        }
-    }
-
-    private <T> T read(String operation, Work<T> work) {
-        try (Connection c = pool.getConnection()) {
-            return work.run(c);
-        } catch (SQLException e) {
-            throw failure(operation, e);
-        }
-    }
-
-    private StoreException failure(String operation, SQLException e) {
-        return failure(url, operation, e);
-    }
-
-    /**
-     * What a failed statement means to the caller. A connection that is gone or refused is
-     * {@link StoreException#UNREACHABLE} on PostgreSQL, a state to wait out: SQLSTATE class 08
-     * (connection exception), and 57P01 admin_shutdown, 57P02 crash_shutdown and 57P03
-     * cannot_connect_now (PostgreSQL documentation, Appendix A, "PostgreSQL Error Codes"), which
-     * a server that is stopping, crashing or starting sends on the connections it ends or refuses.
-     */
-    static StoreException failure(StoreUrl url, String operation, SQLException e) {
-        String message = String.valueOf(e.getMessage());
-        String lower = message.toLowerCase(Locale.ROOT);
-        if (lower.contains("readonly") || lower.contains("read-only")) {
-            return new StoreException(StoreException.READ_ONLY, url.describe() + ": cannot " + operation + ": the store is read-only", e);
-        }
-        // 08: connection exception (SQL standard); the pool's timeout waiting for a connection is transient too
-        // SQLITE_FULL, or PostgreSQL's 53100 disk_full (PostgreSQL documentation, Appendix A, "Error Codes")
-        if (lower.contains("sqlite_full") || lower.contains("disk is full") || "53100".equals(e.getSQLState())) {
-            return new StoreException(StoreException.STORAGE_FULL, url.describe() + ": cannot " + operation
-                    + ": the disk holding the store is full; nothing was written (" + StoreUrl.redact(firstLine(message)) + ")", e);
-        }
-        if (url.dialect() == Dialect.POSTGRESQL && (e instanceof java.sql.SQLTransientConnectionException || connectionLost(e.getSQLState()))) {
-            return StoreDatabase.openFailure(url, e);
-        }
-        return new StoreException(StoreException.FAILURE, url.describe() + ": cannot " + operation + ": " + StoreUrl.redact(message), e);
-    }
-
-    private static boolean connectionLost(String sqlState) {
-        return sqlState != null && (sqlState.startsWith("08") || SERVER_GOING_AWAY.contains(sqlState));
-    }
-
-    private static String firstLine(String message) {
-        int newline = message.indexOf('\n');
-        return newline < 0 ? message : message.substring(0, newline);
     }
 
     /** Counts the bytes read through it. */

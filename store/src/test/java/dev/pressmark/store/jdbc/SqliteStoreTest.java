@@ -1,8 +1,11 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
+import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.ModelSummary;
+import dev.pressmark.store.StoreException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -55,7 +58,7 @@ class SqliteStoreTest extends BundleStoreContract {
     void the_jdbc_form_of_the_url_opens_the_same_file() {
         store.publish("routing", "a", TestBundles.bundle("routing", 1), ACTOR);
         store.close();
-        store = BundleStore.open("jdbc:sqlite:" + file);
+        store = JdbcStores.open("jdbc:sqlite:" + file);
         assertThat(store.versions("routing")).hasSize(1);
     }
 
@@ -63,28 +66,28 @@ class SqliteStoreTest extends BundleStoreContract {
     void a_file_that_is_not_a_database_is_refused() throws Exception {
         Path text = dir.resolve("notes.db");
         Files.writeString(text, "these are not the tables you are looking for\n", StandardCharsets.UTF_8);
-        assertThatThrownBy(() -> BundleStore.open("sqlite:" + text))
+        assertThatThrownBy(() -> JdbcStores.open("sqlite:" + text))
                 .isInstanceOf(StoreException.class).hasMessage(text + " is not a pressmark store: it is not an SQLite database");
         assertThat(Files.readString(text)).startsWith("these are");
     }
 
     @Test
     void a_directory_is_refused() {
-        assertThatThrownBy(() -> BundleStore.open("sqlite:" + dir))
+        assertThatThrownBy(() -> JdbcStores.open("sqlite:" + dir))
                 .isInstanceOf(StoreException.class).hasMessage(dir + " is a directory, not a store file");
     }
 
     @Test
     void a_missing_directory_is_named() {
         Path missing = dir.resolve("no/such/dir/store.db");
-        assertThatThrownBy(() -> BundleStore.open("sqlite:" + missing))
+        assertThatThrownBy(() -> JdbcStores.open("sqlite:" + missing))
                 .isInstanceOf(StoreException.class).hasMessageContaining("directory " + missing.getParent() + " does not exist");
     }
 
     @Test
     void a_read_only_location_is_refused_clearly() {
         // /proc refuses new files even to root, who ignores permission bits
-        assertThatThrownBy(() -> BundleStore.open("sqlite:/proc/pressmark-store.db"))
+        assertThatThrownBy(() -> JdbcStores.open("sqlite:/proc/pressmark-store.db"))
                 .isInstanceOf(StoreException.class)
                 .hasMessageStartingWith("cannot open or create the store /proc/pressmark-store.db: the location is not writable")
                 .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.READ_ONLY);
@@ -121,7 +124,7 @@ class SqliteStoreTest extends BundleStoreContract {
         }
         store.close();
         zeroPage(root);
-        store = BundleStore.open(url);
+        store = JdbcStores.open(url);
         // the list of models is answered from the index, which the zeroed page does not hold
         assertThat(store.models()).extracting(ModelSummary::name).containsExactly("routing");
         assertThatThrownBy(() -> store.versions("routing")).isInstanceOf(StoreException.class).hasMessageContaining("malformed");

@@ -1,8 +1,10 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
+import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.StoreException;
 import java.net.ServerSocket;
 import java.sql.Connection;
 import java.sql.SQLException;
@@ -35,7 +37,7 @@ class PostgresStoreTest extends BundleStoreContract {
         long before = waiting.changeSequence();
         long notificationsBefore = waiting.notificationsReceived();
         ExecutorService executor = Executors.newSingleThreadExecutor();
-        try (BundleStore other = BundleStore.open(url)) {
+        try (BundleStore other = JdbcStores.open(url)) {
             Future<Long> waiter = executor.submit(() -> waiting.awaitChange(before, Duration.ofSeconds(30)));
             Thread.sleep(500); // let the listener connect and LISTEN
             other.activate("routing", "a", ACTOR, "");
@@ -84,7 +86,7 @@ class PostgresStoreTest extends BundleStoreContract {
             port = socket.getLocalPort();
         }
         String url = "jdbc:postgresql://127.0.0.1:" + port + "/pressmark?user=svc&password=s3cret-Value";
-        assertThatThrownBy(() -> BundleStore.open(url))
+        assertThatThrownBy(() -> JdbcStores.open(url))
                 .isInstanceOf(StoreException.class)
                 .hasMessageStartingWith("cannot connect to PostgreSQL at 127.0.0.1:" + port + "/pressmark")
                 .hasMessageNotContaining("s3cret-Value")
@@ -96,7 +98,7 @@ class PostgresStoreTest extends BundleStoreContract {
         // the embedded server trusts local users, so a password is never checked there; what must
         // hold is that the one in the URL never reaches a message
         String url = "jdbc:postgresql://127.0.0.1:" + EmbeddedPostgresServer.get().getPort() + "/no_such_database?user=postgres&password=hunter2x";
-        assertThatThrownBy(() -> BundleStore.open(url))
+        assertThatThrownBy(() -> JdbcStores.open(url))
                 .isInstanceOf(StoreException.class)
                 .hasMessageContaining("no_such_database")
                 .hasMessageNotContaining("hunter2x");

@@ -1,4 +1,4 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.bundle.BundleLimits;

@@ -1,4 +1,4 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
@@ -7,6 +7,12 @@ import dev.pressmark.core.contract.ContractRecord;
 import dev.pressmark.core.contract.SemanticVersion;
 import dev.pressmark.core.sign.BundleSignature;
 import dev.pressmark.core.sign.SigningKeys;
+import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.PublishOptions;
+import dev.pressmark.store.StoreEvent;
+import dev.pressmark.store.StoreException;
+import dev.pressmark.store.TrustedKey;
+import dev.pressmark.store.Version;
 import java.security.KeyPair;
 import java.security.MessageDigest;
 import java.sql.Connection;
@@ -42,7 +48,7 @@ abstract class SignedPublishContract {
 
     @BeforeEach
     void openStore() throws Exception {
-        store = BundleStore.open(freshStoreUrl());
+        store = JdbcStores.open(freshStoreUrl());
     }
 
     @AfterEach

@@ -1,7 +1,8 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import dev.pressmark.store.StoreException;
 import java.sql.SQLException;
 import java.sql.SQLTransientConnectionException;
 import java.util.Map;
@@ -31,7 +32,7 @@ class StoreFailureTest {
         "23505, unique_violation, store-failure",
     })
     void a_postgresql_state_maps_to_its_code(String state, String name, String code) {
-        StoreException e = JdbcBundleStore.failure(POSTGRES, "read the versions", new SQLException("ERROR: " + name, state));
+        StoreException e = Transactions.failure(POSTGRES, "read the versions", new SQLException("ERROR: " + name, state));
         assertThat(e.code()).isEqualTo(code);
         assertThat(e.getMessage()).contains("127.0.0.1:5432/pressmark");
     }
@@ -39,7 +40,7 @@ class StoreFailureTest {
     @ParameterizedTest(name = "{0} on SQLite is store-failure")
     @CsvSource({"57P01", "08006"})
     void the_connection_states_mean_nothing_on_sqlite(String state) {
-        assertThat(JdbcBundleStore.failure(SQLITE, "read the versions", new SQLException("[SQLITE_ERROR]", state)).code())
+        assertThat(Transactions.failure(SQLITE, "read the versions", new SQLException("[SQLITE_ERROR]", state)).code())
                 .isEqualTo(StoreException.FAILURE);
     }
 
@@ -47,7 +48,7 @@ class StoreFailureTest {
     void the_pools_timeout_waiting_for_a_connection_on_postgresql_is_unreachable() {
         // the message is the pool's (HikariCP) when no connection comes within its timeout
         SQLException timeout = new SQLTransientConnectionException("pressmark - Connection is not available, request timed out after 10000ms.");
-        assertThat(JdbcBundleStore.failure(POSTGRES, "read the versions", timeout).code())
+        assertThat(Transactions.failure(POSTGRES, "read the versions", timeout).code())
                 .isEqualTo(StoreException.UNREACHABLE);
     }
 }

@@ -1,9 +1,11 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.bundle.BundleContents;
 import dev.pressmark.core.bundle.BundleException;
 import dev.pressmark.core.bundle.Sha256;
+import dev.pressmark.store.BundleCheck;
+import dev.pressmark.store.StoreException;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.UncheckedIOException;

@@ -1,4 +1,4 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import static org.assertj.core.api.Assertions.assertThat;
 

@@ -1,8 +1,9 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import com.zaxxer.hikari.HikariConfig;
 import com.zaxxer.hikari.HikariDataSource;
 import com.zaxxer.hikari.pool.HikariPool;
+import dev.pressmark.store.StoreException;
 import java.io.IOException;
 import java.io.InputStream;
 import java.nio.charset.StandardCharsets;
@@ -137,7 +138,7 @@ final class StoreDatabase {
         return new StoreException(StoreException.FAILURE, "cannot open the store " + url.describe() + ": " + firstLine(message), cause);
     }
 
-    private static String firstLine(String message) {
+    static String firstLine(String message) {
         int newline = message.indexOf('\n');
         return newline < 0 ? message : message.substring(0, newline);
     }

@@ -1,8 +1,9 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
+import dev.pressmark.store.StoreException;
 import java.nio.file.Path;
 import java.util.Map;
 import org.junit.jupiter.api.Test;

@@ -1,5 +1,6 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
+import dev.pressmark.store.BundleStore;
 import java.util.SplittableRandom;
 
 /**
@@ -20,7 +21,7 @@ public final class CrashWorker {
         String url = args[0];
         String model = args[1];
         SplittableRandom random = new SplittableRandom(Long.parseLong(args[2]));
-        try (BundleStore store = BundleStore.open(url)) {
+        try (BundleStore store = JdbcStores.open(url)) {
             System.out.println("ready");
             System.out.flush();
             for (int i = 0; ; i++) {

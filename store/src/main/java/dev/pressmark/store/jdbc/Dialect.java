@@ -1,4 +1,4 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import java.util.Map;
 

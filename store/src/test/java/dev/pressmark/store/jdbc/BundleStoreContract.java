@@ -1,9 +1,23 @@
-package dev.pressmark.store;
+package dev.pressmark.store.jdbc;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
 import dev.pressmark.core.bundle.BundleArchive;
+import dev.pressmark.store.Activation;
+import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.LoadedBundle;
+import dev.pressmark.store.ModelSummary;
+import dev.pressmark.store.Promotion;
+import dev.pressmark.store.PromotionPolicy;
+import dev.pressmark.store.PublishOptions;
+import dev.pressmark.store.Shadow;
+import dev.pressmark.store.ShadowReport;
+import dev.pressmark.store.ShadowSummary;
+import dev.pressmark.store.StoreEvent;
+import dev.pressmark.store.StoreException;
+import dev.pressmark.store.VerifyReport;
+import dev.pressmark.store.Version;
 import java.security.MessageDigest;
 import java.sql.Connection;
 import java.sql.PreparedStatement;
@@ -48,7 +62,7 @@ abstract class BundleStoreContract {
     @BeforeEach
     void openStore() throws Exception {
         url = freshStoreUrl();
-        store = BundleStore.open(url);
+        store = JdbcStores.open(url);
     }
 
     @AfterEach
@@ -347,7 +361,7 @@ abstract class BundleStoreContract {
         publish("routing", "b", 2);
         publish("routing", "c", 3);
         store.activate("routing", "a", ACTOR, "first");
-        try (BundleStore other = BundleStore.open(url)) {
+        try (BundleStore other = JdbcStores.open(url)) {
             // this handle checked c against a; meanwhile another replica makes b active
             other.activate("routing", "b", "other", "in between");
             assertThatThrownBy(() -> store.activate("routing", "c", Optional.of("a"), ACTOR, "checked against a"))
@@ -382,7 +396,7 @@ abstract class BundleStoreContract {
         publish("routing", "b", 2);
         publish("routing", "c", 3);
         store.activate("routing", "a", ACTOR, "first");
-        try (BundleStore other = BundleStore.open(url)) {
+        try (BundleStore other = JdbcStores.open(url)) {
             // the real store, except that its load (the step between the check and the write) lets another client activate b first
             BundleStore interleaved = (BundleStore) java.lang.reflect.Proxy.newProxyInstance(BundleStore.class.getClassLoader(),
                     new Class<?>[] {BundleStore.class}, (proxy, method, args) -> {
@@ -523,7 +537,7 @@ abstract class BundleStoreContract {
         publish("routing", "a", 1);
         long before = store.changeSequence();
         ExecutorService executor = Executors.newSingleThreadExecutor();
-        try (BundleStore other = BundleStore.open(url)) {
+        try (BundleStore other = JdbcStores.open(url)) {
             Future<Long> waiter = executor.submit(() -> store.awaitChange(before, Duration.ofSeconds(30)));
             Thread.sleep(300);
             other.activate("routing", "a", ACTOR, "");
@@ -620,7 +634,7 @@ abstract class BundleStoreContract {
         publish("routing", "a", 1);
         store.activate("routing", "a", ACTOR, "");
         store.close();
-        store = BundleStore.open(url);
+        store = JdbcStores.open(url);
         assertThat(store.activeVersion("routing")).map(Version::tag).contains("a");
         assertThat(store.verify(Optional.empty()).ok()).isTrue();
     }
@@ -632,7 +646,7 @@ abstract class BundleStoreContract {
             s.executeUpdate("INSERT INTO flyway_schema_history (installed_rank, version, description, type, script, checksum, installed_by,"
                     + " execution_time, success) VALUES (99, '7', 'future', 'SQL', 'V7__future.sql', 0, 'test', 0, " + trueLiteral() + ")");
         }
-        assertThatThrownBy(() -> BundleStore.open(url))
+        assertThatThrownBy(() -> JdbcStores.open(url))
                 .isInstanceOf(StoreException.class)
                 .hasMessageContaining("has store schema version 7, newer than this program's " + StoreDatabase.SCHEMA_VERSION)
                 .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.SCHEMA_NEWER);
@@ -646,7 +660,7 @@ abstract class BundleStoreContract {
         try (Connection c = rawConnection(); Statement s = c.createStatement()) {
             s.executeUpdate("DROP TABLE flyway_schema_history");
         }
-        assertThatThrownBy(() -> BundleStore.open(url))
+        assertThatThrownBy(() -> JdbcStores.open(url))
                 .isInstanceOf(StoreException.class).hasMessageContaining("is not a pressmark store: it holds other tables")
                 .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.NOT_A_STORE);
     }
