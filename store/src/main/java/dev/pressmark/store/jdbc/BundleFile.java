@@ -65,7 +65,7 @@ final class BundleFile {
      * The file's {@code size} bytes as a stream for the database to store, checked after the insert
      * against {@code sha256}: a file that changed after it was checked fails the transaction.
      */
-    static final class Stored implements JdbcBundleStore.BundleBytes, AutoCloseable {
+    static final class Stored implements Publishing.BundleBytes, AutoCloseable {
 
         private final Path file;
         private final long size;

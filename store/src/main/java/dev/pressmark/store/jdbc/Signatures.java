@@ -6,30 +6,13 @@ import dev.pressmark.core.sign.SigningKeys;
 import dev.pressmark.store.StoreException;
 import dev.pressmark.store.TrustedKey;
 import java.security.PublicKey;
-import java.sql.Connection;
-import java.sql.PreparedStatement;
-import java.sql.ResultSet;
-import java.sql.SQLException;
-import java.time.Instant;
-import java.util.ArrayList;
 import java.util.List;
 import java.util.Optional;
 
-/** The trusted keys table and the signature checks made at publish and at load. */
+/** The signature checks made at publish and at load, against the store's trusted keys. */
 final class Signatures {
 
     private Signatures() {
-    }
-
-    static List<TrustedKey> trustedKeys(Connection c) throws SQLException {
-        List<TrustedKey> keys = new ArrayList<>();
-        try (PreparedStatement select = c.prepareStatement("SELECT key_id, public_key_pem, added_at, actor FROM trusted_keys ORDER BY key_id");
-                ResultSet rs = select.executeQuery()) {
-            while (rs.next()) {
-                keys.add(new TrustedKey(rs.getString(1), rs.getString(2), Instant.ofEpochMilli(rs.getLong(3)), rs.getString(4)));
-            }
-        }
-        return keys;
     }
 
     /** The key id of a public key PEM, or an {@link StoreException#INVALID_KEY} failure. */
