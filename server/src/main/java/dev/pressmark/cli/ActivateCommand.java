@@ -2,9 +2,9 @@ package dev.pressmark.cli;
 
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.store.BundleStore;
-import dev.pressmark.store.Promotion;
-import dev.pressmark.store.PromotionPolicy;
 import dev.pressmark.store.ShadowReport;
+import dev.pressmark.store.lifecycle.Promotion;
+import dev.pressmark.store.lifecycle.PromotionPolicy;
 import java.util.Optional;
 import java.util.concurrent.Callable;
 import picocli.CommandLine;

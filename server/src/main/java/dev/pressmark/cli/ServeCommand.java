@@ -6,7 +6,7 @@ import dev.pressmark.server.PressmarkServer;
 import dev.pressmark.server.ReconnectingStore;
 import dev.pressmark.server.ServerConfig;
 import dev.pressmark.store.BundleStore;
-import dev.pressmark.store.PromotionPolicy;
+import dev.pressmark.store.lifecycle.PromotionPolicy;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;

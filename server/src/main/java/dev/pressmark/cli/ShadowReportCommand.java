@@ -3,9 +3,10 @@ package dev.pressmark.cli;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import dev.pressmark.core.PressmarkException;
+import dev.pressmark.server.Views;
 import dev.pressmark.store.BundleStore;
-import dev.pressmark.store.ShadowStatus;
 import dev.pressmark.store.ShadowSummary;
+import dev.pressmark.store.lifecycle.ShadowStatus;
 import java.util.Map;
 import java.util.Optional;
 import java.util.concurrent.Callable;
@@ -38,7 +39,7 @@ final class ShadowReportCommand implements Callable<Integer> {
                     .orElseThrow(() -> new PressmarkException("no-shadow", name + " has no shadow running and no shadow report"));
         }
         if (json) {
-            System.out.println(new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValueAsString(status.toJson()));
+            System.out.println(new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValueAsString(Views.shadowStatus(status)));
             return Main.EXIT_OK;
         }
         ShadowSummary s = status.summary();

@@ -8,11 +8,11 @@ import dev.pressmark.core.bundle.Prediction;
 import dev.pressmark.store.Activation;
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.ModelSummary;
-import dev.pressmark.store.Promotion;
-import dev.pressmark.store.PromotionPolicy;
-import dev.pressmark.store.ShadowStatus;
 import dev.pressmark.store.PublishOptions;
 import dev.pressmark.store.Version;
+import dev.pressmark.store.lifecycle.Promotion;
+import dev.pressmark.store.lifecycle.PromotionPolicy;
+import dev.pressmark.store.lifecycle.ShadowStatus;
 import io.javalin.http.Context;
 import java.io.IOException;
 import java.util.ArrayList;
@@ -273,7 +273,7 @@ final class ModelRoutes {
 
     private ObjectNode shadowStatus(String name) {
         store.versions(name); // a 404 for an unknown model
-        return shadows.status(name, Optional.empty()).orElseThrow(() -> noShadow(name)).toJson();
+        return Views.shadowStatus(shadows.status(name, Optional.empty()).orElseThrow(() -> noShadow(name)));
     }
 
     private static ApiProblem noShadow(String name) {

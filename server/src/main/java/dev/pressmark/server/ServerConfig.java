@@ -1,6 +1,6 @@
 package dev.pressmark.server;
 
-import dev.pressmark.store.PromotionPolicy;
+import dev.pressmark.store.lifecycle.PromotionPolicy;
 import java.util.List;
 import java.util.Objects;
 import java.util.Optional;

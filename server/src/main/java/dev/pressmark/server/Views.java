@@ -9,13 +9,14 @@ import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Contribution;
 import dev.pressmark.core.bundle.Explanation;
 import dev.pressmark.core.bundle.Prediction;
+import dev.pressmark.core.contract.ContractRecord;
 import dev.pressmark.core.drift.DriftReport;
 import dev.pressmark.core.drift.LengthShift;
 import dev.pressmark.core.drift.LengthSummary;
-import dev.pressmark.store.PromotionCheck;
-import dev.pressmark.core.contract.ContractRecord;
 import dev.pressmark.core.sign.BundleSignature;
 import dev.pressmark.store.Version;
+import dev.pressmark.store.lifecycle.PromotionCheck;
+import dev.pressmark.store.lifecycle.ShadowStatus;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.io.UncheckedIOException;
@@ -50,6 +51,31 @@ public final class Views {
                 .put("active", v.active())
                 .put("retired", v.retired())
                 .put("contract_version", v.contract().map(c -> c.version().toString()).orElse(null));
+    }
+
+    /**
+     * A shadow run's status, as {@code GET /models/{name}/shadow} and {@code pressmark shadow-report --json}
+     * answer it: {@code model}, {@code active}, {@code candidate}, {@code running}, {@code fraction},
+     * {@code started_at}, {@code replicas}, then the summary's other members.
+     */
+    public static ObjectNode shadowStatus(ShadowStatus status) {
+        ObjectNode body = status.summary().toJson();
+        ObjectNode node = body.objectNode();
+        node.put("model", status.model());
+        node.put("active", status.summary().active());
+        node.put("candidate", status.candidate());
+        node.put("running", status.running().isPresent());
+        if (status.running().isPresent()) {
+            node.put("fraction", status.running().get().fraction());
+        } else {
+            node.putNull("fraction");
+        }
+        node.put("started_at", status.startedAt().toString());
+        node.put("replicas", status.replicas());
+        body.remove("active");
+        body.remove("candidate");
+        node.setAll(body);
+        return node;
     }
 
     /** A version's contract record as the store keeps it, or null when it kept none. */

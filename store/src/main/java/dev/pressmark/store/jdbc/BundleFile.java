@@ -4,8 +4,8 @@ import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.bundle.BundleContents;
 import dev.pressmark.core.bundle.BundleException;
 import dev.pressmark.core.bundle.Sha256;
-import dev.pressmark.store.BundleCheck;
 import dev.pressmark.store.StoreException;
+import dev.pressmark.store.lifecycle.PublishCheck;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.UncheckedIOException;
@@ -53,7 +53,7 @@ final class BundleFile {
         try (InputStream in = new DigestInputStream(Files.newInputStream(file), digest)) {
             return BundleArchive.read(in);
         } catch (BundleException e) {
-            throw BundleCheck.notABundle(e, file + ": ");
+            throw PublishCheck.notABundle(e, file + ": ");
         } catch (NoSuchFileException e) {
             throw new StoreException(StoreException.NOT_A_BUNDLE, file + ": no such file", e);
         } catch (IOException e) {

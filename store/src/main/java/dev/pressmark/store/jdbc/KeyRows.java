@@ -1,5 +1,7 @@
 package dev.pressmark.store.jdbc;
 
+import dev.pressmark.core.sign.SignatureException;
+import dev.pressmark.core.sign.SigningKeys;
 import dev.pressmark.store.Names;
 import dev.pressmark.store.StoreEvent;
 import dev.pressmark.store.StoreException;
@@ -28,7 +30,7 @@ final class KeyRows {
     TrustedKey trust(String publicKeyPem, String actor) {
         Objects.requireNonNull(publicKeyPem, "publicKeyPem");
         Names.actor(actor);
-        String keyId = Signatures.keyId(publicKeyPem);
+        String keyId = keyId(publicKeyPem);
         long now = clock.millis();
         return tx.write("trust key " + keyId, c -> {
             for (TrustedKey key : list(c)) {
@@ -69,6 +71,15 @@ final class KeyRows {
 
     List<TrustedKey> trustedKeys() {
         return tx.read("list the trusted keys", KeyRows::list);
+    }
+
+    /** The key id of a public key PEM, or an {@link StoreException#INVALID_KEY} failure. */
+    private static String keyId(String publicKeyPem) {
+        try {
+            return SigningKeys.keyId(SigningKeys.readPublicKey(publicKeyPem, "the public key"));
+        } catch (SignatureException e) {
+            throw new StoreException(StoreException.INVALID_KEY, e.getMessage(), e);
+        }
     }
 
     static List<TrustedKey> list(Connection c) throws SQLException {

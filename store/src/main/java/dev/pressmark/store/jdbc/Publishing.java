@@ -4,17 +4,16 @@ import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.bundle.BundleContents;
 import dev.pressmark.core.bundle.BundleException;
 import dev.pressmark.core.bundle.Sha256;
-import dev.pressmark.core.contract.Contract;
 import dev.pressmark.core.contract.ContractRecord;
-import dev.pressmark.core.contract.SemanticVersion;
 import dev.pressmark.core.sign.BundleSignature;
 import dev.pressmark.store.Activation;
-import dev.pressmark.store.BundleCheck;
 import dev.pressmark.store.Names;
 import dev.pressmark.store.PublishOptions;
 import dev.pressmark.store.StoreEvent;
 import dev.pressmark.store.StoreException;
 import dev.pressmark.store.Version;
+import dev.pressmark.store.lifecycle.PublishCheck;
+import dev.pressmark.store.lifecycle.SignatureCheck;
 import java.nio.file.Path;
 import java.security.MessageDigest;
 import java.sql.Connection;
@@ -58,9 +57,9 @@ final class Publishing {
         try {
             contents = BundleArchive.read(bundle);
         } catch (BundleException e) {
-            throw BundleCheck.notABundle(e, "");
+            throw PublishCheck.notABundle(e, "");
         }
-        BundleCheck.load(contents, model, tag, "cannot publish ");
+        PublishCheck.load(contents, model, tag, "cannot publish ");
         return insert(model, tag, contents, Sha256.hex(bundle), bundle.length, (statement, index) -> statement.setBytes(index, bundle), options,
                 actor);
     }
@@ -71,7 +70,7 @@ final class Publishing {
         long size = BundleFile.size(bundle);
         MessageDigest digest = Sha256.newDigest();
         BundleContents contents = BundleFile.read(bundle, digest);
-        BundleCheck.load(contents, model, tag, "cannot publish ");
+        PublishCheck.load(contents, model, tag, "cannot publish ");
         String sha256 = Sha256.toHex(digest.digest());
         try (BundleFile.Stored stored = new BundleFile.Stored(bundle, size, sha256)) {
             return insert(model, tag, contents, sha256, size, stored, options, actor);
@@ -97,7 +96,7 @@ final class Publishing {
                 throw new StoreException(StoreException.TAG_EXISTS, model + " " + tag + " is already published; a published tag is immutable,"
                         + " so publish under a new tag");
             }
-            Signatures.check(options.signatureJson(), sha256, KeyRows.list(c), "cannot publish " + model + " " + tag);
+            SignatureCheck.check(options.signatureJson(), sha256, KeyRows.list(c), "cannot publish " + model + " " + tag);
             ContractRecord contract = contract(c, model, tag, contents, options.allowBreaking());
             String contractJson = contract.toJson();
             try (PreparedStatement insert = c.prepareStatement("INSERT INTO versions (model, tag, sha256, size, created_at, manifest_json, bundle,"
@@ -145,14 +144,6 @@ final class Publishing {
                 activeContract = rs.getString(2);
             }
         }
-        SemanticVersion activeVersion = activeContract == null ? SemanticVersion.FIRST : ContractRecord.parse(activeContract).version();
-        ContractRecord record = ContractRecord.against(current.tag(), Contract.ofManifestJson(activeManifest), activeVersion,
-                Contract.of(contents.manifest()));
-        if (record.diff().breaking() && !allowBreaking) {
-            throw new StoreException(StoreException.BREAKING, "cannot publish " + model + " " + tag + ": it breaks the contract of the active"
-                    + " version " + current.tag() + " (" + activeVersion + "): " + record.diff().describe()
-                    + "; allow breaking changes to publish it as contract " + record.version());
-        }
-        return record;
+        return PublishCheck.contract(model, tag, contents, current.tag(), activeManifest, Optional.ofNullable(activeContract), allowBreaking);
     }
 }

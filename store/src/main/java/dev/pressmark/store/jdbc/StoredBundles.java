@@ -4,12 +4,13 @@ import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.bundle.BundleContents;
 import dev.pressmark.core.bundle.BundleException;
 import dev.pressmark.core.bundle.Sha256;
-import dev.pressmark.store.BundleCheck;
 import dev.pressmark.store.LoadedBundle;
 import dev.pressmark.store.Names;
 import dev.pressmark.store.StoreException;
 import dev.pressmark.store.VerifyReport;
 import dev.pressmark.store.Version;
+import dev.pressmark.store.lifecycle.PublishCheck;
+import dev.pressmark.store.lifecycle.SignatureCheck;
 import java.io.FilterInputStream;
 import java.io.IOException;
 import java.io.InputStream;
@@ -39,7 +40,7 @@ final class StoredBundles {
     LoadedBundle load(String model, String tag) {
         Version version = versions.version(model, tag).orElseThrow(() -> VersionRows.noSuchVersion(model, tag));
         return tx.read("load " + model + " " + tag, c -> {
-            Signatures.check(version.signatureJson(), version.sha256(), KeyRows.list(c), model + " " + tag + " will not be served");
+            SignatureCheck.check(version.signatureJson(), version.sha256(), KeyRows.list(c), model + " " + tag + " will not be served");
             try (PreparedStatement select = c.prepareStatement("SELECT bundle FROM versions WHERE model = ? AND tag = ?")) {
                 select.setString(1, model);
                 select.setString(2, tag);
@@ -139,7 +140,7 @@ final class StoredBundles {
             return;
         }
         try {
-            BundleCheck.load(contents, version.model(), version.tag(), "");
+            PublishCheck.load(contents, version.model(), version.tag(), "");
         } catch (StoreException e) {
             String prefix = version.model() + " " + version.tag() + ": ";
             unusable.add(new VerifyReport.Unusable(version.model(), version.tag(),

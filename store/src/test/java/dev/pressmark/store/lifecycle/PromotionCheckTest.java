@@ -1,8 +1,10 @@
-package dev.pressmark.store;
+package dev.pressmark.store.lifecycle;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
+import dev.pressmark.store.ShadowSummary;
+import dev.pressmark.store.Version;
 import java.time.Instant;
 import java.util.List;
 import java.util.Optional;

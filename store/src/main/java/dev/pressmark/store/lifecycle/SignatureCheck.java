@@ -1,4 +1,4 @@
-package dev.pressmark.store.jdbc;
+package dev.pressmark.store.lifecycle;
 
 import dev.pressmark.core.sign.BundleSignature;
 import dev.pressmark.core.sign.SignatureException;
@@ -9,19 +9,14 @@ import java.security.PublicKey;
 import java.util.List;
 import java.util.Optional;
 
-/** The signature checks made at publish and at load, against the store's trusted keys. */
-final class Signatures {
+/**
+ * The one rule for bundle signatures, checked at publish and again at load against the store's
+ * trusted keys: while the store trusts none a signature is optional, and while it trusts any a
+ * bundle must carry a signature by one of them over its SHA-256.
+ */
+public final class SignatureCheck {
 
-    private Signatures() {
-    }
-
-    /** The key id of a public key PEM, or an {@link StoreException#INVALID_KEY} failure. */
-    static String keyId(String publicKeyPem) {
-        try {
-            return SigningKeys.keyId(SigningKeys.readPublicKey(publicKeyPem, "the public key"));
-        } catch (SignatureException e) {
-            throw new StoreException(StoreException.INVALID_KEY, e.getMessage(), e);
-        }
+    private SignatureCheck() {
     }
 
     /**
@@ -29,7 +24,7 @@ final class Signatures {
      * routing 2" or so). Without trusted keys a signature is optional, but one that is given must
      * at least be well-formed and name this bundle's SHA-256. With trusted keys it must verify.
      */
-    static void check(Optional<String> signatureJson, String sha256, List<TrustedKey> trusted, String what) {
+    public static void check(Optional<String> signatureJson, String sha256, List<TrustedKey> trusted, String what) {
         if (signatureJson.isEmpty()) {
             if (!trusted.isEmpty()) {
                 throw new StoreException(StoreException.UNSIGNED, what + ": the bundle is unsigned, and this store accepts only bundles signed by"

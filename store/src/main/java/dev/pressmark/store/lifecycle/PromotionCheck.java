@@ -1,7 +1,10 @@
-package dev.pressmark.store;
+package dev.pressmark.store.lifecycle;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.pressmark.store.ShadowSummary;
+import dev.pressmark.store.StoreException;
+import dev.pressmark.store.Version;
 import java.io.IOException;
 import java.math.BigDecimal;
 import java.util.ArrayList;

@@ -1,6 +1,8 @@
-package dev.pressmark.store;
+package dev.pressmark.store.lifecycle;
 
-import com.fasterxml.jackson.databind.node.ObjectNode;
+import dev.pressmark.store.Shadow;
+import dev.pressmark.store.ShadowReport;
+import dev.pressmark.store.ShadowSummary;
 import java.time.Instant;
 import java.util.List;
 import java.util.Objects;
@@ -39,26 +41,5 @@ public record ShadowStatus(String model, String candidate, Optional<Shadow> runn
         ShadowReport first = newestRun.get(0);
         return Optional.of(new ShadowStatus(model, first.tag(), Optional.empty(), first.runStartedAt(), newestRun.size(),
                 ShadowReport.merged(newestRun).orElseThrow()));
-    }
-
-    /** {@code model}, {@code running}, {@code fraction}, {@code started_at}, {@code replicas} and the summary's members. */
-    public ObjectNode toJson() {
-        ObjectNode body = summary.toJson();
-        ObjectNode node = body.objectNode();
-        node.put("model", model);
-        node.put("active", summary.active());
-        node.put("candidate", candidate);
-        node.put("running", running.isPresent());
-        if (running.isPresent()) {
-            node.put("fraction", running.get().fraction());
-        } else {
-            node.putNull("fraction");
-        }
-        node.put("started_at", startedAt.toString());
-        node.put("replicas", replicas);
-        body.remove("active");
-        body.remove("candidate");
-        node.setAll(body);
-        return node;
     }
 }

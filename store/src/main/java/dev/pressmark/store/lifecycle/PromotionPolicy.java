@@ -1,4 +1,4 @@
-package dev.pressmark.store;
+package dev.pressmark.store.lifecycle;
 
 import java.util.Objects;
 

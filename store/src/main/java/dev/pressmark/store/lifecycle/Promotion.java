@@ -1,6 +1,12 @@
-package dev.pressmark.store;
+package dev.pressmark.store.lifecycle;
 
 import dev.pressmark.core.PressmarkException;
+import dev.pressmark.store.Activation;
+import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.LoadedBundle;
+import dev.pressmark.store.ShadowSummary;
+import dev.pressmark.store.StoreException;
+import dev.pressmark.store.Version;
 import java.util.Objects;
 import java.util.Optional;
 
@@ -93,7 +99,7 @@ public final class Promotion {
             throw new Refused(model, tag, outcome);
         }
         LoadedBundle loaded = store.load(model, tag);
-        BundleCheck.load(loaded.contents(), model, tag, "cannot activate ");
+        PublishCheck.load(loaded.contents(), model, tag, "cannot activate ");
         String reason = request.force()
                 ? "forced" + (outcome.passed() ? "" : " past the promotion check (" + outcome.describe() + ")") + ": " + request.reason()
                 : request.reason();
