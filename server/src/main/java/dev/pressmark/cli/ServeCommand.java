@@ -3,9 +3,9 @@ package dev.pressmark.cli;
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.server.BearerToken;
 import dev.pressmark.server.PressmarkServer;
-import dev.pressmark.server.ReconnectingStore;
 import dev.pressmark.server.ServerConfig;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import dev.pressmark.store.lifecycle.PromotionPolicy;
 import java.io.IOException;
 import java.nio.file.Files;
@@ -104,7 +104,7 @@ final class ServeCommand implements Callable<Integer> {
                 new PromotionPolicy(promotionMetric, promotionMaxDrop, promotionMinAgreement, promotionMinSamples),
                 ServerConfig.DEFAULT_TAP_CAPACITY, driftSample, ServerConfig.defaultBodyBudgetBytes(), openMetrics);
         // A PostgreSQL store that is down does not stop the service: it starts not ready and connects when it can.
-        BundleStore opened = ReconnectingStore.open(store.url);
+        BundleStore opened = JdbcStores.openReconnecting(store.url);
         PressmarkServer server;
         try {
             server = PressmarkServer.start(opened, config);

@@ -11,6 +11,7 @@ import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.bundle.BundleException;
 import dev.pressmark.core.drift.DriftException;
 import dev.pressmark.store.StoreException;
+import dev.pressmark.store.jdbc.JdbcStores;
 import io.javalin.http.Context;
 import io.javalin.http.HttpResponseException;
 import java.nio.charset.StandardCharsets;
@@ -36,7 +37,7 @@ final class Problems {
     /** The problem type of a request that needs the store while it does not answer. */
     static final String STORE_UNAVAILABLE = "store-unavailable";
     /** As long as the server waits at most between two attempts to reach a store that is down. */
-    static final String STORE_RETRY_AFTER_SECONDS = String.valueOf(ReconnectingStore.MAX_RETRY_MS / 1000);
+    static final String STORE_RETRY_AFTER_SECONDS = String.valueOf(JdbcStores.MAX_RETRY_MS / 1000);
 
     /** How much of a bad value a problem detail repeats: enough to recognise it, never the whole of a huge one. */
     static final int QUOTED_CHARS = 40;

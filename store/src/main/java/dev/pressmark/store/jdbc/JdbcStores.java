@@ -9,6 +9,12 @@ import dev.pressmark.store.BundleStore;
  */
 public final class JdbcStores {
 
+    /**
+     * The longest delay between two attempts of {@link #openReconnecting}: a store back up is seen
+     * within this (plus one connection attempt).
+     */
+    public static final long MAX_RETRY_MS = 5_000;
+
     private JdbcStores() {
     }
 
@@ -18,6 +24,17 @@ public final class JdbcStores {
      */
     public static BundleStore open(String url) {
         return JdbcBundleStore.open(StoreUrl.parse(url, System.getenv()));
+    }
+
+    /**
+     * Opens the store at {@code url} as {@link #open} does, except that a PostgreSQL store that
+     * cannot be reached gives a stand-in whose every operation fails with
+     * {@link dev.pressmark.store.StoreException#UNREACHABLE} while a thread keeps connecting; once it
+     * connects, every call goes to the real store. For a service that must start while its database
+     * is down. Any other failure is thrown at once.
+     */
+    public static BundleStore openReconnecting(String url) {
+        return Reconnecting.open(url);
     }
 
     /** Where the store at {@code url} is, for messages, as {@link BundleStore#describe()} says it; opens nothing. */

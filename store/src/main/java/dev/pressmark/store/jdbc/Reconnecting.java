@@ -1,8 +1,7 @@
-package dev.pressmark.server;
+package dev.pressmark.store.jdbc;
 
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.StoreException;
-import dev.pressmark.store.jdbc.JdbcStores;
 import java.lang.reflect.InvocationHandler;
 import java.lang.reflect.InvocationTargetException;
 import java.lang.reflect.Method;
@@ -14,11 +13,11 @@ import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
 /**
- * Opens the store for {@code pressmark serve} so that a database that is down at start-up does
+ * Opens a store for a long-running service ({@code pressmark serve}) so that a database that is down at start-up does
  * not stop the service from starting. A store that answers is returned as it is. A PostgreSQL
  * store that cannot be reached ({@link StoreException#UNREACHABLE}) is returned as a stand-in
  * whose every operation fails with that code, while a thread keeps opening the real one with a
- * doubling delay from {@value #FIRST_RETRY_MS} ms up to {@value #MAX_RETRY_MS} ms; once it opens,
+ * doubling delay from {@value #FIRST_RETRY_MS} ms up to {@value JdbcStores#MAX_RETRY_MS} ms; once it opens,
  * every call goes to it. The stand-in logs once when it starts waiting and once when it connects,
  * not on every attempt.
  *
@@ -29,19 +28,18 @@ import org.slf4j.LoggerFactory;
  * <p>The stand-in is a {@link Proxy} over the {@link BundleStore} interface, so that every
  * operation the interface has, now or later, behaves the same way without a list to keep in step.
  */
-public final class ReconnectingStore {
+final class Reconnecting {
 
-    private static final Logger LOG = LoggerFactory.getLogger(ReconnectingStore.class);
+    private static final Logger LOG = LoggerFactory.getLogger(Reconnecting.class);
     /** The first delay before trying again. */
     static final long FIRST_RETRY_MS = 250;
-    /** The longest delay between two attempts: a store back up is seen within this (plus one connection attempt). */
-    static final long MAX_RETRY_MS = 5_000;
+    static final long MAX_RETRY_MS = JdbcStores.MAX_RETRY_MS;
 
-    private ReconnectingStore() {
+    private Reconnecting() {
     }
 
     /** The store at {@code url}; a stand-in that keeps connecting when it is a PostgreSQL store that is down. */
-    public static BundleStore open(String url) {
+    static BundleStore open(String url) {
         Objects.requireNonNull(url, "url");
         try {
             return JdbcStores.open(url);
