@@ -13,7 +13,7 @@ public final class JdbcStores {
      * The longest delay between two attempts of {@link #openReconnecting}: a store back up is seen
      * within this (plus one connection attempt).
      */
-    public static final long MAX_RETRY_MS = 5_000;
+    public static final long MAX_RETRY_MS = Reconnecting.MAX_RETRY_MS;
 
     private JdbcStores() {
     }

@@ -17,7 +17,7 @@ import org.slf4j.LoggerFactory;
  * not stop the service from starting. A store that answers is returned as it is. A PostgreSQL
  * store that cannot be reached ({@link StoreException#UNREACHABLE}) is returned as a stand-in
  * whose every operation fails with that code, while a thread keeps opening the real one with a
- * doubling delay from {@value #FIRST_RETRY_MS} ms up to {@value JdbcStores#MAX_RETRY_MS} ms; once it opens,
+ * doubling delay from {@value #FIRST_RETRY_MS} ms up to {@value #MAX_RETRY_MS} ms; once it opens,
  * every call goes to it. The stand-in logs once when it starts waiting and once when it connects,
  * not on every attempt.
  *
@@ -33,7 +33,8 @@ final class Reconnecting {
     private static final Logger LOG = LoggerFactory.getLogger(Reconnecting.class);
     /** The first delay before trying again. */
     static final long FIRST_RETRY_MS = 250;
-    static final long MAX_RETRY_MS = JdbcStores.MAX_RETRY_MS;
+    /** The longest delay between two attempts: a store back up is seen within this (plus one connection attempt). */
+    static final long MAX_RETRY_MS = 5_000;
 
     private Reconnecting() {
     }
@@ -41,14 +42,15 @@ final class Reconnecting {
     /** The store at {@code url}; a stand-in that keeps connecting when it is a PostgreSQL store that is down. */
     static BundleStore open(String url) {
         Objects.requireNonNull(url, "url");
+        StoreUrl parsed = StoreUrl.parse(url, System.getenv());
         try {
-            return JdbcStores.open(url);
+            return JdbcBundleStore.open(parsed);
         } catch (StoreException e) {
             if (!StoreException.UNREACHABLE.equals(e.code())) {
                 throw e;
             }
             LOG.warn("{}; serving without a store and trying again (every {} s at most)", e.getMessage(), MAX_RETRY_MS / 1000);
-            Connector connector = new Connector(url, JdbcStores.describe(url), e);
+            Connector connector = new Connector(parsed, e);
             connector.thread.start();
             return (BundleStore) Proxy.newProxyInstance(BundleStore.class.getClassLoader(), new Class<?>[] {BundleStore.class}, connector);
         }
@@ -57,16 +59,16 @@ final class Reconnecting {
     /** The stand-in's calls and the thread that opens the real store. */
     private static final class Connector implements InvocationHandler {
 
-        private final String url;
+        private final StoreUrl url;
         private final String description;
         private final Thread thread;
         private final CountDownLatch closed = new CountDownLatch(1);
         private volatile BundleStore store;
         private volatile StoreException lastFailure;
 
-        Connector(String url, String description, StoreException firstFailure) {
+        Connector(StoreUrl url, StoreException firstFailure) {
             this.url = url;
-            this.description = description;
+            this.description = url.describe();
             this.lastFailure = firstFailure;
             this.thread = new Thread(this::connect, "pressmark-store-connect");
             this.thread.setDaemon(true);
@@ -77,7 +79,7 @@ final class Reconnecting {
             try {
                 while (!closed.await(delayMs, TimeUnit.MILLISECONDS)) {
                     try {
-                        BundleStore opened = JdbcStores.open(url);
+                        BundleStore opened = JdbcBundleStore.open(url);
                         synchronized (this) {
                             if (closed.getCount() == 0) {
                                 opened.close();
