@@ -6,6 +6,7 @@ import dev.pressmark.core.bundle.ModelWeights;
 import dev.pressmark.core.bundle.TextPipeline;
 import dev.pressmark.core.bundle.TokenizerSpec;
 import dev.pressmark.core.classify.LinearWeights;
+import dev.pressmark.core.classify.PlattScaling;
 import dev.pressmark.core.feature.FeatureConfig;
 import dev.pressmark.core.feature.FeatureSpace;
 import dev.pressmark.core.text.TextNormalizer;
@@ -27,6 +28,14 @@ public final class LoadableBundles {
 
     /** A model of {@code fields} and {@code labels} over {@code features} features per field, weights from {@code seed}. */
     public static byte[] of(long seed, List<String> fields, List<String> labels, int features) {
+        return of(seed, fields, labels, features, false);
+    }
+
+    /**
+     * As {@link #of(long, List, List, int)}, with a Platt sigmoid per score (random, a < 0) when
+     * {@code probabilities}, so that predictions carry a probability per label.
+     */
+    public static byte[] of(long seed, List<String> fields, List<String> labels, int features, boolean probabilities) {
         SplittableRandom random = new SplittableRandom(seed);
         List<List<List<String>>> rows = new ArrayList<>();
         for (int i = 0; i < features; i += 8) {
@@ -47,10 +56,14 @@ public final class LoadableBundles {
                 score[j] = random.nextDouble(-1, 1);
             }
         }
+        List<PlattScaling> platt = new ArrayList<>();
+        for (int k = 0; probabilities && k < w.length; k++) {
+            platt.add(new PlattScaling(random.nextDouble(-3, -0.5), random.nextDouble(-1, 1)));
+        }
         TokenizerSpec spec = TokenizerSpec.words(TextNormalizer.DEFAULT);
         return Bundle.write(JsonNodeFactory.instance.objectNode().put("name", "routing").put("seed", seed), labels,
                 new TextPipeline(spec, spec.tokenizer(), space), new ModelWeights(ModelWeights.LINEAR_SVM, LinearWeights.of(labels.size(), 1.0, w),
-                        List.of()), JsonNodeFactory.instance.objectNode());
+                        platt), JsonNodeFactory.instance.objectNode());
     }
 
     /** A two-label model of the field {@code title}. */

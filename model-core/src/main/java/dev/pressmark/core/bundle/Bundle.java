@@ -227,6 +227,45 @@ public final class Bundle {
         return predictions;
     }
 
+    /**
+     * Scores {@code rows} (each one text per {@link #inputFields() input field}, in that order) into
+     * {@code out}, each field cut to its first {@code maxTokensPerField} tokens: the numbers of
+     * {@link #predict(List, int)}, bit for bit, without a map or {@link Prediction} per row. For
+     * scoring large tables; {@code out} must have room for every row and match this model's labels
+     * and probabilities.
+     */
+    public void score(List<String[]> rows, int maxTokensPerField, ScoredRows out) {
+        requirePositive(maxTokensPerField);
+        if (rows.size() > out.capacity() || out.hasProbabilities() != hasProbabilities()
+                || out.probabilities.length != (hasProbabilities() ? out.capacity() * labels.size() : 0)) {
+            throw new IllegalArgumentException("out must hold " + rows.size() + " rows of " + labels.size()
+                    + " labels " + (hasProbabilities() ? "with" : "without") + " probabilities");
+        }
+        int fields = pipeline.columns().size();
+        Scratch scratch = this.scratch.get();
+        SparseMatrix.Builder builder = SparseMatrix.builder(pipeline.features().featureCount());
+        for (int i = 0; i < rows.size(); i++) {
+            String[] row = rows.get(i);
+            if (row.length != fields) {
+                throw new IllegalArgumentException("row " + i + " has " + row.length + " texts; this model reads " + fields);
+            }
+            int length = scratch.encoder.encode(row, maxTokensPerField, scratch.cols, scratch.vals);
+            builder.addRow(Arrays.copyOf(scratch.cols, length), Arrays.copyOf(scratch.vals, length));
+            out.unknownTokens[i] = scratch.encoder.unknownTokens();
+            out.truncatedTokens[i] = scratch.encoder.droppedTokens();
+        }
+        SparseMatrix x = builder.build();
+        double[] scores = new double[model.weights().numScores()];
+        double[] p = new double[hasProbabilities() ? labels.size() : 0];
+        for (int i = 0; i < rows.size(); i++) {
+            int predicted = decide(x, i, scores, p);
+            out.label[i] = predicted;
+            out.score[i] = scoreOf(scores, predicted);
+            System.arraycopy(p, 0, out.probabilities, i * p.length, p.length);
+        }
+        out.size = rows.size();
+    }
+
     /** One thread's encoder and row buffers, so that a request allocates nothing the size of the feature space. */
     private static final class Scratch {
 
@@ -291,21 +330,37 @@ public final class Bundle {
     }
 
     private Prediction prediction(SparseMatrix x, int row, int unknownTokens, int truncatedTokens) {
-        LinearWeights weights = model.weights();
-        double[] scores = new double[weights.numScores()];
-        weights.decisionValues(x, row, scores);
-        int predicted = weights.predict(x, row);
-        double score = scores.length == 1 ? (predicted == 1 ? scores[0] : -scores[0]) : scores[predicted];
+        double[] scores = new double[model.weights().numScores()];
+        double[] p = classifier instanceof ProbabilisticClassifier ? new double[labels.size()] : null;
+        int predicted = decide(x, row, scores, p);
         Map<String, Double> probabilities = null;
-        if (classifier instanceof ProbabilisticClassifier probabilistic) {
-            double[] p = new double[labels.size()];
-            probabilistic.probabilities(x, row, p);
+        if (p != null) {
             probabilities = new LinkedHashMap<>();
             for (int k = 0; k < p.length; k++) {
                 probabilities.put(labels.get(k), p[k]);
             }
         }
-        return new Prediction(labels.get(predicted), score, probabilities, unknownTokens, truncatedTokens);
+        return new Prediction(labels.get(predicted), scoreOf(scores, predicted), probabilities, unknownTokens, truncatedTokens);
+    }
+
+    /**
+     * Writes the decision values of {@code row} into {@code scores} and, when the model gives them,
+     * its probabilities into {@code probabilities}; returns the predicted label's index. The one
+     * place both {@link #predict} and {@link #score} decide, so that they agree bit for bit.
+     */
+    private int decide(SparseMatrix x, int row, double[] scores, double[] probabilities) {
+        LinearWeights weights = model.weights();
+        weights.decisionValues(x, row, scores);
+        int predicted = weights.predict(x, row);
+        if (classifier instanceof ProbabilisticClassifier probabilistic) {
+            probabilistic.probabilities(x, row, probabilities);
+        }
+        return predicted;
+    }
+
+    /** The decision value for the predicted label: a binary model's margin signed towards it. */
+    private static double scoreOf(double[] scores, int predicted) {
+        return scores.length == 1 ? (predicted == 1 ? scores[0] : -scores[0]) : scores[predicted];
     }
 
     private List<String[]> rows(List<Map<String, String>> items) {
