@@ -13,6 +13,7 @@ import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.Prediction;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -189,7 +190,7 @@ class PredictBatchTest {
     void a_stored_version_scores_as_its_bundle_file_and_an_unknown_tag_is_refused() throws IOException {
         Path data = csv("in.csv", rows(200, 6));
         String store = "sqlite:" + dir.resolve("store.db");
-        try (BundleStore s = BundleStore.open(store)) {
+        try (BundleStore s = JdbcStores.open(store)) {
             s.publish("routing", "1.0.0", Files.readAllBytes(bundleFile), "test");
             s.publish("routing", "1.1.0", LoadableBundles.of(9, FIELDS, LABELS, 40, true), "test");
             s.activate("routing", "1.0.0", "test", "start");
