@@ -135,7 +135,9 @@ public abstract sealed class BundleSource permits BundleSource.FileSource, Bundl
             } catch (SparkScoringException e) {
                 throw e;
             } catch (PressmarkException e) {
-                throw new SparkScoringException(SparkScoringException.STORE, this + ": " + e.getMessage(), e);
+                String where = where();
+                String named = e.getMessage().contains(where) ? name() : this.toString();
+                throw new SparkScoringException(SparkScoringException.STORE, named + ": " + e.getMessage(), e);
             }
         }
 
@@ -149,13 +151,19 @@ public abstract sealed class BundleSource permits BundleSource.FileSource, Bundl
 
         @Override
         public String toString() {
-            String where;
+            return name() + " in " + where();
+        }
+
+        private String name() {
+            return model + tag.map(t -> ":" + t).orElse("");
+        }
+
+        private String where() {
             try {
-                where = BundleStore.describe(url);
+                return BundleStore.describe(url);
             } catch (PressmarkException e) {
-                where = "a store URL that does not parse (" + e.getMessage() + ")";
+                return "a store URL that does not parse (" + e.getMessage() + ")";
             }
-            return model + tag.map(t -> ":" + t).orElse("") + " in " + where;
         }
     }
 }

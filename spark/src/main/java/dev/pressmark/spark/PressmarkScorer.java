@@ -51,16 +51,20 @@ public final class PressmarkScorer implements AutoCloseable {
     private final String sha256;
     private final String version;
     private final List<String> inputFields;
+    private final List<String> labels;
+    private final boolean probabilities;
     private final Map<String, String> columns;
     private final int maxTokensPerField;
 
     private PressmarkScorer(SparkSession spark, Broadcast<byte[]> shipped, String sha256, String version, List<String> inputFields,
-            Map<String, String> columns, int maxTokensPerField) {
+            List<String> labels, boolean probabilities, Map<String, String> columns, int maxTokensPerField) {
         this.spark = spark;
         this.shipped = shipped;
         this.sha256 = sha256;
         this.version = version;
         this.inputFields = inputFields;
+        this.labels = labels;
+        this.probabilities = probabilities;
         this.columns = columns;
         this.maxTokensPerField = maxTokensPerField;
     }
@@ -77,7 +81,8 @@ public final class PressmarkScorer implements AutoCloseable {
         Broadcast<byte[]> shipped = JavaSparkContext.fromSparkContext(spark.sparkContext()).broadcast(resolved.bytes());
         Map<String, String> identity = new LinkedHashMap<>();
         fields.forEach(field -> identity.put(field, field));
-        return new PressmarkScorer(spark, shipped, resolved.sha256(), resolved.version(), List.copyOf(fields), identity,
+        return new PressmarkScorer(spark, shipped, resolved.sha256(), resolved.version(), List.copyOf(fields),
+                List.copyOf(bundle.labels()), bundle.hasProbabilities(), identity,
                 DEFAULT_MAX_TOKENS_PER_FIELD);
     }
 
@@ -92,7 +97,7 @@ public final class PressmarkScorer implements AutoCloseable {
         }
         Map<String, String> mapped = new LinkedHashMap<>(columns);
         mapped.put(field, column);
-        return new PressmarkScorer(spark, shipped, sha256, version, inputFields, mapped, maxTokensPerField);
+        return new PressmarkScorer(spark, shipped, sha256, version, inputFields, labels, probabilities, mapped, maxTokensPerField);
     }
 
     /** A scorer that cuts each field to its first {@code tokens} tokens (the HTTP service's {@code --max-tokens-per-field}). */
@@ -100,7 +105,7 @@ public final class PressmarkScorer implements AutoCloseable {
         if (tokens < 1) {
             throw new IllegalArgumentException("maxTokensPerField must be >= 1 tokens, was " + tokens);
         }
-        return new PressmarkScorer(spark, shipped, sha256, version, inputFields, columns, tokens);
+        return new PressmarkScorer(spark, shipped, sha256, version, inputFields, labels, probabilities, columns, tokens);
     }
 
     /** {@code frame} with a {@link PredictionColumn#DEFAULT_NAME} column added. */
@@ -148,6 +153,16 @@ public final class PressmarkScorer implements AutoCloseable {
     /** The bundle's input fields, in the order the SQL function takes them. */
     public List<String> inputFields() {
         return inputFields;
+    }
+
+    /** The bundle's labels, in the order its probabilities list them. */
+    public List<String> labels() {
+        return labels;
+    }
+
+    /** Whether the rows' {@code probabilities} are filled in (the bundle was trained with them), or null. */
+    public boolean hasProbabilities() {
+        return probabilities;
     }
 
     /** The version the scored rows carry: the store tag, or {@code sha256:HEX} for a file. */
