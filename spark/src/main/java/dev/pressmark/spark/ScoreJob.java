@@ -30,7 +30,7 @@ public final class ScoreJob {
                      [--column FIELD=COLUMN]... [--max-tokens-per-field N]
               --model   the stored model, its active version unless :TAG is given
               --store   sqlite:PATH or jdbc:postgresql://HOST[:PORT]/DATABASE (default: env PRESSMARK_STORE)
-              --input   the table to score, in --format; CSV needs a header row
+              --input   the table to score, in --format; CSV needs a header row and no line break inside a field
               --output  where the scored table goes, in --format; it must not exist
               --format  parquet (default) or csv
               --column  read the bundle's input field FIELD from COLUMN (default: the column named FIELD)
@@ -86,7 +86,7 @@ public final class ScoreJob {
 
     private static Dataset<Row> read(SparkSession spark, ScoreOptions options) {
         return options.format() == ScoreOptions.Format.CSV
-                ? spark.read().option("header", "true").option("multiLine", "true").csv(options.input())
+                ? spark.read().option("header", "true").csv(options.input())
                 : spark.read().parquet(options.input());
     }
 
