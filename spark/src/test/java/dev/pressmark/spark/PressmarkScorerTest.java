@@ -25,9 +25,11 @@ import org.junit.jupiter.api.io.TempDir;
 
 /**
  * Scoring DataFrames in local mode against {@link Bundle#predict} in process. The HTTP service's
- * predict endpoint answers with that same call on the same bundle bytes (its own tests compare
- * the two), so equal here means equal to {@code POST /models/{name}/predict}: same labels, and
- * scores and probabilities equal bit for bit (compared with {@code Double.equals}, no tolerance).
+ * predict endpoint answers with that same call on the same bundle bytes, and the server's
+ * {@code AnswerEncodingTest} checks that every double of its answer reads back to the bundle's own
+ * value exactly; so equal here means equal to {@code POST /models/{name}/predict}: same labels,
+ * and scores and probabilities equal bit for bit (compared with {@code Double.equals}, no tolerance).
+ * This module does not depend on the server, so it does not start one.
  */
 @Tag("slow")
 class PressmarkScorerTest {
