@@ -38,6 +38,8 @@ final class PredictFunction implements UDF1<String, Row>, UDF2<String, String, R
     private final String version;
     private final String[] fields;
     private final int maxTokensPerField;
+    /** This deserialised copy's bundle: a task asks the JVM-wide cache (and takes its lock) once, not per row. */
+    private transient volatile Bundle bundle;
 
     PredictFunction(Broadcast<byte[]> bytes, String sha256, String version, List<String> fields, int maxTokensPerField) {
         if (fields.isEmpty() || fields.size() > MAX_FIELDS) {
@@ -59,7 +61,11 @@ final class PredictFunction implements UDF1<String, Row>, UDF2<String, String, R
             }
             item.put(fields[i], texts[i]);
         }
-        Bundle bundle = BundleCache.get(sha256, bytes::value);
+        Bundle bundle = this.bundle;
+        if (bundle == null) {
+            bundle = BundleCache.get(sha256, bytes::value);
+            this.bundle = bundle;
+        }
         Prediction p = bundle.predict(List.of(item), maxTokensPerField).get(0);
         return RowFactory.create(p.label(), p.score(), p.probabilities(), version);
     }
