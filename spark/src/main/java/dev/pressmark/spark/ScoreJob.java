@@ -1,0 +1,148 @@
+package dev.pressmark.spark;
+
+import dev.pressmark.core.PressmarkException;
+import dev.pressmark.store.BundleStore;
+import java.io.IOException;
+import java.io.PrintStream;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.LinkedHashMap;
+import java.util.Map;
+import org.apache.hadoop.fs.FileSystem;
+import org.apache.spark.sql.Column;
+import org.apache.spark.sql.Dataset;
+import org.apache.spark.sql.Row;
+import org.apache.spark.sql.SparkSession;
+import org.apache.spark.sql.functions;
+
+/**
+ * The job {@code spark-submit} runs: reads a table, scores it with a stored version and writes
+ * the table with a {@code prediction} column (Parquet) or with {@code label}, {@code score},
+ * {@code p:<label>} and {@code version} columns (CSV, which holds no structs). Exit codes as the
+ * {@code pressmark} command's: 0 done, 1 a failure you can fix (one line on stderr), 2 a usage error.
+ */
+public final class ScoreJob {
+
+    static final String USAGE = """
+            usage: spark-submit --class dev.pressmark.spark.ScoreJob pressmark-spark.jar \\
+                     --model NAME[:TAG] --store URL --input PATH --output PATH [--format parquet|csv] \\
+                     [--column FIELD=COLUMN]... [--max-tokens-per-field N]
+              --model   the stored model, its active version unless :TAG is given
+              --store   sqlite:PATH or jdbc:postgresql://HOST[:PORT]/DATABASE (default: env PRESSMARK_STORE)
+              --input   the table to score, in --format; CSV needs a header row and no line break inside a field
+              --output  where the scored table goes, in --format; it must not exist
+              --format  parquet (default) or csv
+              --column  read the bundle's input field FIELD from COLUMN (default: the column named FIELD)
+              --max-tokens-per-field  tokens of each field that are scored (default 512, as the HTTP service)""";
+
+    private ScoreJob() {
+    }
+
+    public static void main(String[] args) {
+        ScoreOptions options;
+        try {
+            options = ScoreOptions.parse(args, System.getenv(BundleStore.URL_ENV));
+        } catch (IllegalArgumentException e) {
+            System.err.println("pressmark score: " + e.getMessage());
+            System.err.println(USAGE);
+            System.exit(2);
+            return;
+        }
+        SparkSession spark = SparkSession.builder().appName("pressmark score " + options.model()).getOrCreate();
+        int code;
+        try {
+            code = run(spark, options, System.err);
+        } finally {
+            spark.stop();
+        }
+        if (code != 0) {
+            System.exit(code);
+        }
+    }
+
+    /** Runs the job on {@code spark}; errors go to {@code err} as one line. Returns the exit code. */
+    static int run(SparkSession spark, ScoreOptions options, PrintStream err) {
+        try {
+            requireAbsent(spark, options.output());
+            PressmarkScorer scorer = PressmarkScorer.create(spark, BundleSource.store(options.store(), options.model()))
+                    .withMaxTokensPerField(options.maxTokensPerField());
+            for (var mapping : options.columns().entrySet()) {
+                scorer = scorer.withColumn(mapping.getKey(), mapping.getValue());
+            }
+            try (PressmarkScorer closing = scorer) {
+                Dataset<Row> scored = closing.score(read(spark, options));
+                write(options.format() == ScoreOptions.Format.CSV ? flattened(scored, closing) : scored, options);
+            }
+            return 0;
+        } catch (PressmarkException | IllegalArgumentException e) {
+            err.println("pressmark score: " + e.getMessage());
+            return 1;
+        } catch (RuntimeException e) {
+            err.println("pressmark score: " + firstLine(e));
+            return 1;
+        }
+    }
+
+    private static Dataset<Row> read(SparkSession spark, ScoreOptions options) {
+        return options.format() == ScoreOptions.Format.CSV
+                ? spark.read().option("header", "true").csv(options.input())
+                : spark.read().parquet(options.input());
+    }
+
+    private static void write(Dataset<Row> scored, ScoreOptions options) {
+        if (options.format() == ScoreOptions.Format.CSV) {
+            scored.write().option("header", "true").csv(options.output());
+        } else {
+            scored.write().parquet(options.output());
+        }
+    }
+
+    /** The prediction struct as flat columns: {@code label}, {@code score}, {@code p:<label>} per label, {@code version}. */
+    private static Dataset<Row> flattened(Dataset<Row> scored, PressmarkScorer scorer) {
+        List<String> inputs = new ArrayList<>(Arrays.asList(scored.columns()));
+        inputs.remove(PredictionColumn.DEFAULT_NAME);
+        Map<String, Column> added = new LinkedHashMap<>();
+        String p = PredictionColumn.DEFAULT_NAME + ".";
+        added.put(PredictionColumn.LABEL, functions.col(p + PredictionColumn.LABEL));
+        added.put(PredictionColumn.SCORE, functions.col(p + PredictionColumn.SCORE));
+        if (scorer.hasProbabilities()) {
+            for (String label : scorer.labels()) {
+                added.put("p:" + label, functions.element_at(functions.col(p + PredictionColumn.PROBABILITIES), functions.lit(label)));
+            }
+        }
+        added.put(PredictionColumn.VERSION, functions.col(p + PredictionColumn.VERSION));
+        List<Column> columns = new ArrayList<>();
+        inputs.forEach(name -> columns.add(scored.col("`" + name.replace("`", "``") + "`")));
+        added.forEach((name, column) -> {
+            if (inputs.contains(name)) {
+                throw new IllegalArgumentException("the input already has a column \"" + name + "\", which the CSV output adds; "
+                        + "rename it or write parquet");
+            }
+            columns.add(column.as(name));
+        });
+        return scored.select(columns.toArray(Column[]::new));
+    }
+
+    private static void requireAbsent(SparkSession spark, String output) {
+        org.apache.hadoop.fs.Path path = new org.apache.hadoop.fs.Path(output);
+        try {
+            FileSystem fs = path.getFileSystem(spark.sparkContext().hadoopConfiguration());
+            if (fs.exists(path)) {
+                throw new IllegalArgumentException("--output " + output + " exists; give a path that does not (nothing was written)");
+            }
+        } catch (IOException e) {
+            throw new IllegalArgumentException("--output " + output + ": cannot check it: " + e.getMessage(), e);
+        }
+    }
+
+    /** Spark's own messages can run to a plan of many lines; the first says what went wrong. */
+    private static String firstLine(Throwable e) {
+        String message = e.getMessage();
+        if (message == null || message.isBlank()) {
+            return e.getClass().getSimpleName();
+        }
+        int newline = message.indexOf('\n');
+        return (newline < 0 ? message : message.substring(0, newline)).strip();
+    }
+}

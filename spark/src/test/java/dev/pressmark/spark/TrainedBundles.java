@@ -1,0 +1,79 @@
+package dev.pressmark.spark;
+
+import dev.pressmark.core.Progress;
+import dev.pressmark.core.train.BundleAssembler;
+import dev.pressmark.core.train.LabelledData;
+import dev.pressmark.core.train.TrainConfig;
+import dev.pressmark.core.train.TrainingRun;
+import dev.pressmark.demo.ListingTitles;
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.io.Writer;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+
+/**
+ * Real bundles trained on the demo's invented listing titles, as {@code pressmark train} makes
+ * them: a WordPiece model with Platt probabilities and a whole-word one without.
+ */
+final class TrainedBundles {
+
+    static final long SEED = 7;
+    /** Enough rows for every department in both folds; few enough to train in about a second. */
+    static final int ROWS = 3_000;
+    private static final Instant CREATED = Instant.parse("2026-01-01T00:00:00Z");
+
+    private static final String CONFIG = """
+            name: routing
+            data: {file: listings.csv, text: [title], label: department}
+            split: {test_fraction: 0.25, stratify: true, seed: %d}
+            tokenizer: %s
+            features: {max_tokens: 800, weighting: tf, scaling: l2}
+            classifier: {kind: linear-svm, c: 1.0, probabilities: %s}
+            evaluation: {folds: 2}
+            """;
+
+    private TrainedBundles() {
+    }
+
+    /** WordPiece subwords and Platt probabilities, as the demo's v2. */
+    static byte[] subwords(Path dir) {
+        return train(dir, "{kind: wordpiece, vocab_size: 600}", "platt");
+    }
+
+    /** Whole words and character n-grams, without probabilities. */
+    static byte[] wordsWithoutProbabilities(Path dir) {
+        return train(dir, "[{kind: words}, {kind: char-ngrams, min_n: 2, max_n: 3}]", "none");
+    }
+
+    /** Titles the bundles have never seen: the same generator under another seed. */
+    static List<String> unseenTitles(int count) {
+        List<String> titles = new ArrayList<>(count);
+        for (ListingTitles.Listing listing : ListingTitles.generate(count, SEED + 1000)) {
+            titles.add(listing.title());
+        }
+        return titles;
+    }
+
+    private static byte[] train(Path dir, String tokenizer, String probabilities) {
+        try {
+            Path data = dir.resolve("listings.csv");
+            if (!Files.exists(data)) {
+                try (Writer out = Files.newBufferedWriter(data, StandardCharsets.UTF_8)) {
+                    ListingTitles.writeCsv(ListingTitles.generate(ROWS, SEED), out);
+                }
+            }
+            TrainConfig config = TrainConfig.parse(String.format(Locale.ROOT, CONFIG, SEED, tokenizer, probabilities), "test config");
+            LabelledData rows = LabelledData.read(data, config.data().text(), config.data().label(), false);
+            TrainingRun.Result result = new TrainingRun(config, rows).run(Progress.NONE);
+            return BundleAssembler.assemble(config, rows, result, CREATED);
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+}
