@@ -7,6 +7,7 @@ import dev.pressmark.core.bundle.BundleContents;
 import dev.pressmark.core.bundle.BundleException;
 import dev.pressmark.core.bundle.Sha256;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import dev.pressmark.store.LoadedBundle;
 import dev.pressmark.store.Version;
 import com.fasterxml.jackson.databind.node.ObjectNode;
@@ -125,7 +126,7 @@ public abstract sealed class BundleSource permits BundleSource.FileSource, Bundl
          */
         @Override
         ResolvedBundle resolve() {
-            try (BundleStore store = BundleStore.open(url)) {
+            try (BundleStore store = JdbcStores.open(url)) {
                 String chosen = tag.orElseGet(() -> store.activeVersion(model).map(Version::tag).orElseThrow(
                         () -> new SparkScoringException(SparkScoringException.STORE, this + ": the model has no active version")));
                 LoadedBundle loaded = store.load(model, chosen);
@@ -160,7 +161,7 @@ public abstract sealed class BundleSource permits BundleSource.FileSource, Bundl
 
         private String where() {
             try {
-                return BundleStore.describe(url);
+                return JdbcStores.describe(url);
             } catch (PressmarkException e) {
                 return "a store URL that does not parse (" + e.getMessage() + ")";
             }

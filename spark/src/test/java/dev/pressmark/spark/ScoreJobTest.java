@@ -5,6 +5,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.Prediction;
 import dev.pressmark.store.BundleStore;
+import dev.pressmark.store.jdbc.JdbcStores;
 import dev.pressmark.store.Version;
 import java.io.ByteArrayOutputStream;
 import java.io.PrintStream;
@@ -52,7 +53,7 @@ class ScoreJobTest {
         subwords = TrainedBundles.subwords(dir);
         words = TrainedBundles.wordsWithoutProbabilities(dir);
         storeUrl = "sqlite:" + dir.resolve("store.db");
-        try (BundleStore store = BundleStore.open(storeUrl)) {
+        try (BundleStore store = JdbcStores.open(storeUrl)) {
             v1 = store.publish("routing", "v1", subwords, "test");
             store.publish("routing", "v2", words, "test");
             store.activate("routing", "v2", "test", "the test's active version");
