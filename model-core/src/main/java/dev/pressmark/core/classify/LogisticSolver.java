@@ -49,6 +49,19 @@ public final class LogisticSolver {
      */
     static SolverRun solve(SparseMatrix x, boolean[] positive, double[] cost, LogisticConfig config,
             SplittableRandom random, double[] w, double[] alpha) {
+        return solve(x, positive, cost, config, random, w, alpha, false);
+    }
+
+    /**
+     * Solves one binary problem as {@link #solve(SparseMatrix, boolean[], double[], LogisticConfig,
+     * SplittableRandom, double[], double[])} does, but with {@code warm} set starts from the dual
+     * point that {@code alpha} holds instead of near 0: the warm start along a path of increasing
+     * C of B.-Y. Chu, C.-H. Ho, C.-H. Tsai, C.-Y. Lin and C.-J. Lin, "Warm Start for Parameter
+     * Selection of Linear Classifiers", KDD 2015. The open box {@code (0, C_i)} only grows with C,
+     * so the previous solution is interior; a value outside it (C fell) is pulled just inside.
+     */
+    static SolverRun solve(SparseMatrix x, boolean[] positive, double[] cost, LogisticConfig config,
+            SplittableRandom random, double[] w, double[] alpha, boolean warm) {
         Rows.checkProblem(x, positive, cost, w, alpha);
         int n = x.rows();
         double bias = config.bias();
@@ -56,7 +69,8 @@ public final class LogisticSolver {
         double[] rest = new double[n];
         Arrays.fill(w, 0.0);
         for (int i = 0; i < n; i++) {
-            alpha[i] = Math.min(INITIAL_ALPHA_FRACTION * cost[i], INITIAL_ALPHA_MAX);
+            double start = Math.min(INITIAL_ALPHA_FRACTION * cost[i], INITIAL_ALPHA_MAX);
+            alpha[i] = warm ? interior(alpha[i], cost[i], start) : start;
             rest[i] = cost[i] - alpha[i];
             Rows.add(x, i, positive[i] ? alpha[i] : -alpha[i], bias, w);
         }
@@ -111,6 +125,14 @@ public final class LogisticSolver {
             }
         }
         return new SolverRun(iteration, false);
+    }
+
+    /** {@code a} if it lies inside {@code (0, c)}, else the point {@code edge} away from the bound it crossed. */
+    private static double interior(double a, double c, double edge) {
+        if (!(a > 0.0)) {
+            return edge;
+        }
+        return c - a > 0.0 ? a : c - edge;
     }
 
     /**
