@@ -117,7 +117,7 @@ public record TrainPlan(TrainConfig config, Search search) {
             Candidate same = seen.putIfAbsent(parsed, candidate);
             if (same != null) {
                 throw error(source, gridLine, "search.grid: the candidates " + same.describe() + " and " + candidate.describe()
-                        + " are the same config; a key has no effect with the others' values");
+                        + " are the same config (equal values, or a key that has no effect beside the others)");
             }
             configs.add(parsed);
         }
