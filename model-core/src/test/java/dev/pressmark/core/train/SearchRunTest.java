@@ -166,6 +166,10 @@ class SearchRunTest {
         double chosenC = search.path("candidates").path(chosen).path("settings").path("classifier.c").asDouble();
         assertThat(bundle.manifest().path("provenance").path("config").path("classifier").path("c").asDouble()).isEqualTo(chosenC);
         assertThat(SearchSummary.fromManifest(bundle.manifest())).isEqualTo(result.search().summary());
+
+        String html = dev.pressmark.core.bundle.HtmlReport.render(bundle);
+        assertThat(html).contains("<h2>Model search</h2>", "accuracy against C", "<polyline");
+        assertThat(html.split("<tr class=\"chosen\">", -1)).hasSize(2);
     }
 
     @Test
