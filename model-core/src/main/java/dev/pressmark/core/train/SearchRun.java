@@ -7,6 +7,8 @@ import dev.pressmark.core.evaluate.Fold;
 import dev.pressmark.core.evaluate.FoldSummary;
 import dev.pressmark.core.evaluate.MetricSummary;
 import dev.pressmark.core.evaluate.MetricValues;
+import dev.pressmark.core.bundle.TextPipeline;
+import dev.pressmark.core.feature.FeatureSpace;
 import dev.pressmark.core.feature.SparseMatrix;
 import dev.pressmark.core.search.Pick;
 import dev.pressmark.core.search.SearchSummary;
@@ -24,11 +26,12 @@ import java.util.concurrent.Future;
 /**
  * Scores every candidate of a search by the run's cross-validation, on the training part only.
  *
- * <p>What candidates share is computed once per fold: candidates with the same tokenizer and
- * feature settings share one fitted pipeline (normalisation, tokenization, vocabulary, feature
- * space and both feature matrices), and among those, candidates that differ only in C form a chain
- * solved in increasing C, each fit starting from the previous one's dual solution
- * ({@link WarmStart}). The tasks, one per fold and pipeline setting, run on
+ * <p>What candidates share is computed once per fold: candidates with the same tokenizer settings
+ * share the normalisation, the vocabulary training and the tokens of the fold's rows; among those,
+ * candidates with the same feature settings share the feature space and both feature matrices;
+ * and among those, candidates that differ only in C form a chain solved in increasing C, each fit
+ * starting from the previous one's dual solution ({@link WarmStart}). The tasks, one per fold and
+ * tokenizer setting, run on
  * {@code evaluation.threads}; each fills only its own cells of the result table and draws its
  * randomness from the fold's seed, so the scores are the same at any thread count.
  */
@@ -45,8 +48,12 @@ final class SearchRun {
     record Outcome(SearchSummary summary, List<TrainingRun.FoldResult> chosenFolds) {
     }
 
-    /** Candidates sharing a pipeline, in chains along increasing C. */
-    private record Group(TrainConfig pipeline, List<int[]> chains) {
+    /** Candidates sharing a tokenizer setting, by feature setting. */
+    private record Group(List<FeatureSetting> settings) {
+    }
+
+    /** Candidates sharing a tokenizer and a feature setting ({@code config} is the first of them), in chains along increasing C. */
+    private record FeatureSetting(TrainConfig config, List<int[]> chains) {
     }
 
     private final TrainingRun run;
@@ -112,53 +119,71 @@ final class SearchRun {
         return outcome(results, features);
     }
 
-    /** One fold and one pipeline setting: fit the pipeline once, then every classifier chain on its matrix. */
+    /**
+     * One fold and one tokenizer setting: train the tokenizer and tokenize the fold's rows once,
+     * fit each feature setting on those tokens, then every classifier chain on its matrix.
+     */
     private void runTask(int f, Group group, TrainingRun.FoldResult[][] results, int[][] features, Runnable tick) {
         Fold fold = folds.get(f);
         int[] foldTrain = TrainingRun.select(trainRows, fold.train());
         int[] foldTest = TrainingRun.select(trainRows, fold.test());
-        TrainConfig pipeline = group.pipeline;
-        PipelineFitter.Fitted fitted = new PipelineFitter(pipeline.tokenizer(), pipeline.features(), pipeline.data().text())
+        TrainConfig first = group.settings.get(0).config;
+        List<String> columns = first.data().text();
+        PipelineFitter.Fitted fitted = new PipelineFitter(first.tokenizer(), first.features(), columns)
                 .fit(run.rows(foldTrain), Progress.NONE);
-        SparseMatrix xTest = fitted.pipeline().transform(run.rows(foldTest));
+        List<List<List<String>>> testTokens = TextPipeline.tokenize(fitted.pipeline().tokenizer(), run.rows(foldTest));
         int[] yTrain = TrainingRun.select(trainLabels, fold.train());
         int[] truth = TrainingRun.select(trainLabels, fold.test());
         long seed = run.foldSeed(fold);
-        int featureCount = fitted.pipeline().features().featureCount();
-        for (int[] chain : group.chains) {
-            WarmStart warm = search.settings().warmStart() ? new WarmStart() : null;
-            for (int candidate : chain) {
-                ClassifierConfig classifier = search.configs().get(candidate).classifier();
-                TrainingRun.Trained trained = run.train(classifier, fitted.x(), yTrain, seed, warm);
-                boolean keepValues = fold.repeat() == 0 && classifier.kind() == ClassifierConfig.Kind.LINEAR_SVM
-                        && classifier.hasProbabilities();
-                results[candidate][f] = run.foldResult(fold, trained, xTest, truth, keepValues);
-                features[candidate][f] = featureCount;
-                tick.run();
+        for (FeatureSetting setting : group.settings) {
+            // the same steps as PipelineFitter.fit after tokenization, on the shared tokens
+            FeatureSpace space = setting == group.settings.get(0) ? fitted.pipeline().features()
+                    : FeatureSpace.fit(setting.config.features(), columns, fitted.tokens());
+            SparseMatrix x = setting == group.settings.get(0) ? fitted.x() : space.transform(fitted.tokens());
+            SparseMatrix xTest = space.transform(testTokens);
+            for (int[] chain : setting.chains) {
+                WarmStart warm = search.settings().warmStart() ? new WarmStart() : null;
+                for (int candidate : chain) {
+                    ClassifierConfig classifier = search.configs().get(candidate).classifier();
+                    TrainingRun.Trained trained = run.train(classifier, x, yTrain, seed, warm);
+                    boolean keepValues = fold.repeat() == 0 && classifier.kind() == ClassifierConfig.Kind.LINEAR_SVM
+                            && classifier.hasProbabilities();
+                    results[candidate][f] = run.foldResult(fold, trained, xTest, truth, keepValues);
+                    features[candidate][f] = space.featureCount();
+                    tick.run();
+                }
             }
         }
     }
 
-    /** The candidates grouped by pipeline, in order of first appearance, each group's chains by increasing C. */
+    /**
+     * The candidates grouped by tokenizer setting, then by feature setting, each in order of first
+     * appearance, with chains of classifier settings that differ only in C, by increasing C.
+     */
     private List<Group> groups() {
-        Map<List<Object>, Map<ClassifierConfig, List<Integer>>> byPipeline = new LinkedHashMap<>();
-        Map<List<Object>, TrainConfig> firstOf = new LinkedHashMap<>();
+        Map<Object, Map<Object, Map<ClassifierConfig, List<Integer>>>> tree = new LinkedHashMap<>();
+        Map<Object, TrainConfig> firstOf = new LinkedHashMap<>();
         List<TrainConfig> configs = search.configs();
         for (int i = 0; i < configs.size(); i++) {
             TrainConfig config = configs.get(i);
-            List<Object> key = List.of(config.tokenizer(), config.features());
-            firstOf.putIfAbsent(key, config);
-            byPipeline.computeIfAbsent(key, k -> new LinkedHashMap<>())
+            Object featureKey = List.of(config.tokenizer(), config.features());
+            firstOf.putIfAbsent(featureKey, config);
+            tree.computeIfAbsent(config.tokenizer(), k -> new LinkedHashMap<>())
+                    .computeIfAbsent(featureKey, k -> new LinkedHashMap<>())
                     .computeIfAbsent(withoutC(config.classifier()), k -> new ArrayList<>()).add(i);
         }
         List<Group> groups = new ArrayList<>();
-        byPipeline.forEach((key, chains) -> {
-            List<int[]> ordered = new ArrayList<>();
-            for (List<Integer> chain : chains.values()) {
-                chain.sort(Comparator.comparingDouble((Integer i) -> configs.get(i).classifier().c()).thenComparingInt(i -> i));
-                ordered.add(chain.stream().mapToInt(Integer::intValue).toArray());
-            }
-            groups.add(new Group(firstOf.get(key), ordered));
+        tree.forEach((tokenizer, byFeatures) -> {
+            List<FeatureSetting> settings = new ArrayList<>();
+            byFeatures.forEach((featureKey, chains) -> {
+                List<int[]> ordered = new ArrayList<>();
+                for (List<Integer> chain : chains.values()) {
+                    chain.sort(Comparator.comparingDouble((Integer i) -> configs.get(i).classifier().c()).thenComparingInt(i -> i));
+                    ordered.add(chain.stream().mapToInt(Integer::intValue).toArray());
+                }
+                settings.add(new FeatureSetting(firstOf.get(featureKey), ordered));
+            });
+            groups.add(new Group(settings));
         });
         return groups;
     }

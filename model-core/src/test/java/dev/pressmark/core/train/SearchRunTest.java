@@ -76,6 +76,7 @@ class SearchRunTest {
         "  grid:",
         "    classifier.c: [0.03, 0.3, 3]",
         "    tokenizer.0.vocab_size: [80, 160]",
+        "    features.weighting: [tf, tfidf]",
         "  metric: balanced_accuracy",
         "  warm_start: false",
     };
@@ -87,8 +88,8 @@ class SearchRunTest {
         TrainingRun.Result searched = new TrainingRun(plan, data(plan.config())).run(Progress.NONE);
 
         SearchSummary summary = searched.search().summary();
-        assertThat(summary.candidates()).hasSize(6);
-        for (int i = 0; i < 6; i++) {
+        assertThat(summary.candidates()).hasSize(12);
+        for (int i = 0; i < 12; i++) {
             TrainConfig candidate = plan.search().configs().get(i);
             TrainingRun.Result plain = new TrainingRun(candidate, data(candidate)).run(Progress.NONE);
             MetricSummary expected = plain.cv().get(Metric.BALANCED_ACCURACY);
