@@ -49,19 +49,20 @@ public final class LogisticSolver {
      */
     static SolverRun solve(SparseMatrix x, boolean[] positive, double[] cost, LogisticConfig config,
             SplittableRandom random, double[] w, double[] alpha) {
-        return solve(x, positive, cost, config, random, w, alpha, false);
+        return solve(x, positive, cost, config, random, w, alpha, 0.0);
     }
 
     /**
      * Solves one binary problem as {@link #solve(SparseMatrix, boolean[], double[], LogisticConfig,
-     * SplittableRandom, double[], double[])} does, but with {@code warm} set starts from the dual
-     * point that {@code alpha} holds instead of near 0: the warm start along a path of increasing
-     * C of B.-Y. Chu, C.-H. Ho, C.-H. Tsai, C.-Y. Lin and C.-J. Lin, "Warm Start for Parameter
-     * Selection of Linear Classifiers", KDD 2015. The open box {@code (0, C_i)} only grows with C,
-     * so the previous solution is interior; a value outside it (C fell) is pulled just inside.
+     * SplittableRandom, double[], double[])} does, but with {@code warmScale > 0} starts from the
+     * dual point that {@code alpha} holds times {@code warmScale} instead of near 0, as
+     * {@link SvmSolver#solve(SparseMatrix, boolean[], double[], SvmConfig, SplittableRandom,
+     * double[], double[], double)} does (Chu et al., KDD 2015). With the scale the ratio of the new
+     * C to the old, a point inside the previous open box {@code (0, C_i)} lands inside the new
+     * one; a value outside it is pulled just inside.
      */
     static SolverRun solve(SparseMatrix x, boolean[] positive, double[] cost, LogisticConfig config,
-            SplittableRandom random, double[] w, double[] alpha, boolean warm) {
+            SplittableRandom random, double[] w, double[] alpha, double warmScale) {
         Rows.checkProblem(x, positive, cost, w, alpha);
         int n = x.rows();
         double bias = config.bias();
@@ -70,7 +71,7 @@ public final class LogisticSolver {
         Arrays.fill(w, 0.0);
         for (int i = 0; i < n; i++) {
             double start = Math.min(INITIAL_ALPHA_FRACTION * cost[i], INITIAL_ALPHA_MAX);
-            alpha[i] = warm ? interior(alpha[i], cost[i], start) : start;
+            alpha[i] = warmScale > 0.0 ? interior(alpha[i] * warmScale, cost[i], start) : start;
             rest[i] = cost[i] - alpha[i];
             Rows.add(x, i, positive[i] ? alpha[i] : -alpha[i], bias, w);
         }

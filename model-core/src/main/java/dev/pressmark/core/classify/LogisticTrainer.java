@@ -47,6 +47,9 @@ public final class LogisticTrainer implements Trainer<LogisticModel> {
         List<SolverRun> runs = new ArrayList<>();
         double[][] w = solve(x, labels, OneVsRest.positiveClasses(numClasses),
                 OneVsRest.costs(labels, config.c(), classWeights.resolve(labels, numClasses)), seed, runs, warm);
+        if (warm != null) {
+            warm.solvedAt(config.c());
+        }
         return new LogisticModel(LinearWeights.own(numClasses, x.columns(), config.bias(), w), config,
                 classWeights, seed, new Convergence(runs));
     }
@@ -63,9 +66,9 @@ public final class LogisticTrainer implements Trainer<LogisticModel> {
         int[] problem = {0};
         return OneVsRest.solve(x, labels, positiveClasses, cost, seed, (positive, costs, random, w) -> {
             int k = problem[0]++;
-            boolean started = warm != null && warm.has(k, x.rows());
+            double scale = warm != null && warm.has(k, x.rows()) ? warm.scaleTo(config.c()) : 0.0;
             double[] alpha = warm == null ? shared : warm.alpha(k, x.rows());
-            return LogisticSolver.solve(x, positive, costs, config, random, w, alpha, started);
+            return LogisticSolver.solve(x, positive, costs, config, random, w, alpha, scale);
         }, runs);
     }
 }

@@ -12,6 +12,17 @@ public final class WarmStart {
 
     private final List<double[]> alphas = new ArrayList<>();
     private int rows = -1;
+    private double c = Double.NaN;
+
+    /** The scale for the duals left by the previous fit, for a fit at {@code newC}: {@code newC / c}. */
+    double scaleTo(double newC) {
+        return Double.isNaN(c) ? 0.0 : newC / c;
+    }
+
+    /** Records that the duals now held are the solutions at {@code c}. */
+    void solvedAt(double newC) {
+        c = newC;
+    }
 
     /** Whether binary problem {@code problem} has a solution on {@code rows} rows to start from. */
     boolean has(int problem, int rows) {

@@ -29,7 +29,9 @@ class WarmStartPropertiesTest {
     @Property(tries = 100)
     void a_warm_started_svm_reaches_the_cold_start_objective_at_every_c(@ForAll long seed,
             @ForAll @DoubleRange(min = 0.01, max = 2.0) double firstC, @ForAll @IntRange(min = 2, max = 5) int steps,
-            @ForAll @DoubleRange(min = 1.2, max = 5.0) double factor) {
+            @ForAll @DoubleRange(min = 1.2, max = 5.0) double factor,
+            @ForAll @DoubleRange(min = 0.2, max = 5.0) double scaleError) {
+        // any positive start scale, not only the ratio of the Cs, must reach the optimum (clipped into the box)
         Problem problem = Problem.draw(seed);
         for (SvmLoss loss : SvmLoss.values()) {
             SvmConfig config = SvmConfig.defaults().withLoss(loss).withTolerance(TOLERANCE).withMaxIterations(PLENTY);
@@ -39,7 +41,7 @@ class WarmStartPropertiesTest {
                 double[] cost = problem.costs(c);
                 double[] warm = new double[problem.x.columns() + 1];
                 SolverRun warmRun = SvmSolver.solve(problem.x, problem.positive, cost, config, new SplittableRandom(seed),
-                        warm, alpha, step > 0);
+                        warm, alpha, step > 0 ? factor * scaleError : 0.0);
                 double[] cold = new double[problem.x.columns() + 1];
                 SolverRun coldRun = SvmSolver.solve(problem.x, problem.positive, cost, config, new SplittableRandom(seed),
                         cold, new double[problem.x.rows()]);
@@ -55,7 +57,8 @@ class WarmStartPropertiesTest {
     @Property(tries = 100)
     void a_warm_started_logistic_regression_reaches_the_cold_start_objective_at_every_c(@ForAll long seed,
             @ForAll @DoubleRange(min = 0.01, max = 2.0) double firstC, @ForAll @IntRange(min = 2, max = 5) int steps,
-            @ForAll @DoubleRange(min = 1.2, max = 5.0) double factor) {
+            @ForAll @DoubleRange(min = 1.2, max = 5.0) double factor,
+            @ForAll @DoubleRange(min = 0.2, max = 5.0) double scaleError) {
         Problem problem = Problem.draw(seed);
         LogisticConfig config = LogisticConfig.defaults().withTolerance(TOLERANCE).withMaxIterations(PLENTY);
         double[] alpha = new double[problem.x.rows()];
@@ -63,7 +66,8 @@ class WarmStartPropertiesTest {
         for (int step = 0; step < steps; step++, c *= factor) {
             double[] cost = problem.costs(c);
             double[] warm = new double[problem.x.columns() + 1];
-            LogisticSolver.solve(problem.x, problem.positive, cost, config, new SplittableRandom(seed), warm, alpha, step > 0);
+            LogisticSolver.solve(problem.x, problem.positive, cost, config, new SplittableRandom(seed), warm, alpha,
+                    step > 0 ? factor * scaleError : 0.0);
             for (int i = 0; i < alpha.length; i++) {
                 assertThat(alpha[i]).isGreaterThan(0.0).isLessThan(cost[i]);
             }
