@@ -46,6 +46,12 @@ import org.openjdk.jmh.annotations.Warmup;
  *
  * <pre>scripts/fetch-names.sh
  * mvn -q -B -pl model-core -Pbench test-compile exec:exec -Djmh.args="SearchCostBenchmark"</pre>
+ *
+ * On a machine shared with other work, wall times swing by 2x from one minute to the next; {@link
+ * #main} runs the four modes in turn for several rounds and reports the medians of both the wall
+ * time and the CPU time the JVM spent, which other processes' load hardly changes:
+ *
+ * <pre>mvn -q -B -pl model-core -Pbench test-compile exec:java -Dexec.classpathScope=test  *   -Dexec.mainClass=dev.pressmark.core.bench.SearchCostBenchmark -Dexec.args="3"</pre>
  */
 @BenchmarkMode(Mode.SingleShotTime)
 @OutputTimeUnit(TimeUnit.MILLISECONDS)
@@ -103,6 +109,51 @@ public class SearchCostBenchmark {
             return results;
         }
         return new TrainingRun(run.plan, run.data).run(Progress.NONE);
+    }
+
+    /** Runs every mode in turn, {@code args[0]} rounds (default 3), and prints medians and ratios as a Markdown table. */
+    public static void main(String[] args) {
+        int rounds = args.length > 0 ? Integer.parseInt(args[0]) : 3;
+        String[] modes = {"plain", "search", "search-cold", "separate"};
+        java.lang.management.OperatingSystemMXBean os = java.lang.management.ManagementFactory.getOperatingSystemMXBean();
+        com.sun.management.OperatingSystemMXBean process = (com.sun.management.OperatingSystemMXBean) os;
+        Run[] runs = new Run[modes.length];
+        for (int m = 0; m < modes.length; m++) {
+            runs[m] = new Run();
+            runs[m].mode = modes[m];
+            runs[m].setUp();
+        }
+        SearchCostBenchmark benchmark = new SearchCostBenchmark();
+        benchmark.train(runs[0]); // warm-up: JIT and the first allocation of the heap
+        benchmark.train(runs[1]);
+        double[][] wall = new double[modes.length][rounds];
+        double[][] cpu = new double[modes.length][rounds];
+        for (int r = 0; r < rounds; r++) {
+            for (int m = 0; m < modes.length; m++) {
+                System.gc();
+                long cpuStart = process.getProcessCpuTime();
+                long start = System.nanoTime();
+                benchmark.train(runs[m]);
+                wall[m][r] = (System.nanoTime() - start) / 1e9;
+                cpu[m][r] = (process.getProcessCpuTime() - cpuStart) / 1e9;
+                System.err.printf(java.util.Locale.ROOT, "round %d %s: wall %.2f s, cpu %.2f s%n", r + 1, modes[m], wall[m][r], cpu[m][r]);
+            }
+        }
+        System.out.println("| mode | wall s (median) | CPU s (median) | wall / plain | CPU / plain |");
+        System.out.println("|---|---|---|---|---|");
+        double plainWall = median(wall[0]);
+        double plainCpu = median(cpu[0]);
+        for (int m = 0; m < modes.length; m++) {
+            System.out.printf(java.util.Locale.ROOT, "| %s | %.2f | %.2f | %.2f | %.2f |%n", modes[m], median(wall[m]), median(cpu[m]),
+                    median(wall[m]) / plainWall, median(cpu[m]) / plainCpu);
+        }
+    }
+
+    private static double median(double[] values) {
+        double[] sorted = values.clone();
+        java.util.Arrays.sort(sorted);
+        int n = sorted.length;
+        return n % 2 == 1 ? sorted[n / 2] : (sorted[n / 2 - 1] + sorted[n / 2]) / 2;
     }
 
     /** {@code rows} texts of two given names each, labelled by the list of the first. */
