@@ -63,8 +63,8 @@ public final class Descriptors {
                 if (!features.column(j).equals(field)) {
                     continue;
                 }
-                String token = features.token(j);
-                if (token.isEmpty() || token.startsWith("[")) {
+                String token = bundle.pipeline().exampleText(features.token(j));
+                if (token == null || token.isEmpty() || token.startsWith("[")) {
                     continue;
                 }
                 if (token.startsWith(CONTINUATION)) {

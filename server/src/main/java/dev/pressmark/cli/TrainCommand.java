@@ -40,6 +40,10 @@ final class TrainCommand implements Callable<Integer> {
     @Option(names = "--out", paramLabel = "FILE", description = "The bundle to write (default: <name>.pmb beside the config).")
     Path out;
 
+    @Option(names = "--test-data", paramLabel = "FILE", description = "Test on the rows of this labelled CSV (same "
+            + "columns as the data) instead of holding out split.test_fraction; every data row then trains.")
+    Path testData;
+
     @Override
     public Integer call() throws IOException {
         TrainPlan plan = TrainPlan.read(config);
@@ -49,12 +53,12 @@ final class TrainCommand implements Callable<Integer> {
                 trainConfig.data().dropIncomplete());
         System.err.printf(Locale.ROOT, "pressmark: %s: %,d rows%s%n", dataFile, data.rows(),
                 data.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", data.droppedRows()) : "");
-        TrainingRun run = new TrainingRun(plan, data);
+        TrainingRun run = testData == null ? new TrainingRun(plan, data) : withTestData(plan, data);
         if (run.positiveClass() >= 0) {
             System.err.println("pressmark: positive class for binary metrics: " + run.labels().get(run.positiveClass()));
         }
         TrainingRun.Result result = run.run(new ConsoleProgress(System.err));
-        byte[] bundle = BundleAssembler.assemble(trainConfig, data, result, created(dataFile));
+        byte[] bundle = BundleAssembler.assemble(trainConfig, run.data(), result, created(dataFile));
         Path target = out != null ? out : config.toAbsolutePath().getParent().resolve(trainConfig.name() + ".pmb");
         Path report = target.resolveSibling(target.getFileName() + ".html");
         String html = HtmlReport.render(Bundle.read(bundle));
@@ -67,6 +71,15 @@ final class TrainCommand implements Callable<Integer> {
         printSummary(result);
         System.err.println("pressmark: wrote " + target + " and " + report);
         return Main.EXIT_OK;
+    }
+
+    private TrainingRun withTestData(TrainPlan plan, LabelledData data) {
+        TrainConfig trainConfig = plan.config();
+        LabelledData test = LabelledData.read(testData, trainConfig.data().text(), trainConfig.data().label(),
+                trainConfig.data().dropIncomplete());
+        System.err.printf(Locale.ROOT, "pressmark: %s: %,d test rows%s%n", testData, test.rows(),
+                test.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", test.droppedRows()) : "");
+        return TrainingRun.withTestData(plan, data, test);
     }
 
     private static Instant created(Path dataFile) throws IOException {

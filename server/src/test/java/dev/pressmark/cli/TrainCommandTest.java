@@ -2,6 +2,8 @@ package dev.pressmark.cli;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.demo.ListingTitles;
 import java.io.IOException;
 import java.nio.file.Files;
@@ -11,6 +13,8 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 class TrainCommandTest {
+
+    private static final ObjectMapper JSON = new ObjectMapper();
 
     @TempDir
     Path dir;
@@ -80,6 +84,31 @@ class TrainCommandTest {
         CommandRun run = CommandRun.run(dir, "train", "--config", "bad.yaml");
         assertThat(run.exitCode()).isEqualTo(1);
         assertThat(run.err()).startsWith("pressmark: bad.yaml: line 4: search.grid.classifier.cee = 1: unknown key \"classifier.cee\"");
+    void with_test_data_every_data_row_trains_and_the_test_file_is_what_was_tested() throws IOException {
+        StringBuilder held = new StringBuilder("title,department\n");
+        for (ListingTitles.Listing listing : ListingTitles.generate(300, 11)) {
+            held.append('"').append(listing.title().replace("\"", "\"\"")).append("\",").append(listing.department()).append('\n');
+        }
+        Files.writeString(dir.resolve("held-out.csv"), held);
+        CommandRun run = CommandRun.run(dir, "train", "--config", "train.yaml", "--test-data", "held-out.csv", "--out", "t.pmb");
+        assertThat(run.exitCode()).as(run.err()).isZero();
+        assertThat(run.err()).contains("held-out.csv: 300 test rows");
+        JsonNode manifest = JSON.readTree(CommandRun.run(dir, "inspect", "t.pmb", "--json").out());
+        assertThat(manifest.path("training").path("train_rows").asInt()).isEqualTo(1200);
+        assertThat(manifest.path("training").path("test_rows").asInt()).isEqualTo(300);
+        // The evaluate command scores the finished bundle on the file on its own: the same rows
+        // must give the same accuracy as the run's test part.
+        JsonNode evaluated = JSON.readTree(CommandRun.run(dir, "evaluate", "t.pmb", "--data", "held-out.csv", "--json").out());
+        assertThat(manifest.path("metrics").path("test").path("accuracy").asDouble())
+                .isEqualTo(evaluated.path("metrics").path("accuracy").asDouble());
+    }
+
+    @Test
+    void a_test_file_without_the_label_column_is_refused_by_name_and_nothing_is_written() throws IOException {
+        Files.writeString(dir.resolve("held-out.csv"), "title,dept\nAquaward valve,plumbing\n");
+        CommandRun run = CommandRun.run(dir, "train", "--config", "train.yaml", "--test-data", "held-out.csv");
+        assertThat(run.exitCode()).isEqualTo(1);
+        assertThat(run.err()).contains("pressmark: held-out.csv: line 1: no column \"department\"");
         assertThat(dir.resolve("routing.pmb")).doesNotExist();
     }
 

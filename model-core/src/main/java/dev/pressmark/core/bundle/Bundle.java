@@ -13,6 +13,7 @@ import dev.pressmark.core.feature.SparseMatrix;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Comparator;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -42,6 +43,7 @@ public final class Bundle {
     private final ModelWeights model;
     private final LinearClassifier classifier;
     private final JsonNode profile;
+    private final ThreadLocal<Scratch> scratch;
 
     private Bundle(JsonNode manifest, List<String> labels, TextPipeline pipeline, ModelWeights model, JsonNode profile) {
         this.manifest = manifest;
@@ -51,6 +53,7 @@ public final class Bundle {
         this.model = model;
         this.classifier = model.classifier();
         this.profile = profile;
+        this.scratch = ThreadLocal.withInitial(() -> new Scratch(pipeline));
     }
 
     /**
@@ -71,11 +74,12 @@ public final class Bundle {
             sigmoids.addObject().put("a", scaling.a()).put("b", scaling.b());
         }
         Map<String, byte[]> entries = new LinkedHashMap<>();
-        entries.put(BundleArchive.TOKENIZER, CanonicalJson.bytes(JSON.valueToTree(pipeline.spec())));
+        entries.put(BundleArchive.TOKENIZER, CanonicalJson.bytes(TokenizerViews.toJson(pipeline.views())));
         entries.put(BundleArchive.FEATURES, CanonicalJson.bytes(JSON.valueToTree(pipeline.features().toState())));
         entries.put(BundleArchive.WEIGHTS, WeightsCodec.write(model.weights()));
         entries.put(BundleArchive.PROFILE, CanonicalJson.bytes(profile));
-        return BundleArchive.toBytes(full, entries);
+        return BundleArchive.toBytes(full, entries,
+                pipeline.fitsFormat1() ? BundleArchive.FORMAT_VERSION_1 : BundleArchive.FORMAT_VERSION);
     }
 
     public static Bundle read(Path file) {
@@ -91,7 +95,7 @@ public final class Bundle {
         JsonNode manifest = contents.manifest();
         try {
             List<String> labels = strings(manifest.path(LABELS));
-            TokenizerSpec spec = JSON.readValue(contents.entry(BundleArchive.TOKENIZER), TokenizerSpec.class);
+            List<TokenizerSpec> views = TokenizerViews.read(contents.entry(BundleArchive.TOKENIZER));
             FeatureSpace features = FeatureSpace.fromState(JSON.readValue(contents.entry(BundleArchive.FEATURES), FeatureSpace.State.class));
             LinearWeights weights = WeightsCodec.read(contents.entry(BundleArchive.WEIGHTS));
             JsonNode classifierNode = manifest.path(CLASSIFIER);
@@ -107,7 +111,12 @@ public final class Bundle {
                 throw new IllegalArgumentException(features.featureCount() + " features but weights for " + weights.numFeatures());
             }
             JsonNode profile = JSON.readTree(contents.entry(BundleArchive.PROFILE));
-            return new Bundle(manifest, labels, new TextPipeline(spec, spec.tokenizer(), features), model, profile);
+            TextPipeline pipeline = new TextPipeline(views, TextPipeline.tokenizer(views), features);
+            if (contents.formatVersion() == BundleArchive.FORMAT_VERSION_1 && !pipeline.fitsFormat1()) {
+                throw new IllegalArgumentException("its tokenizer or features need bundle format "
+                        + BundleArchive.FORMAT_VERSION + ", but the manifest says " + BundleArchive.FORMAT_VERSION_1);
+            }
+            return new Bundle(manifest, labels, pipeline, model, profile);
         } catch (IOException | IllegalArgumentException e) {
             throw new BundleException(BundleException.CORRUPT, source + ": not a usable model: " + e.getMessage(), e);
         }
@@ -182,14 +191,36 @@ public final class Bundle {
     public List<Prediction> predict(List<Map<String, String>> items, int maxTokensPerField) {
         requirePositive(maxTokensPerField);
         List<String[]> rows = rows(items);
-        List<List<List<String>>> tokens = TextPipeline.tokenize(pipeline.tokenizer(), rows);
-        int[] cut = cut(tokens, maxTokensPerField);
-        SparseMatrix x = pipeline.features().transform(tokens);
+        Scratch scratch = this.scratch.get();
+        SparseMatrix.Builder builder = SparseMatrix.builder(pipeline.features().featureCount());
+        int[] unknown = new int[rows.size()];
+        int[] cut = new int[rows.size()];
+        for (int i = 0; i < rows.size(); i++) {
+            int length = scratch.encoder.encode(rows.get(i), maxTokensPerField, scratch.cols, scratch.vals);
+            builder.addRow(Arrays.copyOf(scratch.cols, length), Arrays.copyOf(scratch.vals, length));
+            unknown[i] = scratch.encoder.unknownTokens();
+            cut[i] = scratch.encoder.droppedTokens();
+        }
+        SparseMatrix x = builder.build();
         List<Prediction> predictions = new ArrayList<>(rows.size());
         for (int i = 0; i < rows.size(); i++) {
-            predictions.add(prediction(x, i, pipeline.unknownTokens(tokens.get(i)), cut[i]));
+            predictions.add(prediction(x, i, unknown[i], cut[i]));
         }
         return predictions;
+    }
+
+    /** One thread's encoder and row buffers, so that a request allocates nothing the size of the feature space. */
+    private static final class Scratch {
+
+        private final RowEncoder encoder;
+        private final int[] cols;
+        private final double[] vals;
+
+        Scratch(TextPipeline pipeline) {
+            this.encoder = pipeline.rowEncoder();
+            this.cols = new int[pipeline.features().featureCount()];
+            this.vals = new double[pipeline.features().featureCount()];
+        }
     }
 
     /**
@@ -198,22 +229,6 @@ public final class Bundle {
      */
     public List<List<List<String>>> tokenize(List<Map<String, String>> items) {
         return TextPipeline.tokenize(pipeline.tokenizer(), rows(items));
-    }
-
-    /** Cuts every field of every row to {@code max} tokens in place; returns the tokens dropped per row. */
-    private static int[] cut(List<List<List<String>>> tokens, int max) {
-        int[] dropped = new int[tokens.size()];
-        for (int i = 0; i < tokens.size(); i++) {
-            List<List<String>> row = tokens.get(i);
-            for (int c = 0; c < row.size(); c++) {
-                List<String> field = row.get(c);
-                if (field.size() > max) {
-                    dropped[i] += field.size() - max;
-                    row.set(c, field.subList(0, max));
-                }
-            }
-        }
-        return dropped;
     }
 
     private static void requirePositive(int maxTokensPerField) {
@@ -238,8 +253,9 @@ public final class Bundle {
         }
         requirePositive(maxTokensPerField);
         List<String[]> rows = rows(List.of(item));
-        List<List<List<String>>> tokens = TextPipeline.tokenize(pipeline.tokenizer(), rows);
-        int[] cut = cut(tokens, maxTokensPerField);
+        TextPipeline.Tokens cutTokens = TextPipeline.tokenize(pipeline.tokenizer(), rows, maxTokensPerField);
+        List<List<List<String>>> tokens = cutTokens.rows();
+        int[] cut = cutTokens.dropped();
         SparseMatrix x = pipeline.features().transform(tokens);
         Prediction prediction = prediction(x, 0, pipeline.unknownTokens(tokens.get(0)), cut[0]);
         LinearWeights weights = model.weights();

@@ -41,8 +41,15 @@ import java.util.zip.ZipOutputStream;
  */
 public final class BundleArchive {
 
-    /** The format version this program writes and the only one it reads. */
-    public static final int FORMAT_VERSION = 1;
+    /**
+     * The newest format version this program writes and reads. Format 2 adds tokenizers of several
+     * views, character and token n-grams and the feature settings {@code min_df} and
+     * {@code sublinear}; a model that uses none of them is written as format 1, byte for byte as
+     * before, so that older readers still load it.
+     */
+    public static final int FORMAT_VERSION = 2;
+    /** The first format; what a bundle that needs nothing newer is written as. */
+    public static final int FORMAT_VERSION_1 = 1;
     public static final String FORMAT_VERSION_FIELD = "format_version";
     public static final String ENTRIES_FIELD = "entries";
     public static final String MANIFEST = "manifest.json";
@@ -71,7 +78,17 @@ public final class BundleArchive {
      * does not matter. The stream is not closed.
      */
     public static void write(ObjectNode manifest, Map<String, byte[]> entries, OutputStream out) throws IOException {
-        ObjectNode full = completeManifest(manifest, entries);
+        write(manifest, entries, FORMAT_VERSION_1, out);
+    }
+
+    /** {@link #write(ObjectNode, Map, OutputStream)} under the given format version. */
+    public static void write(ObjectNode manifest, Map<String, byte[]> entries, int formatVersion, OutputStream out)
+            throws IOException {
+        if (formatVersion != FORMAT_VERSION_1 && formatVersion != FORMAT_VERSION) {
+            throw new IllegalArgumentException("formatVersion must be " + FORMAT_VERSION_1 + " or " + FORMAT_VERSION
+                    + ", was " + formatVersion);
+        }
+        ObjectNode full = completeManifest(manifest, entries, formatVersion);
         try (ZipOutputStream zip = new ZipOutputStream(new KeepOpen(out))) {
             zip.setMethod(ZipOutputStream.STORED);
             put(zip, MANIFEST, CanonicalJson.bytes(full));
@@ -81,11 +98,16 @@ public final class BundleArchive {
         }
     }
 
-    /** {@link #write} into a new array. */
+    /** {@link #write} into a new array, as format 1. */
     public static byte[] toBytes(ObjectNode manifest, Map<String, byte[]> entries) {
+        return toBytes(manifest, entries, FORMAT_VERSION_1);
+    }
+
+    /** {@link #write} into a new array, under the given format version. */
+    public static byte[] toBytes(ObjectNode manifest, Map<String, byte[]> entries, int formatVersion) {
         ByteArrayOutputStream out = new ByteArrayOutputStream();
         try {
-            write(manifest, entries, out);
+            write(manifest, entries, formatVersion, out);
         } catch (IOException e) {
             throw new UncheckedIOException("a byte array stream failed", e);
         }
@@ -228,9 +250,9 @@ public final class BundleArchive {
         if (version == null || !version.isIntegralNumber()) {
             throw new BundleException(BundleException.MANIFEST, MANIFEST + " has no integer " + FORMAT_VERSION_FIELD);
         }
-        if (!version.canConvertToInt() || version.intValue() != FORMAT_VERSION) {
+        if (!version.canConvertToInt() || version.intValue() != FORMAT_VERSION && version.intValue() != FORMAT_VERSION_1) {
             throw new BundleException(BundleException.FORMAT_VERSION, "unsupported bundle format version " + version.asText()
-                    + "; this program reads " + FORMAT_VERSION);
+                    + "; this program reads " + FORMAT_VERSION_1 + " and " + FORMAT_VERSION);
         }
         return manifest;
     }
@@ -257,7 +279,7 @@ public final class BundleArchive {
         return listed;
     }
 
-    private static ObjectNode completeManifest(ObjectNode manifest, Map<String, byte[]> entries) {
+    private static ObjectNode completeManifest(ObjectNode manifest, Map<String, byte[]> entries, int formatVersion) {
         if (manifest.has(FORMAT_VERSION_FIELD) || manifest.has(ENTRIES_FIELD)) {
             throw new IllegalArgumentException("the manifest must not set " + FORMAT_VERSION_FIELD + " or " + ENTRIES_FIELD
                     + "; the archive writes them");
@@ -269,7 +291,7 @@ public final class BundleArchive {
             }
         }
         ObjectNode full = manifest.deepCopy();
-        full.put(FORMAT_VERSION_FIELD, FORMAT_VERSION);
+        full.put(FORMAT_VERSION_FIELD, formatVersion);
         ObjectNode listed = full.putObject(ENTRIES_FIELD);
         for (String name : required) {
             byte[] data = entries.get(name);

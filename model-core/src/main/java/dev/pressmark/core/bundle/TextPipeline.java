@@ -2,27 +2,111 @@ package dev.pressmark.core.bundle;
 
 import dev.pressmark.core.feature.FeatureSpace;
 import dev.pressmark.core.feature.SparseMatrix;
+import dev.pressmark.core.tokenize.CharNgramTokenizer;
 import dev.pressmark.core.tokenize.Tokenizer;
+import dev.pressmark.core.tokenize.ViewsTokenizer;
 import dev.pressmark.core.tokenize.WordPieceVocabulary;
+import dev.pressmark.core.feature.SpanIndex;
 import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.Map;
 import java.util.List;
 import java.util.Objects;
 
 /**
- * The frozen preprocessing of a model: a tokenizer shared by every text column and the fitted
- * feature space. Training builds one per fold and one for the final model; serving rebuilds the
- * final one from the bundle, so both apply exactly the same steps. Immutable and thread-safe.
- *
- * @param spec how the tokenizer was made, as the bundle stores it
- * @param tokenizer the tokenizer {@code spec} describes
- * @param features the fitted feature space; its columns are the model's input fields
+ * The frozen preprocessing of a model: one or more views of every text column (each a tokenizer)
+ * and the fitted feature space over their tokens. Training builds one per fold and one for the
+ * final model; serving rebuilds the final one from the bundle, so both apply exactly the same
+ * steps. With several views, every token carries its view's tag ({@link ViewsTokenizer}). Immutable
+ * and thread-safe; a {@link RowEncoder} is not, so each thread takes its own.
  */
-public record TextPipeline(TokenizerSpec spec, Tokenizer tokenizer, FeatureSpace features) {
+public final class TextPipeline {
 
-    public TextPipeline {
-        Objects.requireNonNull(spec, "spec");
-        Objects.requireNonNull(tokenizer, "tokenizer");
-        Objects.requireNonNull(features, "features");
+    private final List<TokenizerSpec> views;
+    private final Tokenizer tokenizer;
+    private final FeatureSpace features;
+    /** Per text column and view, the features of that view's tokens; built on first use. */
+    private volatile SpanIndex[][] spanIndex;
+
+    public TextPipeline(List<TokenizerSpec> views, Tokenizer tokenizer, FeatureSpace features) {
+        this.views = List.copyOf(views);
+        if (this.views.isEmpty()) {
+            throw new IllegalArgumentException("a text pipeline needs at least one view");
+        }
+        this.tokenizer = Objects.requireNonNull(tokenizer, "tokenizer");
+        this.features = Objects.requireNonNull(features, "features");
+    }
+
+    public List<TokenizerSpec> views() {
+        return views;
+    }
+
+    public Tokenizer tokenizer() {
+        return tokenizer;
+    }
+
+    public FeatureSpace features() {
+        return features;
+    }
+
+    /** A new encoder of rows of text straight into feature rows; for one thread at a time. */
+    public RowEncoder rowEncoder() {
+        SpanIndex[][] index = spanIndex;
+        if (index == null) {
+            index = buildSpanIndex();
+            spanIndex = index;
+        }
+        List<Tokenizer> viewTokenizers = tokenizer instanceof ViewsTokenizer tagged ? tagged.views() : List.of(tokenizer);
+        boolean[] wordPiece = new boolean[views.size()];
+        for (int v = 0; v < wordPiece.length; v++) {
+            wordPiece[v] = views.get(v).isWordPiece();
+        }
+        return new RowEncoder(features.encoder(), viewTokenizers, index, wordPiece);
+    }
+
+    private SpanIndex[][] buildSpanIndex() {
+        ViewsTokenizer tagged = tokenizer instanceof ViewsTokenizer v ? v : null;
+        SpanIndex[][] index = new SpanIndex[features.columns().size()][views.size()];
+        for (int c = 0; c < index.length; c++) {
+            List<Map<String, Integer>> byView = new ArrayList<>();
+            for (int v = 0; v < views.size(); v++) {
+                byView.add(new HashMap<>());
+            }
+            for (Map.Entry<String, Integer> entry : features.tokensOf(c).entrySet()) {
+                String token = entry.getKey();
+                int view = tagged == null ? 0 : tagged.viewOf(token);
+                if (view >= 0) {
+                    String raw = tagged == null ? token : token.substring(tagged.tags().get(view).length() + 1);
+                    byView.get(view).put(raw, entry.getValue());
+                }
+            }
+            for (int v = 0; v < views.size(); v++) {
+                index[c][v] = new SpanIndex(byView.get(v));
+            }
+        }
+        return index;
+    }
+
+    /** A pipeline of one view. */
+    public TextPipeline(TokenizerSpec spec, Tokenizer tokenizer, FeatureSpace features) {
+        this(List.of(spec), tokenizer, features);
+    }
+
+    /** The tokenizer of these views, already built one by one: the view itself, or all of them tagged. */
+    public static Tokenizer combine(List<TokenizerSpec> views, List<Tokenizer> built) {
+        if (views.size() == 1) {
+            return built.get(0);
+        }
+        List<String> names = new ArrayList<>(views.size());
+        views.forEach(view -> names.add(view.shortName()));
+        return new ViewsTokenizer(built, ViewsTokenizer.tags(names));
+    }
+
+    /** The tokenizer of these views, built from their specs. */
+    public static Tokenizer tokenizer(List<TokenizerSpec> views) {
+        List<Tokenizer> built = new ArrayList<>(views.size());
+        views.forEach(view -> built.add(view.tokenizer()));
+        return combine(views, built);
     }
 
     /** The text columns, in the order rows list them. */
@@ -30,17 +114,39 @@ public record TextPipeline(TokenizerSpec spec, Tokenizer tokenizer, FeatureSpace
         return features.columns();
     }
 
+    /** True when a bundle of format 1 can hold this pipeline. */
+    public boolean fitsFormat1() {
+        return views.size() == 1 && views.get(0).fitsFormat1() && features.fitsFormat1();
+    }
+
     /** The tokens of each column of each row. */
     public static List<List<List<String>>> tokenize(Tokenizer tokenizer, List<String[]> rows) {
+        return tokenize(tokenizer, rows, Integer.MAX_VALUE).rows();
+    }
+
+    /**
+     * The tokens of rows with each field cut to its first {@code maxTokensPerField} tokens (of each
+     * view), and how many were cut from each row.
+     */
+    public record Tokens(List<List<List<String>>> rows, int[] dropped) {
+    }
+
+    /** The tokens of each column of each row, each field of each view cut to {@code maxTokensPerField}. */
+    public static Tokens tokenize(Tokenizer tokenizer, List<String[]> rows, int maxTokensPerField) {
         List<List<List<String>>> tokens = new ArrayList<>(rows.size());
-        for (String[] row : rows) {
+        int[] dropped = new int[rows.size()];
+        int[] count = new int[1];
+        for (int i = 0; i < rows.size(); i++) {
+            String[] row = rows.get(i);
             List<List<String>> columns = new ArrayList<>(row.length);
+            count[0] = 0;
             for (String text : row) {
-                columns.add(tokenizer.tokenize(text == null ? "" : text));
+                columns.add(tokenizer.tokenize(text == null ? "" : text, maxTokensPerField, count));
             }
+            dropped[i] = count[0];
             tokens.add(columns);
         }
-        return tokens;
+        return new Tokens(tokens, dropped);
     }
 
     /** The feature rows of {@code rows}, each with one text per column. */
@@ -49,20 +155,61 @@ public record TextPipeline(TokenizerSpec spec, Tokenizer tokenizer, FeatureSpace
     }
 
     /**
-     * How many tokens of a tokenized row the model cannot use: {@code [UNK]} pieces for WordPiece,
-     * words that are not features for whole words.
+     * How many tokens of a tokenized row the model cannot use: {@code [UNK]} pieces of a WordPiece
+     * view, tokens of the other views that are not features.
      */
     public int unknownTokens(List<List<String>> row) {
         int unknown = 0;
-        boolean wordPiece = spec.kind().equals(TokenizerSpec.WORDPIECE);
+        ViewsTokenizer tagged = tokenizer instanceof ViewsTokenizer v ? v : null;
         for (int c = 0; c < row.size(); c++) {
             for (String token : row.get(c)) {
-                boolean known = wordPiece
-                        ? !token.equals(WordPieceVocabulary.UNK)
-                        : features.indexOf(features.columns().get(c), token) >= 0;
+                int view = tagged == null ? 0 : tagged.viewOf(token);
+                boolean known;
+                if (view >= 0 && views.get(view).isWordPiece()) {
+                    known = !token.endsWith(WordPieceVocabulary.UNK)
+                            || token.length() != WordPieceVocabulary.UNK.length() + prefixLength(tagged, view);
+                } else {
+                    known = features.indexOf(features.columns().get(c), token) >= 0;
+                }
                 unknown += known ? 0 : 1;
             }
         }
         return unknown;
+    }
+
+    private static int prefixLength(ViewsTokenizer tagged, int view) {
+        return tagged == null ? 0 : tagged.tags().get(view).length() + 1;
+    }
+
+    /**
+     * The text a feature's token stands for, fit to write into an example input: the token without
+     * its view's tag; for character n-grams only a whole marked word ({@code <kit>} gives
+     * {@code kit}), else null.
+     */
+    public String exampleText(String token) {
+        int view = 0;
+        String raw = token;
+        if (tokenizer instanceof ViewsTokenizer tagged) {
+            view = tagged.viewOf(token);
+            if (view < 0) {
+                return null;
+            }
+            raw = token.substring(tagged.tags().get(view).length() + 1);
+        }
+        if (!views.get(view).kind().equals(TokenizerSpec.CHAR_NGRAMS)) {
+            return raw;
+        }
+        boolean wholeWord = raw.length() > 2 && raw.charAt(0) == CharNgramTokenizer.START
+                && raw.charAt(raw.length() - 1) == CharNgramTokenizer.END;
+        return wholeWord ? raw.substring(1, raw.length() - 1) : null;
+    }
+
+    /** The number of WordPiece vocabulary entries over all views. */
+    public int vocabularySize() {
+        int size = 0;
+        for (TokenizerSpec view : views) {
+            size += view.vocabulary() == null ? 0 : view.vocabulary().size();
+        }
+        return size;
     }
 }

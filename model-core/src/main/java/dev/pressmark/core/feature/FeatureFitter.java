@@ -15,8 +15,9 @@ final class FeatureFitter {
     private FeatureFitter() {
     }
 
-    static FeatureSpace fit(FeatureConfig config, List<String> columns, List<List<List<String>>> rows) {
+    static FeatureSpace fit(FeatureConfig config, List<String> columns, List<List<List<String>>> rows, ViewCaps caps) {
         Objects.requireNonNull(config, "config");
+        Objects.requireNonNull(caps, "caps");
         checkColumns(columns);
         Objects.requireNonNull(rows, "rows");
         if (rows.isEmpty()) {
@@ -27,7 +28,11 @@ final class FeatureFitter {
             throw new PressmarkException("no-tokens", "the " + rows.size()
                     + " training rows hold no tokens in columns " + String.join(", ", columns));
         }
-        int[] selected = select(counts, columns, config.maxTokens());
+        int[] selected = select(counts, columns, config, caps);
+        if (selected.length == 0) {
+            throw new PressmarkException("no-features", "no token occurs in at least features.min_df = " + config.minDf()
+                    + " of the " + rows.size() + " training rows; lower features.min_df");
+        }
         int m = selected.length;
         int n = rows.size();
         int[] featureColumn = new int[m];
@@ -77,10 +82,11 @@ final class FeatureFitter {
     }
 
     /**
-     * The ids of the {@code maxTokens} features of largest document frequency, ties to the smaller
-     * name, in that order.
+     * The ids of the features: by descending document frequency, ties to the smaller name, every
+     * token seen in at least {@code min_df} rows, until its view has its own cap or all views
+     * together have {@code max_tokens}.
      */
-    private static int[] select(Counts counts, List<String> columns, int maxTokens) {
+    private static int[] select(Counts counts, List<String> columns, FeatureConfig config, ViewCaps caps) {
         int d = counts.distinct;
         String[] names = new String[d];
         Integer[] order = new Integer[d];
@@ -90,11 +96,18 @@ final class FeatureFitter {
         }
         int[] df = counts.documentFrequency;
         Arrays.sort(order, (a, b) -> df[a] != df[b] ? Integer.compare(df[b], df[a]) : names[a].compareTo(names[b]));
-        int[] selected = new int[Math.min(maxTokens, d)];
-        for (int j = 0; j < selected.length; j++) {
-            selected[j] = order[j];
+        int[] room = caps.caps();
+        int[] selected = new int[Math.min(config.maxTokens(), d)];
+        int m = 0;
+        for (int k = 0; k < d && m < selected.length && df[order[k]] >= config.minDf(); k++) {
+            int id = order[k];
+            int view = caps.viewOf().applyAsInt(counts.tokens.get(id));
+            if (room[view] > 0) {
+                room[view]--;
+                selected[m++] = id;
+            }
         }
-        return selected;
+        return Arrays.copyOf(selected, m);
     }
 
     /** Every distinct (column, token) of the training rows with its document frequency. */

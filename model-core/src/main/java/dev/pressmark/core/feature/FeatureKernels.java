@@ -18,27 +18,28 @@ final class FeatureKernels {
      * {@code vals[k]}, reading its occurrence count from {@code counts[cols[k]]} and setting that
      * count back to 0, so that the dense scratch is clean for the next row.
      *
+     * @param sublinear count {@code c} as {@code 1 + ln c} (scikit-learn's {@code sublinear_tf})
      * @param rowTokens the number of tokens in the row, selected or not; &gt; 0 whenever
      *     {@code length} is
      * @param idf the idf of every feature; read only for {@link Weighting#TFIDF}
      */
-    static void weigh(Weighting weighting, int[] cols, int length, int[] counts, int rowTokens, double[] idf,
-            double[] vals) {
+    static void weigh(Weighting weighting, boolean sublinear, int[] cols, int length, int[] counts, int rowTokens,
+            double[] idf, double[] vals) {
         double tokens = rowTokens;
+        for (int k = 0; k < length; k++) {
+            int c = counts[cols[k]];
+            vals[k] = sublinear ? 1.0 + Math.log(c) : c;
+        }
         switch (weighting) {
-            case COUNT -> {
-                for (int k = 0; k < length; k++) {
-                    vals[k] = counts[cols[k]];
-                }
-            }
+            case COUNT -> { }
             case TF -> {
                 for (int k = 0; k < length; k++) {
-                    vals[k] = counts[cols[k]] / tokens;
+                    vals[k] /= tokens;
                 }
             }
             case TFIDF -> {
                 for (int k = 0; k < length; k++) {
-                    vals[k] = counts[cols[k]] / tokens * idf[cols[k]];
+                    vals[k] = vals[k] / tokens * idf[cols[k]];
                 }
             }
             case BINARY -> {

@@ -60,8 +60,14 @@ import java.util.Objects;
  */
 public final class FeatureSpace {
 
-    /** The version of {@link State} this build writes and the only one it reads. */
-    public static final int FORMAT_VERSION = 1;
+    /**
+     * The newest version of {@link State} this build writes and reads. Version 2 adds
+     * {@code min_df} and {@code sublinear}; a space without them is written as version 1, as
+     * before.
+     */
+    public static final int FORMAT_VERSION = 2;
+    /** The version of a state that has no setting of version 2. */
+    public static final int FORMAT_VERSION_1 = 1;
 
     private final List<String> columns;
     private final FeatureConfig config;
@@ -129,7 +135,18 @@ public final class FeatureSpace {
      *     token; the message names the row
      */
     public static FeatureSpace fit(FeatureConfig config, List<String> columns, List<List<List<String>>> rows) {
-        return FeatureFitter.fit(config, columns, rows);
+        return FeatureFitter.fit(config, columns, rows, ViewCaps.NONE);
+    }
+
+    /** As {@link #fit(FeatureConfig, List, List)}, with a cap on the features of each view as well. */
+    public static FeatureSpace fit(FeatureConfig config, List<String> columns, List<List<List<String>>> rows,
+            ViewCaps caps) {
+        return FeatureFitter.fit(config, columns, rows, caps);
+    }
+
+    /** True when a state of format 1 can hold this space. */
+    public boolean fitsFormat1() {
+        return config.fitsFormat1();
     }
 
     /** The feature rows of {@code rows}, one matrix row each, {@link #featureCount()} columns. */
@@ -170,6 +187,11 @@ public final class FeatureSpace {
     /** The token of feature {@code j}, without its column. */
     public String token(int j) {
         return tokens[Objects.checkIndex(j, tokens.length)];
+    }
+
+    /** Every token of text column {@code c} that is a feature, with its index. */
+    public Map<String, Integer> tokensOf(int c) {
+        return index.get(c);
     }
 
     /** The index of the feature of {@code token} in {@code column}, or -1 if it is not a feature. */
@@ -259,11 +281,14 @@ public final class FeatureSpace {
         }
         boolean tfidf = config.weighting() == Weighting.TFIDF;
         boolean standardize = config.scaling() == Scaling.STANDARDIZE;
-        return new State(FORMAT_VERSION, columns, config.maxTokens(), config.weighting().key(),
-                config.scaling().key(), trainingRows, features,
+        boolean format1 = fitsFormat1();
+        return new State(format1 ? FORMAT_VERSION_1 : FORMAT_VERSION, columns, config.maxTokens(),
+                config.weighting().key(), config.scaling().key(), trainingRows, features,
                 tfidf ? boxed(idf) : null,
                 standardize ? boxed(means) : null,
-                standardize ? boxed(standardDeviations) : null);
+                standardize ? boxed(standardDeviations) : null,
+                format1 ? null : config.minDf(),
+                format1 ? null : config.sublinear());
     }
 
     /**
@@ -336,10 +361,15 @@ public final class FeatureSpace {
         private final FeatureSpace space;
         /** Occurrences per feature in the current row; all zero between rows. */
         private final int[] counts;
+        /** The features of the current row, in the order first seen. */
+        private final int[] seen;
+        private int length;
+        private int rowTokens;
 
         private Encoder(FeatureSpace space) {
             this.space = space;
             this.counts = new int[space.featureCount()];
+            this.seen = new int[space.featureCount()];
         }
 
         /**
@@ -348,47 +378,76 @@ public final class FeatureSpace {
          * {@link FeatureSpace#featureCount()} entries.
          */
         public int encode(List<List<String>> row, int[] cols, double[] vals) {
-            int m = space.featureCount();
-            if (cols.length < m || vals.length < m) {
-                throw new IllegalArgumentException("cols and vals must have at least " + m
-                        + " entries (one per feature), had " + cols.length + " and " + vals.length);
-            }
+            requireRoom(cols, vals);
             return encode(-1, row, cols, vals);
         }
 
         int encode(int rowIndex, List<List<String>> row, int[] cols, double[] vals) {
             List<String> columns = space.columns;
             checkRow(rowIndex, row, columns);
-            int length = 0;
-            int rowTokens = 0;
             for (int c = 0; c < columns.size(); c++) {
                 Map<String, Integer> tokenIndex = space.index.get(c);
                 int position = 0;
                 for (String token : row.get(c)) {
                     if (token == null) {
-                        FeatureKernels.clear(counts, cols, length);
+                        reset();
                         throw nullToken(rowIndex, columns.get(c), position);
                     }
                     Integer j = tokenIndex.get(token);
-                    if (j != null) {
-                        int feature = j;
-                        if (counts[feature]++ == 0) {
-                            cols[length++] = feature;
-                        }
-                    }
+                    add(j == null ? -1 : j);
                     position++;
                 }
-                rowTokens += position;
             }
-            Arrays.sort(cols, 0, length);
-            FeatureKernels.weigh(space.config.weighting(), cols, length, counts, rowTokens, space.idf, vals);
+            return finish(cols, vals);
+        }
+
+        /**
+         * Counts one token of the current row: feature {@code j}, or -1 for a token that is no
+         * feature (it still counts towards the row's length).
+         */
+        public void add(int j) {
+            rowTokens++;
+            if (j >= 0 && counts[j]++ == 0) {
+                seen[length++] = j;
+            }
+        }
+
+        /**
+         * Writes the features of the tokens {@link #add}ed since the last row into {@code cols}
+         * (strictly increasing) and {@code vals}, weighted and scaled, starts a new row and returns
+         * how many it wrote. Both arrays must hold at least {@link FeatureSpace#featureCount()}
+         * entries.
+         */
+        public int finish(int[] cols, double[] vals) {
+            requireRoom(cols, vals);
+            int written = length;
+            System.arraycopy(seen, 0, cols, 0, written);
+            Arrays.sort(cols, 0, written);
+            FeatureKernels.weigh(space.config.weighting(), space.config.sublinear(), cols, written, counts, rowTokens,
+                    space.idf, vals);
             switch (space.config.scaling()) {
-                case L2 -> FeatureKernels.l2Normalize(vals, length);
-                case STANDARDIZE -> length = FeatureKernels.scaleColumns(cols, vals, length, space.scales);
+                case L2 -> FeatureKernels.l2Normalize(vals, written);
+                case STANDARDIZE -> written = FeatureKernels.scaleColumns(cols, vals, written, space.scales);
                 case NONE -> { }
                 default -> throw new IllegalArgumentException("unknown scaling " + space.config.scaling());
             }
-            return length;
+            length = 0;
+            rowTokens = 0;
+            return written;
+        }
+
+        private void reset() {
+            FeatureKernels.clear(counts, seen, length);
+            length = 0;
+            rowTokens = 0;
+        }
+
+        private void requireRoom(int[] cols, double[] vals) {
+            int m = space.featureCount();
+            if (cols.length < m || vals.length < m) {
+                throw new IllegalArgumentException("cols and vals must have at least " + m
+                        + " entries (one per feature), had " + cols.length + " and " + vals.length);
+            }
         }
     }
 
@@ -421,6 +480,8 @@ public final class FeatureSpace {
      * @param means one per feature under standardize, else absent
      * @param standardDeviations one per feature (population, before scaling) under standardize,
      *     else absent
+     * @param minDf the least document frequency of a feature; absent in format 1 (where it is 1)
+     * @param sublinear whether counts weigh {@code 1 + ln c}; absent in format 1 (where they do not)
      */
     @JsonInclude(JsonInclude.Include.NON_NULL)
     public record State(
@@ -433,7 +494,17 @@ public final class FeatureSpace {
             @JsonProperty("features") List<Feature> features,
             @JsonProperty("idf") List<Double> idf,
             @JsonProperty("means") List<Double> means,
-            @JsonProperty("standard_deviations") List<Double> standardDeviations) {
+            @JsonProperty("standard_deviations") List<Double> standardDeviations,
+            @JsonProperty("min_df") Integer minDf,
+            @JsonProperty("sublinear") Boolean sublinear) {
+
+        /** A state of format 1, which has no {@code min_df} and no {@code sublinear}. */
+        public State(int formatVersion, List<String> columns, int maxTokens, String weighting, String scaling,
+                int trainingRows, List<Feature> features, List<Double> idf, List<Double> means,
+                List<Double> standardDeviations) {
+            this(formatVersion, columns, maxTokens, weighting, scaling, trainingRows, features, idf, means,
+                    standardDeviations, null, null);
+        }
 
         public State {
             columns = copy(columns);

@@ -16,9 +16,13 @@ final class StateReader {
         if (state == null) {
             throw invalid("the feature state is missing");
         }
-        if (state.formatVersion() != FeatureSpace.FORMAT_VERSION) {
-            throw invalid("format_version " + state.formatVersion() + " is not supported; this build reads version "
-                    + FeatureSpace.FORMAT_VERSION);
+        if (state.formatVersion() != FeatureSpace.FORMAT_VERSION_1 && state.formatVersion() != FeatureSpace.FORMAT_VERSION) {
+            throw invalid("format_version " + state.formatVersion() + " is not supported; this build reads versions "
+                    + FeatureSpace.FORMAT_VERSION_1 + " and " + FeatureSpace.FORMAT_VERSION);
+        }
+        boolean format1 = state.formatVersion() == FeatureSpace.FORMAT_VERSION_1;
+        if (format1 != (state.minDf() == null) || format1 != (state.sublinear() == null)) {
+            throw invalid("min_df and sublinear must be " + (format1 ? "absent in format_version 1" : "present in format_version 2"));
         }
         List<String> columns = state.columns();
         if (columns == null) {
@@ -58,9 +62,9 @@ final class StateReader {
             }
             tokens[j] = feature.token();
             documentFrequency[j] = feature.documentFrequency();
-            if (documentFrequency[j] < 1 || documentFrequency[j] > n) {
-                throw invalid("features[" + j + "].document_frequency must be in [1, " + n + "] (training_rows), was "
-                        + documentFrequency[j]);
+            if (documentFrequency[j] < config.minDf() || documentFrequency[j] > n) {
+                throw invalid("features[" + j + "].document_frequency must be in [" + config.minDf() + ", " + n
+                        + "] (min_df, training_rows), was " + documentFrequency[j]);
             }
             if (!seen.add(FeatureSpace.name(feature.column(), feature.token()))) {
                 throw invalid("features[" + j + "] repeats " + FeatureSpace.name(feature.column(), feature.token()));
@@ -88,7 +92,9 @@ final class StateReader {
     private static FeatureConfig config(FeatureSpace.State state) {
         try {
             return new FeatureConfig(state.maxTokens(), Weighting.fromKey(state.weighting()),
-                    Scaling.fromKey(state.scaling()));
+                    Scaling.fromKey(state.scaling()),
+                    state.minDf() == null ? FeatureConfig.DEFAULT_MIN_DF : state.minDf(),
+                    state.sublinear() != null && state.sublinear());
         } catch (IllegalArgumentException e) {
             throw new PressmarkException(INVALID, e.getMessage(), e);
         }

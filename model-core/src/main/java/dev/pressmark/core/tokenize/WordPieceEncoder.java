@@ -84,6 +84,18 @@ public final class WordPieceEncoder implements Tokenizer {
         return tokens;
     }
 
+    @Override
+    public int scan(String text, int maxTokens, Spans sink) {
+        IntList ids = new IntList(Math.max(16, text.length() / 3));
+        encodeIds(text, ids);
+        int kept = Math.min(ids.size(), maxTokens);
+        for (int i = 0; i < kept; i++) {
+            String token = vocabulary.token(ids.get(i));
+            sink.token(token, 0, token.length());
+        }
+        return ids.size() - kept;
+    }
+
     /**
      * Appends the pieces of one already normalised word, {@code text[start, end)}, to {@code out}:
      * greedy longest match first, or the unknown token when the word cannot be covered.

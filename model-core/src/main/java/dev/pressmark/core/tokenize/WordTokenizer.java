@@ -21,4 +21,23 @@ public final class WordTokenizer implements Tokenizer {
     public List<String> tokenize(String text) {
         return PreTokenizer.words(normalizer.normalize(text));
     }
+
+    @Override
+    public int scan(String text, int maxTokens, Spans sink) {
+        String normalized = normalizer.normalize(text);
+        int length = normalized.length();
+        int emitted = 0;
+        int dropped = 0;
+        for (int start = PreTokenizer.wordStart(normalized, 0); start < length; ) {
+            int end = PreTokenizer.wordEnd(normalized, start);
+            if (emitted < maxTokens) {
+                sink.token(normalized, start, end);
+                emitted++;
+            } else {
+                dropped++;
+            }
+            start = PreTokenizer.wordStart(normalized, end);
+        }
+        return dropped;
+    }
 }

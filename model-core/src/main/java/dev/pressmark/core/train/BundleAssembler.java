@@ -12,6 +12,7 @@ import dev.pressmark.core.evaluate.Evaluation;
 import dev.pressmark.core.evaluate.Metric;
 import dev.pressmark.core.evaluate.MetricSummary;
 import dev.pressmark.core.evaluate.MetricValues;
+import dev.pressmark.core.feature.FeatureConfig;
 import dev.pressmark.core.feature.FeatureSpace;
 import dev.pressmark.core.search.SearchSummary;
 import java.time.Instant;
@@ -61,7 +62,7 @@ public final class BundleAssembler {
         training.put("train_rows", result.trainRows().length);
         training.put("test_rows", result.testRows().length);
         training.put("features", result.pipeline().features().featureCount());
-        training.put("vocabulary_size", result.pipeline().spec().vocabulary() == null ? 0 : result.pipeline().spec().vocabulary().size());
+        training.put("vocabulary_size", result.pipeline().vocabularySize());
         ArrayNode warnings = training.putArray("warnings");
         result.warnings().forEach(warnings::add);
         manifest.set("metrics", metrics(result));
@@ -81,9 +82,20 @@ public final class BundleAssembler {
         ObjectNode node = JSON.valueToTree(config.withData(new DataConfig(fileName(config), config.data().text(),
                 config.data().label(), config.data().positive(), config.data().dropIncomplete())));
         ObjectNode features = node.putObject("features");
-        features.put("max_tokens", config.features().maxTokens());
-        features.put("weighting", config.features().weighting().key());
-        features.put("scaling", config.features().scaling().key());
+        FeatureConfig settings = config.features();
+        if (settings.maxTokens() == FeatureConfig.ALL) {
+            features.put("max_tokens", "all");
+        } else {
+            features.put("max_tokens", settings.maxTokens());
+        }
+        features.put("weighting", settings.weighting().key());
+        features.put("scaling", settings.scaling().key());
+        if (settings.minDf() != FeatureConfig.DEFAULT_MIN_DF) {
+            features.put("min_df", settings.minDf());
+        }
+        if (settings.sublinear()) {
+            features.put("sublinear", true);
+        }
         return node;
     }
 

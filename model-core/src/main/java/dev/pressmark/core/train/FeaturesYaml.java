@@ -11,13 +11,17 @@ record FeaturesYaml(FeatureConfig config) {
 
     @JsonCreator
     static FeaturesYaml fromYaml(
-            @JsonProperty("max_tokens") Integer maxTokens,
+            @JsonProperty("max_tokens") MaxTokens maxTokens,
             @JsonProperty("weighting") String weighting,
-            @JsonProperty("scaling") String scaling) {
+            @JsonProperty("scaling") String scaling,
+            @JsonProperty("min_df") Integer minDf,
+            @JsonProperty("sublinear") Boolean sublinear) {
         FeatureConfig defaults = FeatureConfig.defaults();
         return new FeaturesYaml(new FeatureConfig(
-                maxTokens == null ? defaults.maxTokens() : maxTokens,
+                maxTokens == null ? defaults.maxTokens() : maxTokens.value(),
                 weighting == null ? defaults.weighting() : Weighting.fromKey(weighting),
-                scaling == null ? defaults.scaling() : Scaling.fromKey(scaling)));
+                scaling == null ? defaults.scaling() : Scaling.fromKey(scaling),
+                minDf == null ? defaults.minDf() : minDf,
+                sublinear == null ? defaults.sublinear() : sublinear));
     }
 }

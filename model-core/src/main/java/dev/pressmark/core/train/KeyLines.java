@@ -6,6 +6,8 @@ import java.util.regex.Pattern;
 /** Finds the line of a dotted key path ({@code tokenizer.vocab_size}) in YAML text, for messages. */
 final class KeyLines {
 
+    private static final Pattern LIST_ITEM = Pattern.compile("(?m)^[ \\t]*-[ \\t]");
+
     private KeyLines() {
     }
 
@@ -17,7 +19,19 @@ final class KeyLines {
         int from = 0;
         int line = -1;
         for (String key : path.split("\\.")) {
-            Matcher matcher = Pattern.compile("(?m)(?:^|[{,])\\s*\"?" + Pattern.quote(key) + "\"?\\s*:").matcher(yaml);
+            if (key.chars().allMatch(Character::isDigit)) {
+                // A list index: the start of that entry of a block list ("- ...") after the key before it.
+                Matcher item = LIST_ITEM.matcher(yaml);
+                for (int k = 0; k <= Integer.parseInt(key); k++) {
+                    if (!item.find(k == 0 ? from : item.end())) {
+                        return line;
+                    }
+                }
+                from = item.end();
+                line = lineOf(yaml, item.start());
+                continue;
+            }
+            Matcher matcher = Pattern.compile("(?m)(?:^|[{,]|-[ \\t])\\s*\"?" + Pattern.quote(key) + "\"?\\s*:").matcher(yaml);
             if (!matcher.find(from)) {
                 return -1;
             }

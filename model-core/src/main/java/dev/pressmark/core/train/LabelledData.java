@@ -10,12 +10,14 @@ import dev.pressmark.core.bundle.Sha256;
 import dev.pressmark.core.io.StrictUtf8;
 import java.io.IOException;
 import java.io.StringReader;
+import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
+import java.util.Objects;
 
 /**
  * Labelled rows read from a CSV file (RFC 4180: quoted fields, embedded newlines, CRLF, an
@@ -58,6 +60,27 @@ public record LabelledData(
 
     public int rows() {
         return labels.size();
+    }
+
+    /**
+     * These rows followed by {@code more}'s, which must have the same text and label columns; used
+     * to train on one file and test on another. The fingerprint becomes the SHA-256 of the two
+     * files' fingerprints (hex, this one's first); the line numbers stay those of each file.
+     */
+    public LabelledData followedBy(LabelledData more) {
+        if (!textColumns.equals(more.textColumns) || !Objects.equals(labelColumn, more.labelColumn)) {
+            throw new IllegalArgumentException("more must have the text columns " + textColumns + " and the label column "
+                    + labelColumn + ", had " + more.textColumns + " and " + more.labelColumn);
+        }
+        List<String[]> allTexts = new ArrayList<>(texts);
+        allTexts.addAll(more.texts);
+        List<String> allLabels = new ArrayList<>(labels);
+        allLabels.addAll(more.labels);
+        int[] allLines = Arrays.copyOf(lines, lines.length + more.lines.length);
+        System.arraycopy(more.lines, 0, allLines, lines.length, more.lines.length);
+        String fingerprint = Sha256.hex((sha256 + more.sha256).getBytes(StandardCharsets.US_ASCII));
+        return new LabelledData(textColumns, labelColumn, allTexts, allLabels, allLines, fingerprint,
+                droppedRows + more.droppedRows);
     }
 
     /** Reads the text columns of {@code file} without labels, for prediction; every row is kept. */

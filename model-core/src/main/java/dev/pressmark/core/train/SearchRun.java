@@ -129,8 +129,8 @@ final class SearchRun {
         int[] foldTest = TrainingRun.select(trainRows, fold.test());
         TrainConfig first = group.settings.get(0).config;
         List<String> columns = first.data().text();
-        PipelineFitter.Fitted fitted = new PipelineFitter(first.tokenizer(), first.features(), columns)
-                .fit(run.rows(foldTrain), Progress.NONE);
+        PipelineFitter fitter = new PipelineFitter(first.tokenizers(), first.features(), columns);
+        PipelineFitter.Fitted fitted = fitter.fit(run.rows(foldTrain), Progress.NONE);
         List<List<List<String>>> testTokens = TextPipeline.tokenize(fitted.pipeline().tokenizer(), run.rows(foldTest));
         int[] yTrain = TrainingRun.select(trainLabels, fold.train());
         int[] truth = TrainingRun.select(trainLabels, fold.test());
@@ -138,7 +138,7 @@ final class SearchRun {
         for (FeatureSetting setting : group.settings) {
             // the same steps as PipelineFitter.fit after tokenization, on the shared tokens
             FeatureSpace space = setting == group.settings.get(0) ? fitted.pipeline().features()
-                    : FeatureSpace.fit(setting.config.features(), columns, fitted.tokens());
+                    : fitter.features(setting.config.features(), fitted.pipeline().tokenizer(), fitted.tokens());
             SparseMatrix x = setting == group.settings.get(0) ? fitted.x() : space.transform(fitted.tokens());
             SparseMatrix xTest = space.transform(testTokens);
             for (int[] chain : setting.chains) {
@@ -166,9 +166,9 @@ final class SearchRun {
         List<TrainConfig> configs = search.configs();
         for (int i = 0; i < configs.size(); i++) {
             TrainConfig config = configs.get(i);
-            Object featureKey = List.of(config.tokenizer(), config.features());
+            Object featureKey = List.of(config.tokenizers(), config.features());
             firstOf.putIfAbsent(featureKey, config);
-            tree.computeIfAbsent(config.tokenizer(), k -> new LinkedHashMap<>())
+            tree.computeIfAbsent(config.tokenizers(), k -> new LinkedHashMap<>())
                     .computeIfAbsent(featureKey, k -> new LinkedHashMap<>())
                     .computeIfAbsent(withoutC(config.classifier()), k -> new ArrayList<>()).add(i);
         }

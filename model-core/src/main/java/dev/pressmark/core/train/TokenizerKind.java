@@ -2,12 +2,16 @@ package dev.pressmark.core.train;
 
 import com.fasterxml.jackson.annotation.JsonValue;
 
-/** Which tokenizer turns text into features. */
+/** Which tokenizer turns text into the tokens of one view. */
 public enum TokenizerKind {
     /** Subwords from a vocabulary learned on the training rows. */
     WORDPIECE("wordpiece"),
     /** Whole words after normalisation. */
-    WORD("word");
+    WORDS("words"),
+    /** Whole words, under the name of the first release; the same as {@link #WORDS}. */
+    WORD("word"),
+    /** Character n-grams inside each word, word start and end marked. */
+    CHAR_NGRAMS("char-ngrams");
 
     private final String key;
 
@@ -27,6 +31,6 @@ public enum TokenizerKind {
                 return kind;
             }
         }
-        throw new IllegalArgumentException("tokenizer.kind must be one of wordpiece, word; was \"" + key + "\"");
+        throw new IllegalArgumentException("tokenizer.kind must be one of wordpiece, words, char-ngrams; was \"" + key + "\"");
     }
 }

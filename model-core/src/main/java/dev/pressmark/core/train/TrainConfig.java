@@ -1,6 +1,7 @@
 package dev.pressmark.core.train;
 
 import com.fasterxml.jackson.annotation.JsonCreator;
+import com.fasterxml.jackson.annotation.JsonIgnore;
 import com.fasterxml.jackson.annotation.JsonIgnoreProperties;
 import com.fasterxml.jackson.annotation.JsonProperty;
 import com.fasterxml.jackson.annotation.JsonPropertyOrder;
@@ -39,10 +40,13 @@ public record TrainConfig(
         @JsonProperty("name") String name,
         @JsonProperty("data") DataConfig data,
         @JsonProperty("split") SplitConfig split,
-        @JsonProperty("tokenizer") TokenizerConfig tokenizer,
+        @JsonIgnore List<TokenizerConfig> tokenizers,
         @JsonProperty("features") FeatureConfig features,
         @JsonProperty("classifier") ClassifierConfig classifier,
         @JsonProperty("evaluation") EvaluationConfig evaluation) {
+
+    /** The most tokenizer entries (views of the text) a config may list. */
+    public static final int MAX_TOKENIZERS = 8;
 
     /** The model name when the config names none. */
     public static final String DEFAULT_NAME = "model";
@@ -56,7 +60,12 @@ public record TrainConfig(
         }
         Objects.requireNonNull(data, "data");
         Objects.requireNonNull(split, "split");
-        Objects.requireNonNull(tokenizer, "tokenizer");
+        Objects.requireNonNull(tokenizers, "tokenizer");
+        tokenizers = List.copyOf(tokenizers);
+        if (tokenizers.isEmpty() || tokenizers.size() > MAX_TOKENIZERS) {
+            throw new IllegalArgumentException("tokenizer must list 1 to " + MAX_TOKENIZERS + " entries, had "
+                    + tokenizers.size());
+        }
         Objects.requireNonNull(features, "features");
         Objects.requireNonNull(classifier, "classifier");
         Objects.requireNonNull(evaluation, "evaluation");
@@ -67,7 +76,7 @@ public record TrainConfig(
             @JsonProperty("name") String name,
             @JsonProperty("data") DataConfig data,
             @JsonProperty("split") SplitConfig split,
-            @JsonProperty("tokenizer") TokenizerConfig tokenizer,
+            @JsonProperty("tokenizer") List<TokenizerConfig> tokenizers,
             @JsonProperty("features") FeaturesYaml features,
             @JsonProperty("classifier") ClassifierConfig classifier,
             @JsonProperty("evaluation") EvaluationConfig evaluation) {
@@ -75,7 +84,7 @@ public record TrainConfig(
                 name == null ? DEFAULT_NAME : name,
                 data == null ? DataConfig.DEFAULT : data,
                 split == null ? SplitConfig.DEFAULT : split,
-                tokenizer == null ? TokenizerConfig.DEFAULT : tokenizer,
+                tokenizers == null ? List.of(TokenizerConfig.DEFAULT) : tokenizers,
                 features == null ? FeatureConfig.defaults() : features.config(),
                 classifier == null ? ClassifierConfig.DEFAULT : classifier,
                 evaluation == null ? EvaluationConfig.DEFAULT : evaluation);
@@ -122,12 +131,32 @@ public record TrainConfig(
         }
     }
 
+    /** A config with one view of the text, as the first release had. */
+    public TrainConfig(String name, DataConfig data, SplitConfig split, TokenizerConfig tokenizer, FeatureConfig features,
+            ClassifierConfig classifier, EvaluationConfig evaluation) {
+        this(name, data, split, List.of(tokenizer), features, classifier, evaluation);
+    }
+
+    /**
+     * The {@code tokenizer} section as the manifest records it: the one mapping when there is one
+     * view, as the first release wrote it, else the list.
+     */
+    @JsonProperty("tokenizer")
+    Object tokenizerListed() {
+        return tokenizers.size() == 1 ? tokenizers.get(0) : tokenizers;
+    }
+
+    /** The first (or only) tokenizer entry. */
+    public TokenizerConfig tokenizer() {
+        return tokenizers.get(0);
+    }
+
     TrainConfig withData(DataConfig newData) {
-        return new TrainConfig(name, newData, split, tokenizer, features, classifier, evaluation);
+        return new TrainConfig(name, newData, split, tokenizers, features, classifier, evaluation);
     }
 
     private static PressmarkException configError(String source, String yaml, JsonMappingException e) {
-        String key = keyPath(e);
+        String key = tokenizerKey(yaml, keyPath(e));
         String what;
         if (e instanceof UnrecognizedPropertyException unknown) {
             List<String> known = new ArrayList<>();
@@ -143,6 +172,7 @@ public record TrainConfig(
         } else {
             what = (key.isEmpty() ? "" : key + ": ") + e.getOriginalMessage();
         }
+        what = withTokenizerIndex(yaml, key, what);
         // Jackson reports where it noticed, often the end of the section; the key's own line is
         // where a person looks, so find it when the message names one.
         Matcher named = LEADING_KEY.matcher(what);
@@ -154,8 +184,43 @@ public record TrainConfig(
         return new PressmarkException("invalid-config", source + (line > 0 ? ": line " + line : "") + ": " + what, e);
     }
 
+    private static final Pattern TOKENIZER_ENTRY = Pattern.compile("^tokenizer\\[(\\d+)]");
+
+    /**
+     * A key path in the spelling of the search grid's keys: {@code tokenizer.1.max_n} for an entry
+     * of a tokenizer list, {@code tokenizer.max_n} when the section is one mapping.
+     */
+    private static String tokenizerKey(String yaml, String key) {
+        Matcher entry = TOKENIZER_ENTRY.matcher(key);
+        if (!entry.find()) {
+            return key;
+        }
+        String rest = key.substring(entry.end());
+        return tokenizerIsList(yaml) ? "tokenizer." + entry.group(1) + rest : "tokenizer" + rest;
+    }
+
+    private static boolean tokenizerIsList(String yaml) {
+        try {
+            return YAML.readTree(yaml).path("tokenizer").isArray();
+        } catch (JsonProcessingException e) {
+            return false;
+        }
+    }
+
+    /**
+     * "tokenizer.max_n must be ..." as "tokenizer.1.max_n must be ..." when the section is a list, so
+     * that the message names the entry in the spelling of the search grid's keys.
+     */
+    private static String withTokenizerIndex(String yaml, String key, String what) {
+        Matcher entry = Pattern.compile("^tokenizer\\.(\\d+)").matcher(key);
+        if (!entry.find() || !what.startsWith("tokenizer.") || what.startsWith(key)) {
+            return what;
+        }
+        return "tokenizer." + entry.group(1) + what.substring("tokenizer".length());
+    }
+
     /** A message that starts with a dotted config key, such as {@code classifier.c must be > 0}. */
-    private static final Pattern LEADING_KEY = Pattern.compile("(?:unknown key \")?([a-z_]+(?:\\.[a-z_]+)*)\\b");
+    private static final Pattern LEADING_KEY = Pattern.compile("(?:unknown key \")?([a-z_]+(?:\\.[a-z_0-9]+)*)\\b");
 
     private static String keyPath(JsonMappingException e) {
         List<String> parts = new ArrayList<>();

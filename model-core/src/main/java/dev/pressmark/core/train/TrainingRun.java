@@ -90,6 +90,8 @@ public final class TrainingRun {
     private final int[] y;
     private final int positiveClass;
     private final PipelineFitter fitter;
+    /** The train/test split given by the caller, or null to hold out a part as {@code config.split()} says. */
+    private final Split fixedSplit;
 
     public TrainingRun(TrainConfig config, LabelledData data) {
         this(TrainPlan.of(config), data);
@@ -97,9 +99,30 @@ public final class TrainingRun {
 
     /** A run of {@code plan}: its config, or the search over its candidates and the chosen one. */
     public TrainingRun(TrainPlan plan, LabelledData data) {
+        this(plan, data, null);
+    }
+
+    /**
+     * A run that trains (and cross-validates) on every row of {@code train} and tests once on
+     * every row of {@code test}, instead of holding out a part of one file; {@code config.split()}
+     * is then not used. The result's row indices count {@code train}'s rows first, then
+     * {@code test}'s, as in {@link #data()}.
+     */
+    public static TrainingRun withTestData(TrainConfig config, LabelledData train, LabelledData test) {
+        return withTestData(TrainPlan.of(config), train, test);
+    }
+
+    /** As {@link #withTestData(TrainConfig, LabelledData, LabelledData)}, for a plan that may search. */
+    public static TrainingRun withTestData(TrainPlan plan, LabelledData train, LabelledData test) {
+        return new TrainingRun(plan, train.followedBy(test), new Split(range(0, train.rows()),
+                range(train.rows(), train.rows() + test.rows())));
+    }
+
+    private TrainingRun(TrainPlan plan, LabelledData data, Split fixedSplit) {
         this.config = plan.config();
         this.search = plan.search();
         this.data = data;
+        this.fixedSplit = fixedSplit;
         this.labels = List.copyOf(new TreeSet<>(data.labels()));
         if (labels.size() < 2) {
             throw new PressmarkException("one-class", data.labelColumn() + ": every row has the label \"" + labels.get(0)
@@ -111,7 +134,7 @@ public final class TrainingRun {
         }
         this.positiveClass = positiveClass(config.data().positive(), labels);
         requireTextInEveryColumn(data);
-        this.fitter = new PipelineFitter(config.tokenizer(), config.features(), config.data().text());
+        this.fitter = new PipelineFitter(config.tokenizers(), config.features(), config.data().text());
     }
 
     private static void requireTextInEveryColumn(LabelledData data) {
@@ -156,6 +179,11 @@ public final class TrainingRun {
         return labels;
     }
 
+    /** The rows this run reads: the data given, or the training rows followed by the test rows. */
+    public LabelledData data() {
+        return data;
+    }
+
     /** The positive class, or -1 for more than two classes. */
     public int positiveClass() {
         return positiveClass;
@@ -164,7 +192,7 @@ public final class TrainingRun {
     /** Runs everything; progress goes to {@code progress}. */
     public Result run(Progress progress) {
         long seed = config.split().seed();
-        Split split = split(seed);
+        Split split = fixedSplit != null ? fixedSplit : split(seed);
         int[] trainRows = split.train();
         int[] trainLabels = select(y, trainRows);
         requireEnoughRowsForFolds(trainLabels);
@@ -369,6 +397,14 @@ public final class TrainingRun {
             rows.add(data.texts().get(i));
         }
         return rows;
+    }
+
+    private static int[] range(int from, int to) {
+        int[] out = new int[to - from];
+        for (int i = 0; i < out.length; i++) {
+            out[i] = from + i;
+        }
+        return out;
     }
 
     static int[] select(int[] values, int[] indices) {

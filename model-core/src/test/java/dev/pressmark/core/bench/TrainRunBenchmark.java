@@ -68,8 +68,7 @@ public class TrainRunBenchmark {
             }
             data = new LabelledData(List.of("body"), "label", texts, labels, lines, "0".repeat(64), 0);
             TrainConfig defaults = TrainConfig.parse("", "benchmark");
-            TokenizerConfig tokenizer = new TokenizerConfig(TokenizerConfig.DEFAULT.kind(), 8000,
-                    TokenizerConfig.DEFAULT.maxWordChars(), true, true, true, TokenizerConfig.DEFAULT.minFrequency());
+            TokenizerConfig tokenizer = TokenizerConfig.DEFAULT.withVocabSize(8000);
             config = new TrainConfig("mail", new DataConfig("mail.csv", List.of("body"), "label", "spam", false),
                     defaults.split(), tokenizer, FeatureConfig.defaults().withMaxTokens(5000), defaults.classifier(),
                     new EvaluationConfig(folds, 1, threads));

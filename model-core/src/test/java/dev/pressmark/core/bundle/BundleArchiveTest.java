@@ -183,7 +183,7 @@ class BundleArchiveTest {
         byte[] bundle = rawBundle(12, manifest.getBytes(StandardCharsets.UTF_8), BundleArchive.ENTRY_ORDER);
         BundleException e = readFails(bundle);
         assertThat(e.code()).isEqualTo(BundleException.FORMAT_VERSION);
-        assertThat(e.getMessage()).isEqualTo("unsupported bundle format version 7; this program reads 1");
+        assertThat(e.getMessage()).isEqualTo("unsupported bundle format version 7; this program reads 1 and 2");
     }
 
     @Test

@@ -16,7 +16,7 @@ class FeatureConfigTest {
     void names_the_config_key_the_bound_and_the_bad_value() {
         assertThatThrownBy(() -> FeatureConfig.defaults().withMaxTokens(0))
                 .isInstanceOf(IllegalArgumentException.class)
-                .hasMessage("features.max_tokens must be >= 1, was 0");
+                .hasMessage("features.max_tokens must be >= 1 or all, was 0");
         assertThatThrownBy(() -> FeatureConfig.defaults().withWeighting(null)).hasMessage("features.weighting");
         assertThatThrownBy(() -> FeatureConfig.defaults().withScaling(null)).hasMessage("features.scaling");
     }

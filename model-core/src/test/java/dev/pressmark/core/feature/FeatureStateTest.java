@@ -97,9 +97,9 @@ class FeatureStateTest {
         // Every feature has df 2; by name "title2:tap" comes first, since '2' sorts before ':'.
         assertThat(FeatureSpace.fromState(good).featureName(0)).isEqualTo("title2:tap");
 
-        assertInvalid(good, s -> with(s, 2, s.columns(), s.weighting(), s.scaling(), s.trainingRows(), s.features(),
+        assertInvalid(good, s -> with(s, 3, s.columns(), s.weighting(), s.scaling(), s.trainingRows(), s.features(),
                 s.idf(), s.means(), s.standardDeviations()),
-                "format_version 2 is not supported; this build reads version 1");
+                "format_version 3 is not supported; this build reads versions 1 and 2");
         assertInvalid(good, s -> with(s, 1, s.columns(), "bm25", s.scaling(), s.trainingRows(), s.features(),
                 s.idf(), s.means(), s.standardDeviations()),
                 "unknown features.weighting 'bm25', expected one of count, tf, tfidf, binary");
@@ -129,7 +129,7 @@ class FeatureStateTest {
                 "means is missing; standardize needs one value per feature");
         assertInvalid(good, s -> with(s, 1, s.columns(), s.weighting(), s.scaling(), 1, s.features(), s.idf(),
                 s.means(), s.standardDeviations()),
-                "features[0].document_frequency must be in [1, 1] (training_rows), was 2");
+                "features[0].document_frequency must be in [1, 1] (min_df, training_rows), was 2");
         List<FeatureSpace.Feature> repeated = new ArrayList<>(good.features());
         repeated.set(2, repeated.get(0));
         assertInvalid(good, s -> with(s, 1, s.columns(), s.weighting(), s.scaling(), s.trainingRows(), repeated,

@@ -45,6 +45,38 @@ class TfidfReferenceTest {
         }
     }
 
+    /**
+     * The guide's counts under {@code sublinear_tf=True}, where a count {@code c} weighs
+     * {@code 1 + ln c}; rows printed by scikit-learn 1.2.1 (Debian's python3-sklearn):
+     * {@code /usr/bin/python3 -c "from sklearn.feature_extraction.text import TfidfTransformer;
+     * print(TfidfTransformer(sublinear_tf=True).fit_transform(COUNTS).toarray())"} at ten decimals.
+     * Row 0 by hand: (1 + ln 3) · 1 and 1 · (ln(7/3) + 1), l2-normalised, 0.7506 and 0.6607.
+     */
+    private static final double[][] SUBLINEAR_ROWS = {
+        {0.750621438, 0, 0.6607325154},
+        {1, 0, 0},
+        {1, 0, 0},
+        {1, 0, 0},
+        {0.4820544823, 0.8761412421, 0},
+        {0.5571694513, 0, 0.8303988214},
+    };
+
+    @Test
+    void sublinear_smooth_tfidf_with_l2_reproduces_scikit_learns_rows() {
+        List<List<List<String>>> rows = TokenRows.fromCounts(COUNTS);
+        FeatureConfig sublinear = new FeatureConfig(500, Weighting.TFIDF, Scaling.L2, 1, true);
+        FeatureSpace space = FeatureSpace.fit(sublinear, COLUMNS, rows);
+
+        double[][] actual = byTerm(space, space.transform(rows));
+
+        for (int i = 0; i < SUBLINEAR_ROWS.length; i++) {
+            assertThat(actual[i]).as("row %d", i).containsExactly(SUBLINEAR_ROWS[i], within(PRINTED));
+        }
+        FeatureSpace stored = FeatureSpace.fromState(space.toState());
+        assertThat(stored.toState().formatVersion()).isEqualTo(FeatureSpace.FORMAT_VERSION);
+        assertThat(byTerm(stored, stored.transform(rows))).isDeepEqualTo(actual);
+    }
+
     @Test
     void unsmoothed_idf_from_a_stored_state_reproduces_the_guides_first_row() {
         // The guide's smooth_idf=False variant: idf(t) = ln(n / df(t)) + 1; its first row is

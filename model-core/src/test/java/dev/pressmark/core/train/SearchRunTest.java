@@ -84,15 +84,46 @@ class SearchRunTest {
     @Test
     void every_candidates_cross_validated_score_equals_a_plain_run_with_its_settings() throws IOException {
         writeCsv(listings(500, 3));
-        TrainPlan plan = plan(GRID_WITHOUT_WARM_START);
-        TrainingRun.Result searched = new TrainingRun(plan, data(plan.config())).run(Progress.NONE);
+        assertEveryCandidateEqualsItsPlainRun(plan(GRID_WITHOUT_WARM_START), 12);
+    }
 
+    @Test
+    void with_several_views_too_every_candidate_equals_its_plain_run() throws IOException {
+        writeCsv(listings(400, 4));
+        assertEveryCandidateEqualsItsPlainRun(viewsPlan(), 8);
+    }
+
+    private TrainPlan viewsPlan() throws IOException {
+        String yaml = String.join("\n",
+                "name: routing",
+                "data: {file: listings.csv, text: [title], label: department}",
+                "split: {stratify: false, seed: 11}",
+                "tokenizer:",
+                "  - {kind: wordpiece, vocab_size: 100}",
+                "  - {kind: char-ngrams, min_n: 1, max_n: 3, max_tokens: 150}",
+                "features: {max_tokens: 200, weighting: tfidf, sublinear: true}",
+                "evaluation: {folds: 3, threads: 2}",
+                "search:",
+                "  grid:",
+                "    classifier.c: [0.1, 1]",
+                "    features.max_tokens: [40, 300]",
+                "    tokenizer.1.max_n: [2, 3]",
+                "  metric: roc_auc",
+                "  warm_start: false") + "\n";
+        Path file = dir.resolve("views.yaml");
+        Files.writeString(file, yaml);
+        return TrainPlan.read(file);
+    }
+
+    private void assertEveryCandidateEqualsItsPlainRun(TrainPlan plan, int count) {
+        TrainingRun.Result searched = new TrainingRun(plan, data(plan.config())).run(Progress.NONE);
+        Metric metric = plan.search().settings().metric();
         SearchSummary summary = searched.search().summary();
-        assertThat(summary.candidates()).hasSize(12);
-        for (int i = 0; i < 12; i++) {
+        assertThat(summary.candidates()).hasSize(count);
+        for (int i = 0; i < count; i++) {
             TrainConfig candidate = plan.search().configs().get(i);
             TrainingRun.Result plain = new TrainingRun(candidate, data(candidate)).run(Progress.NONE);
-            MetricSummary expected = plain.cv().get(Metric.BALANCED_ACCURACY);
+            MetricSummary expected = plain.cv().get(metric);
             // exact: the same folds, seeds and fits, whatever the sharing and the thread count
             assertThat(summary.candidates().get(i).mean()).as("candidate %d", i).isEqualTo(expected.mean());
             assertThat(summary.candidates().get(i).standardError()).as("candidate %d", i).isEqualTo(expected.standardError());

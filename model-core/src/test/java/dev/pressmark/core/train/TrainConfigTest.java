@@ -94,7 +94,7 @@ class TrainConfigTest {
         assertThatThrownBy(() -> TrainConfig.parse("classifier: {kind: forest}", "train.yaml"))
                 .hasMessageEndingWith("classifier.kind must be one of linear-svm, logistic-regression; was \"forest\"");
         assertThatThrownBy(() -> TrainConfig.parse("tokenizer: {kind: bpe}", "train.yaml"))
-                .hasMessageEndingWith("tokenizer.kind must be one of wordpiece, word; was \"bpe\"");
+                .hasMessageEndingWith("tokenizer.kind must be one of wordpiece, words, char-ngrams; was \"bpe\"");
     }
 
     @Test

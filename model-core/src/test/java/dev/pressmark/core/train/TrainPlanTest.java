@@ -60,6 +60,40 @@ class TrainPlanTest {
     }
 
     @Test
+    void a_list_index_picks_a_tokenizer_entry() {
+        TrainPlan plan = TrainPlan.parse("""
+                data: {file: names.csv, text: [name], label: region}
+                tokenizer:
+                  - {kind: wordpiece, vocab_size: 500}
+                  - {kind: char-ngrams, min_n: 1, max_n: 4}
+                search:
+                  grid:
+                    tokenizer.1.max_n: [3, 5]
+                    tokenizer.0.vocab_size: [300]
+                """, "train.yaml");
+        assertThat(plan.search().configs().get(0).tokenizers().get(1).maxN()).isEqualTo(3);
+        assertThat(plan.search().configs().get(1).tokenizers().get(1).maxN()).isEqualTo(5);
+        assertThat(plan.search().configs().get(1).tokenizers().get(0).vocabSize()).isEqualTo(300);
+        assertThatThrownBy(() -> TrainPlan.parse("""
+                tokenizer:
+                  - {kind: wordpiece}
+                  - {kind: char-ngrams}
+                search:
+                  grid:
+                    tokenizer.2.max_n: [3]
+                """, "train.yaml")).hasMessage("train.yaml: line 6: search.grid.tokenizer.2.max_n: tokenizer has 2 entries (0 to 1),"
+                + " so there is no entry 2");
+        assertThatThrownBy(() -> TrainPlan.parse("""
+                tokenizer:
+                  - {kind: wordpiece}
+                search:
+                  grid:
+                    tokenizer.vocab_size: [300]
+                """, "train.yaml")).hasMessage("train.yaml: line 5: search.grid.tokenizer.vocab_size: tokenizer is a list; name an"
+                + " entry by its index, as in tokenizer.0.vocab_size");
+    }
+
+    @Test
     void a_key_left_to_its_default_can_be_searched() {
         TrainPlan plan = parse("search: {grid: {classifier.kind: [linear-svm, logistic-regression]}}\n");
         assertThat(plan.search().configs().get(1).classifier().kind().key()).isEqualTo("logistic-regression");

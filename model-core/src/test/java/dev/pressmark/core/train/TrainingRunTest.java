@@ -81,6 +81,28 @@ class TrainingRunTest {
     }
 
     @Test
+    void with_a_test_file_every_row_of_the_data_trains_and_every_row_of_the_test_file_tests() throws IOException {
+        listings(600, 1);
+        TrainConfig config = config();
+        // Hand-made: two titles whose words belong to their label alone, and two labelled against
+        // their words on purpose, so a model that learned the departments scores exactly 2 of 4.
+        Path testFile = dir.resolve("held-out.csv");
+        Files.writeString(testFile, "title,department\n"
+                + "aquaflow valve pro,plumbing\n"
+                + "voltamp switch kit,electrical\n"
+                + "fernleaf hose pack,plumbing\n"
+                + "aquaflow drain steel,garden\n");
+        LabelledData test = LabelledData.read(testFile, config.data().text(), config.data().label(), false);
+        TrainingRun run = TrainingRun.withTestData(config, data(config), test);
+        TrainingRun.Result result = run.run(Progress.NONE);
+        assertThat(result.trainRows()).hasSize(600).startsWith(0, 1).endsWith(599);
+        assertThat(result.testRows()).containsExactly(600, 601, 602, 603);
+        assertThat(result.test().overall().get(Metric.ACCURACY)).isEqualTo(0.5);
+        assertThat(run.data().labels().subList(600, 604)).containsExactly("plumbing", "electrical", "plumbing", "garden");
+        assertThat(run.data().sha256()).isNotEqualTo(data(config).sha256()).isNotEqualTo(test.sha256());
+    }
+
+    @Test
     void the_result_is_the_same_at_any_thread_count_and_the_bundle_bytes_are_reproducible() throws IOException {
         listings(400, 2);
         TrainConfig two = config();
