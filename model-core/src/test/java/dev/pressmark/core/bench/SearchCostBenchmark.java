@@ -29,7 +29,8 @@ import org.openjdk.jmh.annotations.Warmup;
 /**
  * What a model search costs against one plain run, on 80,000 name-like rows: a grid of 5 values
  * of C x 2 feature settings (max_tokens 500 and 2,000) under 5-fold cross-validation, WordPiece
- * features (vocabulary 2,000), linear SVM with Platt probabilities, at the machine's thread count.
+ * features (vocabulary 2,000) or, with {@code -Dsearch.views=chars}, character 1- to 4-grams with
+ * tf-idf, linear SVM with Platt probabilities, at the machine's thread count.
  *
  * <ul>
  *   <li>{@code plain}: one plain run of one candidate (C = 1, 2,000 features): 5 folds, final fit, test;
@@ -62,7 +63,15 @@ public class SearchCostBenchmark {
 
     static final int ROWS = 80_000;
 
-    private static final String CONFIG = """
+    /** WordPiece features, or with {@code -Dsearch.views=chars} character 1- to 4-grams of each word, tf-idf. */
+    private static final String CONFIG = System.getProperty("search.views", "wordpiece").equals("chars") ? """
+            name: names
+            data: {file: names.csv, text: [name], label: list}
+            tokenizer: [{kind: char-ngrams, min_n: 1, max_n: 4}]
+            features: {max_tokens: 2000, weighting: tfidf, sublinear: true}
+            classifier: {kind: linear-svm, c: 1, probabilities: platt}
+            evaluation: {folds: 5}
+            """ : """
             name: names
             data: {file: names.csv, text: [name], label: list}
             tokenizer: {kind: wordpiece, vocab_size: 2000}
