@@ -29,8 +29,8 @@ import picocli.CommandLine.Option;
             "test once on the held-out part, and write the bundle FILE and its report FILE.html.",
             "The bundle's created time is SOURCE_DATE_EPOCH when set, else the data file's modification time,",
             "so the same config on the same data gives the same bytes.",
-            "With a search section, every candidate of its grid is cross-validated on the training part, the chosen",
-            "one is trained on the whole training part and tested once."
+            "With a search section, the grid's candidates are cross-validated on the training part;",
+            "the chosen one is trained on the whole training part and tested once."
         })
 final class TrainCommand implements Callable<Integer> {
 

@@ -84,6 +84,26 @@ class TrainCommandTest {
         CommandRun run = CommandRun.run(dir, "train", "--config", "bad.yaml");
         assertThat(run.exitCode()).isEqualTo(1);
         assertThat(run.err()).startsWith("pressmark: bad.yaml: line 4: search.grid.classifier.cee = 1: unknown key \"classifier.cee\"");
+        assertThat(dir.resolve("routing.pmb")).doesNotExist();
+    }
+
+    @Test
+    void a_search_with_test_data_chooses_on_the_data_file_and_tests_on_the_test_file() throws IOException {
+        StringBuilder held = new StringBuilder("title,department\n");
+        for (ListingTitles.Listing listing : ListingTitles.generate(300, 11)) {
+            held.append('"').append(listing.title().replace("\"", "\"\"")).append("\",").append(listing.department()).append('\n');
+        }
+        Files.writeString(dir.resolve("held-out.csv"), held);
+        Files.writeString(dir.resolve("search.yaml"), Files.readString(dir.resolve("train.yaml"))
+                + "search: {grid: {classifier.c: [0.1, 1]}}\n");
+        CommandRun run = CommandRun.run(dir, "train", "--config", "search.yaml", "--test-data", "held-out.csv", "--out", "t.pmb");
+        assertThat(run.exitCode()).as(run.err()).isZero();
+        JsonNode manifest = JSON.readTree(CommandRun.run(dir, "inspect", "t.pmb", "--json").out());
+        assertThat(manifest.path("training").path("train_rows").asInt()).isEqualTo(1200);
+        assertThat(manifest.path("search").path("candidates")).hasSize(2);
+    }
+
+    @Test
     void with_test_data_every_data_row_trains_and_the_test_file_is_what_was_tested() throws IOException {
         StringBuilder held = new StringBuilder("title,department\n");
         for (ListingTitles.Listing listing : ListingTitles.generate(300, 11)) {
