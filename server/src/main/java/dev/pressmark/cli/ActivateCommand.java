@@ -2,10 +2,9 @@ package dev.pressmark.cli;
 
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.store.BundleStore;
-import dev.pressmark.store.PromotionCheck;
+import dev.pressmark.store.Promotion;
 import dev.pressmark.store.PromotionPolicy;
 import dev.pressmark.store.ShadowReport;
-import dev.pressmark.store.Version;
 import java.util.Optional;
 import java.util.concurrent.Callable;
 import picocli.CommandLine;
@@ -18,8 +17,8 @@ import picocli.CommandLine.Spec;
 
 /**
  * {@code pressmark activate}: make a version the one served, after the promotion check against
- * the active version ({@link PromotionCheck}); {@code --force --reason} overrides a refusal and
- * records both in the events.
+ * the active version, through the one activation rule ({@link Promotion}); {@code --force --reason}
+ * overrides a refusal and records both in the events.
  */
 @Command(name = "activate", mixinStandardHelpOptions = true, description = {"Make TAG the active version of model NAME.",
     "Refused when TAG's recorded metric is lower than the active version's by more than the margin, or its shadow agreed too rarely,"
@@ -68,19 +67,15 @@ final class ActivateCommand implements Callable<Integer> {
         }
         PromotionPolicy policy = new PromotionPolicy(metric, maxDrop, minAgreement, minSamples);
         try (BundleStore opened = store.open()) {
-            Version candidate = opened.version(name, tag).orElseThrow(() -> new PressmarkException("no-such-version",
-                    "no version " + tag + " of model " + name + " in the store"));
-            PromotionCheck.Outcome outcome = PromotionCheck.check(candidate, opened.activeVersion(name),
-                    ShadowReport.merged(opened.shadowReports(name, Optional.of(tag))), policy);
-            if (!outcome.passed() && !force) {
-                throw new PressmarkException("promotion-refused", "not activating " + name + " " + tag + ": " + outcome.describe()
-                        + " (--force --reason TEXT activates anyway)");
+            Promotion.Result result;
+            try {
+                result = Promotion.activate(opened, new Promotion.Request(name, tag, force, reason, policy, StoreOption.actor()),
+                        ShadowReport.merged(opened.shadowReports(name, Optional.of(tag))));
+            } catch (Promotion.Refused e) {
+                throw new PressmarkException(e.code(), e.getMessage() + " (--force --reason TEXT activates anyway)", e);
             }
-            String why = force ? "forced" + (outcome.passed() ? "" : " past the promotion check (" + outcome.describe() + ")") + ": " + reason
-                    : reason;
-            opened.activate(name, tag, StoreOption.actor(), why);
-            if (!outcome.passed()) {
-                System.out.printf("forced past the promotion check: %s%n", outcome.describe());
+            if (result.forced()) {
+                System.out.printf("forced past the promotion check: %s%n", result.outcome().describe());
             }
         }
         System.out.printf("activated %s %s%n", name, tag);

@@ -27,6 +27,10 @@ final class InputFiles {
 
     private static byte[] read(Path file, long maxBytes, String tooLargeCode, String what) {
         try {
+            if (Files.exists(file) && !Files.isRegularFile(file)) {
+                // a device such as /dev/zero reports size 0 and never ends
+                throw new PressmarkException("not-a-file", file + ": not a regular file (a directory, device or pipe)");
+            }
             long size = Files.size(file);
             if (size > maxBytes) {
                 throw new PressmarkException(tooLargeCode, file + ": " + size + " bytes; " + what + " may have at most " + maxBytes);

@@ -56,7 +56,16 @@ public final class Main {
     static int run(String... args) {
         CommandLine commandLine = commandLineFor(args);
         commandLine.setExecutionExceptionHandler(Main::handleFailure);
-        return commandLine.execute(args);
+        try {
+            return commandLine.execute(args);
+        } catch (OutOfMemoryError e) {
+            // what was being built is garbage once the command's frames are gone, so there is room for one line
+            PrintWriter err = commandLine.getErr();
+            err.println("pressmark: out of memory (" + e.getMessage() + ", maximum heap " + (Runtime.getRuntime().maxMemory() >> 20)
+                    + " MiB): the input is too large for this heap; give the JVM more with -Xmx");
+            err.flush();
+            return EXIT_FAILURE;
+        }
     }
 
     /** The whole command tree, every subcommand in it: what the usage help lists. */

@@ -18,7 +18,8 @@ import picocli.CommandLine.Parameters;
 
 /** {@code pressmark publish}: put a bundle into the store under an immutable tag. */
 @Command(name = "publish", mixinStandardHelpOptions = true,
-        description = "Check a bundle's checksums, signature and contract, and store it under NAME and an immutable TAG.")
+        description = "Check a bundle's checksums, that it loads within the limits, its signature and contract, and store it under NAME and"
+                + " an immutable TAG.")
 final class PublishCommand implements Callable<Integer> {
 
     @Parameters(index = "0", paramLabel = "BUNDLE", description = "The bundle file (.pmb).")
@@ -45,16 +46,17 @@ final class PublishCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        byte[] bytes = InputFiles.readBundle(bundle);
         Optional<Path> signatureFile = signatureFile();
         Optional<String> signatureJson = signatureFile.map(InputFiles::readText);
         try (BundleStore opened = store.open()) {
             Version version;
             try {
-                version = opened.publish(name, tag, bytes, new PublishOptions(signatureJson, allowBreaking), StoreOption.actor());
+                // streamed from the file: a device or a file past the size limit is refused before it is read
+                version = opened.publish(name, tag, bundle, new PublishOptions(signatureJson, allowBreaking), StoreOption.actor());
             } catch (StoreException e) {
                 throw switch (e.code()) {
-                    case StoreException.NOT_A_BUNDLE -> new StoreException(e.code(), bundle + ": " + e.getMessage(), e);
+                    case StoreException.NOT_A_BUNDLE, StoreException.UNUSABLE, StoreException.LIMIT -> e.getMessage().startsWith(bundle + ": ")
+                            ? e : new StoreException(e.code(), bundle + ": " + e.getMessage(), e);
                     case StoreException.BREAKING -> new StoreException(e.code(), e.getMessage() + " (pass --allow-breaking)", e);
                     case StoreException.BAD_SIGNATURE -> new StoreException(e.code(), e.getMessage()
                             + signatureFile.map(f -> " (signature file " + f + ")").orElse(""), e);

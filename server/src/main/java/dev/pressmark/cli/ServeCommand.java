@@ -66,6 +66,10 @@ final class ServeCommand implements Callable<Integer> {
             description = "The share of predict requests, 0 to 1, whose items are compared with the training profile (default: ${DEFAULT-VALUE}; 0 turns it off).")
     double driftSample;
 
+    @Option(names = "--open-metrics", defaultValue = "" + ServerConfig.DEFAULT_OPEN_METRICS,
+            description = "Answer GET /metrics without the reader token, for a scraper (default: it needs the token when one is set).")
+    boolean openMetrics;
+
     @Option(names = "--cors-origin", paramLabel = "ORIGIN",
             description = "Let pages from ORIGIN (scheme://host[:port]) call the service from a browser; repeatable (default: CORS off).")
     List<String> corsOrigins = new ArrayList<>();
@@ -98,7 +102,7 @@ final class ServeCommand implements Callable<Integer> {
                 reader, ServerConfig.DEFAULT_MAX_THREADS, accessLog, maxConcurrent, corsOrigins,
                 maxTokensPerField, requestTimeoutMs,
                 new PromotionPolicy(promotionMetric, promotionMaxDrop, promotionMinAgreement, promotionMinSamples),
-                ServerConfig.DEFAULT_TAP_CAPACITY, driftSample);
+                ServerConfig.DEFAULT_TAP_CAPACITY, driftSample, ServerConfig.defaultBodyBudgetBytes(), openMetrics);
         // A PostgreSQL store that is down does not stop the service: it starts not ready and connects when it can.
         BundleStore opened = ReconnectingStore.open(store.url);
         PressmarkServer server;

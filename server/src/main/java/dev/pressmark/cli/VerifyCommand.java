@@ -10,8 +10,9 @@ import picocli.CommandLine.Parameters;
 
 /** {@code pressmark verify}: recompute every stored checksum; exit 1 when any differs. */
 @Command(name = "verify", mixinStandardHelpOptions = true,
-        description = {"Recompute the SHA-256 of every stored version (or of one model's) and list each mismatch.",
-            "Exits 1 when anything does not match."})
+        description = {"Recompute the SHA-256 of every stored version (or of one model's), load each as a model, and list each mismatch"
+            + " and each version that does not load.",
+            "Exits 1 when anything does not match or does not load."})
 final class VerifyCommand implements Callable<Integer> {
 
     @Parameters(index = "0", arity = "0..1", paramLabel = "NAME", description = "Only this model.")
@@ -29,11 +30,20 @@ final class VerifyCommand implements Callable<Integer> {
         for (VerifyReport.Mismatch mismatch : report.mismatches()) {
             System.out.println("MISMATCH " + mismatch.describe());
         }
+        for (VerifyReport.Unusable unusable : report.unusable()) {
+            System.out.println("UNUSABLE " + unusable.describe());
+        }
         if (report.ok()) {
-            System.out.printf("verified %d version%s: every checksum matches%n", report.checked(), report.checked() == 1 ? "" : "s");
+            System.out.printf("verified %d version%s: every checksum matches and every version loads%n", report.checked(),
+                    report.checked() == 1 ? "" : "s");
             return Main.EXIT_OK;
         }
-        System.err.printf("pressmark: %d of %d versions do not match their recorded SHA-256%n", report.mismatches().size(), report.checked());
+        if (!report.mismatches().isEmpty()) {
+            System.err.printf("pressmark: %d of %d versions do not match their recorded SHA-256%n", report.mismatches().size(), report.checked());
+        }
+        if (!report.unusable().isEmpty()) {
+            System.err.printf("pressmark: %d of %d versions do not load as a model%n", report.unusable().size(), report.checked());
+        }
         return Main.EXIT_FAILURE;
     }
 }

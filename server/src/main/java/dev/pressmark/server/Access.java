@@ -28,15 +28,19 @@ final class Access {
 
     /** A reading endpoint: the reader token, or the admin token, which may do everything. */
     void requireReader(Context ctx) {
-        if (reader.isEmpty()) {
-            return;
-        }
-        Optional<String> token = presented(ctx);
-        boolean allowed = token.map(reader.get()::matches).orElse(false)
-                || token.map(t -> admin.map(a -> a.matches(t)).orElse(false)).orElse(false);
-        if (!allowed) {
+        if (!mayRead(ctx)) {
             throw ApiProblem.unauthorized("this endpoint needs the reader token as \"Authorization: Bearer <token>\"");
         }
+    }
+
+    /** Whether the request may read: no reader token is set, or it presents the reader or the admin token. */
+    boolean mayRead(Context ctx) {
+        if (reader.isEmpty()) {
+            return true;
+        }
+        Optional<String> token = presented(ctx);
+        return token.map(reader.get()::matches).orElse(false)
+                || token.map(t -> admin.map(a -> a.matches(t)).orElse(false)).orElse(false);
     }
 
     private static Optional<String> presented(Context ctx) {

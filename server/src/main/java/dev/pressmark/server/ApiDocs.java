@@ -9,6 +9,7 @@ import io.swagger.v3.oas.models.OpenAPI;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.UncheckedIOException;
+import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
@@ -38,12 +39,14 @@ final class ApiDocs {
     }
 
     private final LiveModels live;
+    private final Access access;
     private final ServiceInfo service;
     private final String rendererDirectory;
     private final AtomicReference<Built> built = new AtomicReference<>();
 
-    ApiDocs(LiveModels live, ServerConfig config) {
+    ApiDocs(LiveModels live, ServerConfig config, Access access) {
         this.live = live;
+        this.access = access;
         this.service = new ServiceInfo(programVersion(), config.readerToken().isPresent());
         this.rendererDirectory = "/META-INF/resources/webjars/swagger-ui/" + rendererVersion() + "/";
     }
@@ -67,12 +70,16 @@ final class ApiDocs {
         }
     }
 
+    /** The document names the models, their labels and input fields: with a reader token set, it is for readers. */
     void json(Context ctx) {
-        ctx.contentType(Requests.JSON).result(current().json());
+        access.requireReader(ctx);
+        ctx.contentType(Requests.JSON).result(current().json().getBytes(StandardCharsets.UTF_8));
     }
 
     void yaml(Context ctx) {
-        ctx.contentType(YAML).result(current().yaml());
+        access.requireReader(ctx);
+        // as bytes: labels and field names may be any text, and a String would go out in ISO-8859-1 for this type
+        ctx.contentType(YAML).result(current().yaml().getBytes(StandardCharsets.UTF_8));
     }
 
     void page(Context ctx) {

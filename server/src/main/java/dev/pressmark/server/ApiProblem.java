@@ -26,6 +26,9 @@ final class ApiProblem extends RuntimeException {
     private final transient List<FieldError> errors;
     /** Further members of the problem detail (RFC 9457 section 3.2), such as the checks that refused a promotion. */
     private transient ObjectNode members;
+    /** A response header the refusal needs, such as {@code Retry-After}; null when none. */
+    private String headerName;
+    private String headerValue;
 
     ApiProblem(int status, String slug, String title, String detail, List<FieldError> errors) {
         super(detail);
@@ -72,6 +75,27 @@ final class ApiProblem extends RuntimeException {
     ApiProblem withMembers(ObjectNode extra) {
         this.members = extra;
         return this;
+    }
+
+    /** The same problem, answered with one more response header. */
+    ApiProblem withHeader(String name, String value) {
+        this.headerName = Objects.requireNonNull(name, "name");
+        this.headerValue = Objects.requireNonNull(value, "value");
+        return this;
+    }
+
+    /** The same problem, carrying the error behind it for the log. */
+    ApiProblem causedBy(Throwable cause) {
+        initCause(cause);
+        return this;
+    }
+
+    String headerName() {
+        return headerName;
+    }
+
+    String headerValue() {
+        return headerValue;
     }
 
     ObjectNode members() {

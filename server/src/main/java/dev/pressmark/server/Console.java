@@ -47,10 +47,10 @@ final class Console {
     }
 
     void register(Javalin app) {
-        app.get("/", this::page);
-        app.get(SCRIPT_PATH, ctx -> asset(ctx, script, "text/javascript; charset=utf-8"));
-        app.get(STYLE_PATH, ctx -> asset(ctx, style, "text/css; charset=utf-8"));
-        app.get(CHARTS_PATH, this::chart);
+        PressmarkServer.readable(app, "/", this::page);
+        PressmarkServer.readable(app, SCRIPT_PATH, ctx -> asset(ctx, script, "text/javascript; charset=utf-8"));
+        PressmarkServer.readable(app, STYLE_PATH, ctx -> asset(ctx, style, "text/css; charset=utf-8"));
+        PressmarkServer.readable(app, CHARTS_PATH, this::chart);
     }
 
     private void page(Context ctx) {
@@ -81,16 +81,16 @@ final class Console {
             String label = ctx.queryParam("label");
             if (label == null || !bundle.labels().contains(label)) {
                 throw ApiProblem.invalidField("label", "must be one of " + String.join(", ", bundle.labels()) + ", was "
-                        + (label == null ? "missing" : "\"" + label + "\""));
+                        + (label == null ? "missing" : Problems.quote(label)));
             }
             String towards = ctx.queryParam("towards");
             if (towards != null && !towards.equals("true") && !towards.equals("false")) {
-                throw ApiProblem.invalidField("towards", "must be true or false, was \"" + towards + "\"");
+                throw ApiProblem.invalidField("towards", "must be true or false, was " + Problems.quote(towards));
             }
             int count = Requests.intQuery(ctx, "count", DEFAULT_FEATURES, 1, MAX_FEATURES);
             svg = HtmlReport.featureBarsSvg(bundle, label, !"false".equals(towards), count);
         } else {
-            throw ApiProblem.invalidField("kind", "must be confusion or features, was " + (kind == null ? "missing" : "\"" + kind + "\""));
+            throw ApiProblem.invalidField("kind", "must be confusion or features, was " + (kind == null ? "missing" : Problems.quote(kind)));
         }
         ctx.header("Cache-Control", "no-cache").contentType("image/svg+xml; charset=utf-8").result(svg);
     }

@@ -32,6 +32,11 @@ final class Deadline {
         return new Deadline(timeoutMs, System.nanoTime());
     }
 
+    /** Milliseconds left before the deadline; 0 or less once it has passed. */
+    long remainingMs() {
+        return timeoutMs - (System.nanoTime() - startNanos) / 1_000_000;
+    }
+
     /** Fails the request when its time is up. */
     void check() {
         long elapsedNanos = System.nanoTime() - startNanos;

@@ -4,6 +4,7 @@ import com.fasterxml.jackson.core.JsonFactory;
 import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.core.JsonToken;
 import java.io.IOException;
+import java.io.Writer;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.HashMap;
@@ -20,6 +21,11 @@ import java.util.Map;
  * whole body is read to its end before any shape error is reported, so a body that is not JSON is
  * always a malformed-JSON problem; a shape error names each bad field, at most
  * {@value #SHOWN_ERRORS} of them, in item order and, inside an item, in the model's field order.
+ *
+ * <p>A text longer than {@code maxFieldChars} is cut while it is read, at the last white space in
+ * its second half where there is one, so that a huge text is never tokenised whole: only its first
+ * tokens are scored anyway. What was cut is counted in white-space separated words, each at least
+ * one token, and reported with the tokens the scorer cuts ({@link Items#cutWords}).
  */
 final class ItemsReader {
 
@@ -28,20 +34,46 @@ final class ItemsReader {
 
     private final JsonFactory factory;
     private final int maxItems;
+    private final int maxFieldChars;
+
+    /**
+     * The items of a body, and per item the words cut from its over-long texts while reading;
+     * {@code cutWords} is null when no text was cut, as it almost never is.
+     */
+    record Items(List<Map<String, String>> list, int[] cutWords) {
+
+        /** Words cut from item {@code i}'s texts while reading. */
+        int cutWords(int i) {
+            return cutWords == null || i >= cutWords.length ? 0 : cutWords[i];
+        }
+    }
 
     ItemsReader(JsonFactory factory, int maxItems) {
+        this(factory, maxItems, Integer.MAX_VALUE);
+    }
+
+    ItemsReader(JsonFactory factory, int maxItems, int maxFieldChars) {
+        if (maxFieldChars < 2) {
+            throw new IllegalArgumentException("maxFieldChars must be >= 2 characters, was " + maxFieldChars);
+        }
         this.factory = factory;
         this.maxItems = maxItems;
+        this.maxFieldChars = maxFieldChars;
     }
 
     /** The items of {@code body}, each mapping every field of {@code inputFields} to its text. */
     List<Map<String, String>> read(byte[] body, List<String> inputFields) throws IOException {
+        return readItems(body, inputFields).list();
+    }
+
+    /** {@link #read}, with what was cut from over-long texts. */
+    Items readItems(byte[] body, List<String> inputFields) throws IOException {
         if (body.length == 0) {
             throw ApiProblem.malformedJson("the body is empty; it must be a JSON object");
         }
         try (JsonParser parser = factory.createParser(body)) {
             ApiProblem shape = null;
-            List<Map<String, String>> items = null;
+            Items items = null;
             JsonToken first = parser.nextToken();
             if (first != JsonToken.START_OBJECT) {
                 parser.skipChildren();
@@ -64,7 +96,7 @@ final class ItemsReader {
     }
 
     /** What the root object held: the items, or the first shape problem found. */
-    private record Shape(List<Map<String, String>> items, ApiProblem problem) {
+    private record Shape(Items items, ApiProblem problem) {
     }
 
     private Shape root(JsonParser parser, List<String> inputFields) throws IOException {
@@ -96,6 +128,7 @@ final class ItemsReader {
         int count = 0;
         String[] texts = new String[inputFields.size()];
         String[] wrongTypes = new String[inputFields.size()];
+        int[] cutWords = null;
         for (JsonToken token; (token = parser.nextToken()) != JsonToken.END_ARRAY; count++) {
             if (count >= maxItems) {
                 // Counted to the end, so that the answer says how many there were; nothing more is kept.
@@ -115,7 +148,17 @@ final class ItemsReader {
                 if (j == null) {
                     parser.skipChildren();
                 } else if (value == JsonToken.VALUE_STRING) {
-                    texts[j] = parser.getText();
+                    if (parser.getTextLength() <= maxFieldChars) {
+                        texts[j] = parser.getText();
+                    } else {
+                        if (cutWords == null) {
+                            cutWords = new int[Math.min(maxItems, 16)];
+                        }
+                        if (count >= cutWords.length) {
+                            cutWords = Arrays.copyOf(cutWords, Math.min(maxItems, Math.max(count + 1, cutWords.length * 2)));
+                        }
+                        texts[j] = cut(parser, count, cutWords);
+                    }
                 } else if (value != JsonToken.VALUE_NULL) {
                     wrongTypes[j] = typeName(value);
                     parser.skipChildren();
@@ -140,7 +183,77 @@ final class ItemsReader {
         if (errorCount > 0) {
             return new Shape(null, ApiProblem.invalid(errorCount + " item field(s) are missing or not strings", errors));
         }
-        return new Shape(items, null);
+        return new Shape(new Items(items, cutWords), null);
+    }
+
+    /** The first {@link #maxFieldChars} or fewer characters of the parser's over-long text; the words after them go into {@code cutWords[item]}. */
+    private String cut(JsonParser parser, int item, int[] cutWords) throws IOException {
+        Cut cut = new Cut(maxFieldChars);
+        // streamed from the parser's buffer: the whole text never becomes one array or string
+        parser.getText(cut);
+        return cut.finish(item, cutWords);
+    }
+
+    /** Keeps a text's first characters and counts the words of the rest as they stream past. */
+    private static final class Cut extends Writer {
+        private final char[] head;
+        private int headLength;
+        private int restWords;
+        private boolean restStarted;
+        private boolean inWord;
+
+        Cut(int maxChars) {
+            this.head = new char[maxChars + 1];
+        }
+
+        @Override
+        public void write(char[] chars, int offset, int length) {
+            int i = offset;
+            int end = offset + length;
+            while (i < end && headLength < head.length) {
+                head[headLength++] = chars[i++];
+            }
+            if (i < end && !restStarted) {
+                restStarted = true;
+                inWord = !Character.isWhitespace(head[head.length - 1]); // a word across the boundary counts once, in the head
+            }
+            for (; i < end; i++) {
+                boolean white = Character.isWhitespace(chars[i]);
+                restWords += !white && !inWord ? 1 : 0;
+                inWord = !white;
+            }
+        }
+
+        /** The kept text, cut at the last white space in its second half where there is one; adds the words cut to {@code cutWords[item]}. */
+        String finish(int item, int[] cutWords) {
+            int at = head.length - 1;
+            int space = at;
+            while (space > at / 2 && !Character.isWhitespace(head[space])) {
+                space--;
+            }
+            if (Character.isWhitespace(head[space])) {
+                at = space;
+            } else if (Character.isHighSurrogate(head[at - 1])) {
+                at--; // never half a character
+            }
+            int words = restWords;
+            boolean word = false;
+            for (int i = at; i < headLength; i++) {
+                boolean white = Character.isWhitespace(head[i]);
+                words += !white && !word ? 1 : 0;
+                word = !white;
+            }
+            cutWords[item] += words;
+            return new String(head, 0, at);
+        }
+
+        @Override
+        public void flush() {
+        }
+
+        @Override
+        public void close() {
+        }
     }
 
     private static int addError(List<ApiProblem.FieldError> errors, int errorCount, String field, String message) {

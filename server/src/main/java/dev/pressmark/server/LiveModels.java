@@ -58,16 +58,15 @@ final class LiveModels implements AutoCloseable {
     private final Thread follower;
     private volatile boolean stopped;
 
-    private LiveModels(BundleStore store, Metrics metrics) {
+    private LiveModels(BundleStore store, Metrics metrics, Supervisor supervisor) {
         this.store = store;
         this.metrics = metrics;
-        this.follower = new Thread(this::follow, "pressmark-change-feed");
-        this.follower.setDaemon(true);
+        this.follower = supervisor.thread("pressmark-change-feed", this::follow);
     }
 
     /** Loads every model's active version, then starts following the change feed. */
-    static LiveModels start(BundleStore store, Metrics metrics) {
-        LiveModels models = new LiveModels(store, metrics);
+    static LiveModels start(BundleStore store, Metrics metrics, Supervisor supervisor) {
+        LiveModels models = new LiveModels(store, metrics, supervisor);
         models.follower.start();
         return models;
     }
@@ -160,10 +159,13 @@ final class LiveModels implements AutoCloseable {
             metrics.serving(model, loaded.tag());
             failures.remove(model);
             LOG.info("serving {} {} (sha256 {}), loaded in {} ms", model, loaded.tag(), loaded.sha256(), (System.nanoTime() - start) / 1_000_000);
-        } catch (RuntimeException e) {
-            failures.put(model, new LoadFailure(version.tag(), e.getMessage()));
+        } catch (RuntimeException | OutOfMemoryError e) {
+            // a bundle too big for this heap fails its own load, not the change feed that asked for it: the arrays it
+            // was building are garbage once this frame is gone
+            String why = e instanceof OutOfMemoryError ? "not enough memory to load it (" + e.getMessage() + ")" : String.valueOf(e.getMessage());
+            failures.put(model, new LoadFailure(version.tag(), why));
             LOG.warn("cannot load {} {}; {}: {}", model, version.tag(),
-                    serving == null ? "nothing serves it" : "still serving " + serving.tag(), e.getMessage());
+                    serving == null ? "nothing serves it" : "still serving " + serving.tag(), why);
         }
     }
 
@@ -228,6 +230,8 @@ final class LiveModels implements AutoCloseable {
             return new Readiness(false, storeProblem, activeTags, serving, failed);
         }
         try {
+            // a real read of every metadata row: a damaged page under them fails here, not first at /versions
+            store.probe();
             for (ModelSummary model : store.models()) {
                 if (model.activeTag().isEmpty()) {
                     continue;

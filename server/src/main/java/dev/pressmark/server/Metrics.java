@@ -44,6 +44,7 @@ final class Metrics implements AutoCloseable {
     static final String TAP_LISTENER_FAILURES = "pressmark.tap.listener.failures";
     static final String SHADOW_SAMPLES = "pressmark.shadow.samples";
     static final String SHADOW_DROPPED = "pressmark.shadow.dropped";
+    static final String BACKGROUND_RESTARTS = "pressmark.background.restarts";
     static final String DRIFT_PSI = "pressmark.drift.psi";
     static final String DRIFT_UNKNOWN_RATE = "pressmark.drift.unknown.rate";
     static final String DRIFT_WINDOW_ITEMS = "pressmark.drift.window.items";
@@ -173,6 +174,15 @@ final class Metrics implements AutoCloseable {
         Counter.builder(TAP_LISTENER_FAILURES)
                 .description("failures of traffic listeners, by exception kind; requests are never affected")
                 .tags("kind", kind)
+                .register(registry)
+                .increment();
+    }
+
+    /** A background loop failed and is being run again. */
+    void backgroundRestart(String thread) {
+        Counter.builder(BACKGROUND_RESTARTS)
+                .description("background loops (change feed, traffic tap, shadow poller) that failed and were run again, by thread")
+                .tags("thread", thread)
                 .register(registry)
                 .increment();
     }

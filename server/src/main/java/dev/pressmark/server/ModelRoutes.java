@@ -8,7 +8,7 @@ import dev.pressmark.core.bundle.Prediction;
 import dev.pressmark.store.Activation;
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.ModelSummary;
-import dev.pressmark.store.PromotionCheck;
+import dev.pressmark.store.Promotion;
 import dev.pressmark.store.PromotionPolicy;
 import dev.pressmark.store.ShadowStatus;
 import dev.pressmark.store.PublishOptions;
@@ -41,9 +41,11 @@ final class ModelRoutes {
     private final ShadowScoring shadows;
     private final PromotionPolicy promotion;
     private final DriftWatch drift;
+    private final Supervisor supervisor;
 
     ModelRoutes(BundleStore store, LiveModels live, Requests requests, Views views, Access access, Metrics metrics, long requestTimeoutMs,
-            TrafficTap tap, ShadowScoring shadows, PromotionPolicy promotion, DriftWatch drift) {
+            TrafficTap tap, ShadowScoring shadows, PromotionPolicy promotion, DriftWatch drift, Supervisor supervisor) {
+        this.supervisor = supervisor;
         this.requestTimeoutMs = requestTimeoutMs;
         this.store = store;
         this.live = live;
@@ -63,14 +65,26 @@ final class ModelRoutes {
 
     void ready(Context ctx) {
         LiveModels.Readiness readiness = live.readiness();
-        ObjectNode body = views.object().put("status", readiness.ready() ? "ready" : "not-ready");
+        Map<String, String> down = supervisor.down();
+        boolean ready = readiness.ready() && down.isEmpty();
+        ObjectNode body = views.object().put("status", ready ? "ready" : "not-ready");
+        if (!access.mayRead(ctx)) {
+            // a probe needs the status only; which models, versions and failures are there is for readers
+            ctx.status(ready ? 200 : 503).json(body);
+            return;
+        }
         body.put("store", readiness.storeProblem().map(p -> "down: " + p).orElse("up"));
         ObjectNode models = body.putObject("models");
         readiness.active().forEach((model, tag) -> models.putObject(model).put("active", tag));
         readiness.serving().forEach((model, tag) -> entry(models, model).put("serving", tag));
         readiness.failures().forEach((model, failure) -> entry(models, model)
                 .put("failed_tag", failure.tag()).put("error", failure.message()));
-        ctx.status(readiness.ready() ? 200 : 503).json(body);
+        if (!down.isEmpty()) {
+            // a background loop that keeps failing: drift watch, shadow scoring or the change feed does not work here
+            ObjectNode background = body.putObject("background");
+            down.forEach(background::put);
+        }
+        ctx.status(ready ? 200 : 503).json(body);
     }
 
     private static ObjectNode entry(ObjectNode models, String name) {
@@ -130,7 +144,8 @@ final class ModelRoutes {
     /** Answers a predict request; one the active version answered goes to the traffic tap too, when a listener wants the model. */
     private void predict(Context ctx, String name, LiveVersion served, Deadline deadline, boolean tapped) throws IOException {
         ctx.attribute(RequestRecorder.VERSION, served.tag());
-        List<Map<String, String>> items = requests.items(ctx, served.bundle().inputFields());
+        ItemsReader.Items read = requests.items(ctx, served.bundle().inputFields(), deadline);
+        List<Map<String, String>> items = read.list();
         ctx.attribute(RequestRecorder.ITEMS, items.size());
         // each item is scored on its own, so scoring in batches gives the same predictions and a place to stop
         List<Prediction> predictions = new ArrayList<>(items.size());
@@ -140,11 +155,21 @@ final class ModelRoutes {
                     requests.maxTokensPerField()));
         }
         deadline.check();
+        if (read.cutWords() != null) {
+            for (int i = 0; i < predictions.size(); i++) {
+                predictions.set(i, withCut(predictions.get(i), read.cutWords(i)));
+            }
+        }
         metrics.predictions(name, served.tag(), predictions);
         answer(ctx, views.predictions(name, served, predictions));
         if (tapped && tap.wants(name)) {
             tap.offer(name, served.tag(), served.bundle(), items, predictions);
         }
+    }
+
+    /** A prediction whose text was also cut while it was read, by {@code cutWords} words (each at least a token). */
+    private static Prediction withCut(Prediction p, int cutWords) {
+        return cutWords == 0 ? p : new Prediction(p.label(), p.score(), p.probabilities(), p.unknownTokens(), p.truncatedTokens() + cutWords);
     }
 
     void drift(Context ctx) {
@@ -162,12 +187,15 @@ final class ModelRoutes {
         LiveVersion served = activeLive(name);
         ctx.attribute(RequestRecorder.VERSION, served.tag());
         Bundle bundle = served.bundle();
-        List<Map<String, String>> items = requests.items(ctx, bundle.inputFields());
+        ItemsReader.Items read = requests.items(ctx, bundle.inputFields(), deadline);
+        List<Map<String, String>> items = read.list();
         ctx.attribute(RequestRecorder.ITEMS, items.size());
         List<Explanation> explanations = new ArrayList<>(items.size());
-        for (Map<String, String> item : items) {
+        for (int i = 0; i < items.size(); i++) {
             deadline.check();
-            explanations.add(bundle.explain(item, k, requests.maxTokensPerField()));
+            Explanation e = bundle.explain(items.get(i), k, requests.maxTokensPerField());
+            int cut = read.cutWords(i);
+            explanations.add(cut == 0 ? e : new Explanation(withCut(e.prediction(), cut), e.intercept(), e.contributions(), e.featuresUsed()));
         }
         answer(ctx, views.explanations(name, served, explanations));
     }
@@ -192,29 +220,29 @@ final class ModelRoutes {
     }
 
     /**
-     * Activates a version after the promotion check ({@link PromotionCheck}) against the active
-     * one; a refusal is a 409 whose {@code checks} member lists each failed check, unless the body
-     * says {@code "force": true} with a {@code reason}, which then goes into the events with the
-     * failed checks.
+     * Activates a version through the one activation rule ({@link Promotion}): the promotion check
+     * against the active version, loading it here, and a compare-and-set on the active tag. A
+     * refusal is a 409 whose {@code checks} member lists each failed check, unless the body says
+     * {@code "force": true} with a {@code reason}, which then goes into the events with the failed
+     * checks.
      */
     void activate(Context ctx) throws IOException {
         access.requireAdmin(ctx);
         String name = ctx.pathParam("name");
         Requests.ActivateBody body = Requests.activateBody(requests.jsonBody(ctx));
-        Version candidate = storedVersion(name, body.tag());
-        PromotionCheck.Outcome outcome = PromotionCheck.check(candidate, store.activeVersion(name),
-                shadows.status(name, Optional.of(body.tag())).map(ShadowStatus::summary), promotion);
-        if (!outcome.passed() && !body.force()) {
-            throw ApiProblem.conflict("promotion-refused", "Promotion check failed", outcome.describe()
-                    + "; send \"force\": true with a \"reason\" to activate anyway").withMembers(views.promotion(outcome));
+        storedVersion(name, body.tag());
+        String reason = body.force() || !body.reason().isEmpty() ? body.reason() : "activated over HTTP";
+        Promotion.Result result;
+        try {
+            result = Promotion.activate(store, new Promotion.Request(name, body.tag(), body.force(), reason, promotion, ACTOR),
+                    shadows.status(name, Optional.of(body.tag())).map(ShadowStatus::summary));
+        } catch (Promotion.Refused e) {
+            throw ApiProblem.conflict(Promotion.Refused.CODE, "Promotion check failed", e.outcome().describe()
+                    + "; send \"force\": true with a \"reason\" to activate anyway").withMembers(views.promotion(e.outcome()));
         }
-        String reason = body.force()
-                ? "forced" + (outcome.passed() ? "" : " past the promotion check (" + outcome.describe() + ")") + ": " + body.reason()
-                : body.reason().isEmpty() ? "activated over HTTP" : body.reason();
-        Activation activation = store.activate(name, body.tag(), ACTOR, reason);
         shadows.sync();
-        ObjectNode answer = answerActivation(name, activation);
-        answer.set("promotion_check", views.promotion(outcome).put("forced", body.force()));
+        ObjectNode answer = answerActivation(name, result.activation());
+        answer.set("promotion_check", views.promotion(result.outcome()).put("forced", body.force()));
         ctx.json(answer);
     }
 

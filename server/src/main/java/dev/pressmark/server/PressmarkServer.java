@@ -1,5 +1,6 @@
 package dev.pressmark.server;
 
+import com.fasterxml.jackson.core.ErrorReportConfiguration;
 import com.fasterxml.jackson.core.JsonFactory;
 import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.core.StreamWriteFeature;
@@ -9,6 +10,7 @@ import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.drift.DriftWindow;
 import dev.pressmark.store.BundleStore;
 import io.javalin.Javalin;
+import io.javalin.http.Handler;
 import io.javalin.http.HttpResponseException;
 import io.javalin.json.JavalinJackson;
 import io.javalin.util.JavalinBindException;
@@ -28,6 +30,12 @@ public final class PressmarkServer implements AutoCloseable {
     /** How long start-up waits for the active models before listening anyway (and reporting not ready). */
     private static final Duration INITIAL_LOAD_WAIT = Duration.ofSeconds(60);
     private static final int MIN_THREADS = 4;
+    /**
+     * Threads kept beyond the connector's own and the model requests' bound, for everything else:
+     * health, readiness, metrics, docs and reads of the store. Model requests that wait for a slow
+     * body hold their admission slot, never these.
+     */
+    static final int OTHER_THREADS = 4;
     private static final int IDLE_TIMEOUT_MS = 60_000;
     /** How long stopping waits for sampled requests still queued for the shadow candidates. */
     private static final long TAP_DRAIN_MS = 1_000;
@@ -37,8 +45,10 @@ public final class PressmarkServer implements AutoCloseable {
     private final Metrics metrics;
     private final TrafficTap tap;
     private final ShadowScoring shadows;
+    private final Supervisor supervisor;
 
-    private PressmarkServer(Javalin app, LiveModels live, Metrics metrics, TrafficTap tap, ShadowScoring shadows) {
+    private PressmarkServer(Javalin app, LiveModels live, Metrics metrics, TrafficTap tap, ShadowScoring shadows, Supervisor supervisor) {
+        this.supervisor = supervisor;
         this.app = app;
         this.live = live;
         this.metrics = metrics;
@@ -54,7 +64,10 @@ public final class PressmarkServer implements AutoCloseable {
      * reads back to the same double: every predict answer carries a score and a probability per label.
      */
     static ObjectMapper jsonMapper() {
-        JsonFactory factory = JsonFactory.builder().enable(StreamWriteFeature.USE_FAST_DOUBLE_WRITER).build();
+        // A parse error quotes at most a short prefix of the bad token, and never the body around it.
+        JsonFactory factory = JsonFactory.builder().enable(StreamWriteFeature.USE_FAST_DOUBLE_WRITER)
+                .errorReportConfiguration(ErrorReportConfiguration.builder().maxErrorTokenLength(Problems.QUOTED_CHARS).maxRawContentLength(0).build())
+                .build();
         return new ObjectMapper(factory).enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS).enable(JsonParser.Feature.STRICT_DUPLICATE_DETECTION);
     }
 
@@ -65,29 +78,33 @@ public final class PressmarkServer implements AutoCloseable {
         Metrics metrics = new Metrics();
         // The models load on the follower's thread while the HTTP side starts on this one; start-up waits for both.
         // A request that comes in between loads the model it names itself, and /health/ready says 503 until then.
-        LiveModels live = LiveModels.start(store, metrics);
+        Supervisor supervisor = new Supervisor(metrics);
+        LiveModels live = LiveModels.start(store, metrics, supervisor);
         Access access = new Access(config.adminToken(), config.readerToken());
-        TrafficTap tap = new TrafficTap(config.tapCapacity(), metrics);
-        ShadowScoring shadows = new ShadowScoring(store, live, metrics, config.maxTokensPerField());
+        TrafficTap tap = new TrafficTap(config.tapCapacity(), metrics, supervisor);
+        ShadowScoring shadows = new ShadowScoring(store, live, metrics, config.maxTokensPerField(), supervisor);
         tap.register(shadows);
         DriftWatch drift = new DriftWatch(live, metrics, config.driftSample(), DriftWindow.DEFAULT_CAPACITY);
         if (config.driftSample() > 0.0) {
             tap.register(drift);
         }
-        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config), new Views(json), access, metrics,
-                config.requestTimeoutMs(), tap, shadows, config.promotion(), drift);
+        Bodies bodies = new Bodies(new BodyBudget(config.bodyBudgetBytes()));
+        ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config, bodies), new Views(json), access, metrics,
+                config.requestTimeoutMs(), tap, shadows, config.promotion(), drift, supervisor);
         RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
         Problems problems = new Problems(json);
-        Admission admission = new Admission(config.maxConcurrent());
-        ApiDocs docs = new ApiDocs(live, config);
+        Admission admission = new Admission(config.maxConcurrent(), bodies);
+        ApiDocs docs = new ApiDocs(live, config, access);
+        QueuedThreadPool pool = new QueuedThreadPool(config.maxThreads(), Math.min(MIN_THREADS, config.maxThreads()), IDLE_TIMEOUT_MS);
+        pool.setName("pressmark-http");
+        // Reserved threads wait for the connector's own work and take nothing from the queue, where health checks wait.
+        pool.setReservedThreads(0);
         Javalin app = Javalin.create(c -> {
             c.showJavalinBanner = false;
             c.useVirtualThreads = false;
             c.jsonMapper(new JavalinJackson(json, false));
             // Bodies are read and bounded by Requests; this only keeps the framework's own reads in line.
             c.http.maxRequestSize = Math.max(config.maxJsonBytes(), config.maxBundleBytes());
-            QueuedThreadPool pool = new QueuedThreadPool(config.maxThreads(), Math.min(MIN_THREADS, config.maxThreads()), IDLE_TIMEOUT_MS);
-            pool.setName("pressmark-http");
             c.jetty.threadPool = pool;
             c.router.ignoreTrailingSlashes = true;
             // A known path with the wrong method is a 405 naming the allowed methods, not a 404.
@@ -102,6 +119,10 @@ public final class PressmarkServer implements AutoCloseable {
             }
             c.requestLogger.http(recorder);
         });
+        if (!config.corsOrigins().isEmpty()) {
+            // after the CORS plugin's own before-handler, which marks a foreign origin but lets the endpoint run
+            app.before(new Origins(config.corsOrigins())::check);
+        }
         app.exception(Exception.class, problems::handle);
         // The framework's own refusals (405 among them) go to its plain-text mapper unless their type is named here.
         app.exception(HttpResponseException.class, problems::handle);
@@ -112,28 +133,34 @@ public final class PressmarkServer implements AutoCloseable {
                 problems.handle(ApiProblem.notFound("no-such-endpoint", "no endpoint " + ctx.method() + " " + ctx.path()), ctx);
             }
         });
-        app.get("/health", routes::health);
-        app.get("/health/ready", routes::ready);
-        app.get("/models", routes::models);
-        app.get("/models/{name}", routes::model);
-        app.get("/models/{name}/versions", routes::versions);
-        app.get("/models/{name}/drift", routes::drift);
-        app.get("/models/{name}/versions/{tag}", routes::version);
+        readable(app, "/health", routes::health);
+        readable(app, "/health/ready", routes::ready);
+        readable(app, "/models", routes::models);
+        readable(app, "/models/{name}", routes::model);
+        readable(app, "/models/{name}/versions", routes::versions);
+        readable(app, "/models/{name}/drift", routes::drift);
+        readable(app, "/models/{name}/versions/{tag}", routes::version);
         app.put("/models/{name}/versions/{tag}", admission.bounded(routes::publish));
         app.post("/models/{name}/predict", admission.bounded(routes::predictActive));
         app.post("/models/{name}/versions/{tag}/predict", admission.bounded(routes::predictNamed));
         app.post("/models/{name}/explain", admission.bounded(routes::explain));
         app.put("/models/{name}/active", admission.bounded(routes::activate));
         app.put("/models/{name}/shadow", admission.bounded(routes::startShadow));
-        app.get("/models/{name}/shadow", routes::shadow);
+        readable(app, "/models/{name}/shadow", routes::shadow);
         app.delete("/models/{name}/shadow", admission.bounded(routes::stopShadow));
         app.post("/models/{name}/rollback", admission.bounded(routes::rollback));
-        app.get("/metrics", ctx -> ctx.contentType(Metrics.CONTENT_TYPE).result(metrics.scrape()));
+        readable(app, "/metrics", ctx -> {
+            // per-label prediction counts and the served versions are for readers, unless opened to a scraper
+            if (!config.openMetrics()) {
+                access.requireReader(ctx);
+            }
+            ctx.contentType(Metrics.CONTENT_TYPE).result(metrics.scrape());
+        });
         new Console(store, live, access, config.readerToken().isPresent()).register(app);
-        app.get("/openapi.json", docs::json);
-        app.get("/openapi.yaml", docs::yaml);
-        app.get("/docs", docs::page);
-        app.get(ApiDocs.ASSETS + "{file}", docs::asset);
+        readable(app, "/openapi.json", docs::json);
+        readable(app, "/openapi.yaml", docs::yaml);
+        readable(app, "/docs", docs::page);
+        readable(app, ApiDocs.ASSETS + "{file}", docs::asset);
         try {
             app.start(config.host(), config.port());
         } catch (JavalinBindException e) {
@@ -148,6 +175,10 @@ public final class PressmarkServer implements AutoCloseable {
             metrics.close();
             throw e;
         }
+        // The connector's acceptors and selectors lease threads of their own; the model requests may hold
+        // maxConcurrent more; what is left over serves everything else, whatever the model requests do.
+        int leased = pool.getThreadPoolBudget() == null ? 0 : pool.getThreadPoolBudget().getLeasedThreads();
+        pool.setMaxThreads(Math.max(config.maxThreads(), leased + config.maxConcurrent() + OTHER_THREADS));
         try {
             live.awaitInitialLoad(INITIAL_LOAD_WAIT);
         } catch (InterruptedException e) {
@@ -159,11 +190,23 @@ public final class PressmarkServer implements AutoCloseable {
             throw new IllegalStateException("interrupted while loading the active models", e);
         }
         shadows.start();
-        PressmarkServer server = new PressmarkServer(app, live, metrics, tap, shadows);
+        PressmarkServer server = new PressmarkServer(app, live, metrics, tap, shadows, supervisor);
         LOG.info("listening on http://{}:{} (store {}; admin endpoints {}; reading endpoints {})", config.host(), server.port(),
                 store.describe(), config.adminToken().isPresent() ? "enabled" : "disabled",
                 config.readerToken().isPresent() ? "need the reader token" : "open");
         return server;
+    }
+
+    /**
+     * Registers {@code handler} for GET and for HEAD, which must answer with GET's status and
+     * headers and no body (RFC 9110, section 9.3.2; Jetty drops the body of a HEAD answer). The
+     * framework's own HEAD answer is a bare 200 whatever GET would say, so a load balancer that
+     * probes with HEAD would keep a replica that is not ready in rotation.
+     */
+    static void readable(Javalin app, String path, Handler handler) {
+        Handler guarded = Admission.guarded(handler);
+        app.get(path, guarded);
+        app.head(path, guarded);
     }
 
     /** The port listened on; the one picked when the config asked for 0. */
@@ -174,6 +217,11 @@ public final class PressmarkServer implements AutoCloseable {
     /** The tap that answered predict requests pass through: a seam for the tests and for other listeners. */
     TrafficTap tap() {
         return tap;
+    }
+
+    /** The supervisor of the background loops; for tests in this package. */
+    Supervisor supervisor() {
+        return supervisor;
     }
 
     ShadowScoring shadows() {

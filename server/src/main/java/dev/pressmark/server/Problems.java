@@ -1,6 +1,8 @@
 package dev.pressmark.server;
 
 import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.core.StreamReadConstraints;
+import com.fasterxml.jackson.core.exc.StreamConstraintsException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ArrayNode;
@@ -11,8 +13,10 @@ import dev.pressmark.core.drift.DriftException;
 import dev.pressmark.store.StoreException;
 import io.javalin.http.Context;
 import io.javalin.http.HttpResponseException;
+import java.nio.charset.StandardCharsets;
 import java.util.List;
 import java.util.Map;
+import java.util.regex.Pattern;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
@@ -34,6 +38,9 @@ final class Problems {
     /** As long as the server waits at most between two attempts to reach a store that is down. */
     static final String STORE_RETRY_AFTER_SECONDS = String.valueOf(ReconnectingStore.MAX_RETRY_MS / 1000);
 
+    /** How much of a bad value a problem detail repeats: enough to recognise it, never the whole of a huge one. */
+    static final int QUOTED_CHARS = 40;
+
     private static final Logger LOG = LoggerFactory.getLogger(Problems.class);
 
     private final ObjectMapper json;
@@ -46,6 +53,7 @@ final class Problems {
         ApiProblem problem = toProblem(failure);
         // A refusal for load is expected behaviour, not a failure to investigate.
         if (problem.status() >= 500 && !"busy".equals(problem.slug()) && !STORE_UNAVAILABLE.equals(problem.slug())
+                && !BodyBudget.SPENT.equals(problem.slug())
                 && !Deadline.EXCEEDED.equals(problem.slug())) {
             LOG.error("{} {} failed", ctx.method(), ctx.path(), failure);
         }
@@ -53,7 +61,7 @@ final class Problems {
         body.put("type", TYPE_PREFIX + problem.slug());
         body.put("title", problem.title());
         body.put("status", problem.status());
-        body.put("detail", problem.getMessage());
+        body.put("detail", scrub(problem.getMessage()));
         body.put("instance", ctx.path());
         if (!problem.errors().isEmpty()) {
             ArrayNode errors = body.putArray("errors");
@@ -71,13 +79,53 @@ final class Problems {
                 }
             }
         }
+        if (problem.headerName() != null) {
+            ctx.header(problem.headerName(), problem.headerValue());
+        }
         if (problem.status() == 401) {
             ctx.header("WWW-Authenticate", "Bearer");
         }
         if (failure instanceof HttpResponseException e && e.getStatus() == 405 && e.getDetails().get("availableMethods") != null) {
             ctx.header("Allow", e.getDetails().get("availableMethods"));
         }
-        ctx.status(problem.status()).contentType(CONTENT_TYPE).result(body.toString());
+        // As bytes: a String result goes out in the response's charset, which for this type Jetty takes to be ISO-8859-1.
+        ctx.status(problem.status()).contentType(CONTENT_TYPE).result(body.toString().getBytes(StandardCharsets.UTF_8));
+    }
+
+    /** {@code value} in double quotes, cut to its first {@value #QUOTED_CHARS} characters with a note of its length when longer. */
+    static String quote(String value) {
+        if (value.length() <= QUOTED_CHARS) {
+            return "\"" + value + "\"";
+        }
+        int end = Character.isHighSurrogate(value.charAt(QUOTED_CHARS - 1)) ? QUOTED_CHARS - 1 : QUOTED_CHARS;
+        return "\"" + value.substring(0, end) + "...\" (" + value.length() + " characters)";
+    }
+
+    /**
+     * Which of the JSON reader's limits a body passed, in the service's words: the reader's own
+     * message names the class and method that hold the limit.
+     */
+    private static String beyondLimit(StreamConstraintsException e) {
+        String message = String.valueOf(e.getOriginalMessage());
+        StreamReadConstraints limits = StreamReadConstraints.defaults();
+        if (message.startsWith("Number value length")) {
+            return "a number has more than the " + limits.getMaxNumberLength() + " characters allowed";
+        }
+        if (message.startsWith("String value length")) {
+            return "a string has more than the " + limits.getMaxStringLength() + " characters allowed";
+        }
+        if (message.startsWith("Document nesting depth")) {
+            return "arrays and objects are nested deeper than the " + limits.getMaxNestingDepth() + " levels allowed";
+        }
+        return "a value or the document passes one of the reader's limits (length, nesting)";
+    }
+
+    /** Java class names (a package path ending in a capitalised name) and code quoted in backticks: neither belongs in an answer. */
+    private static final Pattern INTERNALS = Pattern.compile("`[^`]*`|\\b(?:[a-z][a-z0-9_]*\\.){2,}[A-Z][A-Za-z0-9_$]*(?:\\.[a-z][A-Za-z0-9_]*\\(\\))?");
+
+    /** {@code detail} with any library internal a message brought along taken out. */
+    static String scrub(String detail) {
+        return detail == null ? "" : INTERNALS.matcher(detail).replaceAll("(internal)");
     }
 
     static ApiProblem toProblem(Exception failure) {
@@ -92,6 +140,9 @@ final class Problems {
         }
         if (failure instanceof BundleException e) {
             return new ApiProblem(400, "not-a-bundle", "Not a usable bundle", e.getMessage(), List.of());
+        }
+        if (failure instanceof StreamConstraintsException e) {
+            return ApiProblem.malformedJson("the body is not valid JSON for this server: " + beyondLimit(e));
         }
         if (failure instanceof JsonProcessingException e) {
             return ApiProblem.malformedJson("the body is not valid JSON: " + e.getOriginalMessage());
@@ -112,6 +163,9 @@ final class Problems {
             case StoreException.INVALID_NAME -> ApiProblem.invalidField("name", e.getMessage());
             case StoreException.INVALID_TAG -> ApiProblem.invalidField("tag", e.getMessage());
             case StoreException.NOT_A_BUNDLE -> new ApiProblem(400, "not-a-bundle", "Not a usable bundle", e.getMessage(), List.of());
+            case StoreException.UNUSABLE -> new ApiProblem(422, e.code(), "Bundle does not load", e.getMessage(), List.of());
+            case StoreException.LIMIT -> new ApiProblem(422, e.code(), "Bundle beyond a limit", e.getMessage(), List.of());
+            case StoreException.ACTIVE_CHANGED -> new ApiProblem(409, e.code(), "Active version changed", e.getMessage(), List.of());
             case StoreException.TAG_EXISTS -> new ApiProblem(409, "tag-exists", "Tag already published", e.getMessage(), List.of());
             case StoreException.INVALID_FRACTION -> ApiProblem.invalidField("fraction", e.getMessage());
             case StoreException.NO_ACTIVE, StoreException.SHADOW_OF_ACTIVE ->

@@ -5,10 +5,8 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.store.Shadow;
 import dev.pressmark.openapi.ApiDocument;
 import io.javalin.http.Context;
-import java.io.ByteArrayOutputStream;
 import java.io.CharConversionException;
 import java.io.IOException;
-import java.io.InputStream;
 import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
 import java.util.Base64;
@@ -24,18 +22,28 @@ final class Requests {
 
     static final String JSON = "application/json";
     static final Set<String> BUNDLE_TYPES = Set.of("application/octet-stream", "application/zip");
+    /**
+     * A text is cut while it is read after this many characters per token scored: a token of
+     * ordinary text takes 4 to 10 characters with its space, so the cut text still holds every
+     * token the scorer keeps; only a text of words longer than this (scored as unknown tokens)
+     * keeps fewer.
+     */
+    static final int CHARS_PER_SCORED_TOKEN = 64;
     /** Enough for a sentence or two in the events. */
     static final int MAX_REASON_CHARS = 1_000;
 
     private final ObjectMapper json;
+    private final Bodies bodies;
     private final ItemsReader items;
     private final long maxJsonBytes;
     private final long maxBundleBytes;
     private final int maxTokensPerField;
 
-    Requests(ObjectMapper json, ServerConfig config) {
+    Requests(ObjectMapper json, ServerConfig config, Bodies bodies) {
         this.json = json;
-        this.items = new ItemsReader(json.getFactory(), config.maxItems());
+        this.bodies = bodies;
+        this.items = new ItemsReader(json.getFactory(), config.maxItems(),
+                (int) Math.min(Integer.MAX_VALUE, (long) config.maxTokensPerField() * CHARS_PER_SCORED_TOKEN));
         this.maxJsonBytes = config.maxJsonBytes();
         this.maxBundleBytes = config.maxBundleBytes();
         this.maxTokensPerField = config.maxTokensPerField();
@@ -49,7 +57,7 @@ final class Requests {
     /** The body as JSON, after checking that it says it is JSON and fits the JSON body limit. */
     JsonNode jsonBody(Context ctx) throws IOException {
         requireType(ctx, Set.of(JSON));
-        return parseJson(body(ctx, maxJsonBytes));
+        return parseJson(bodies.read(ctx, maxJsonBytes, null));
     }
 
     /** A body already read within its limit, as JSON; a body that is not a JSON text is a 400. */
@@ -75,19 +83,26 @@ final class Requests {
     /** The body as a bundle file, up to the bundle body limit. */
     byte[] bundleBody(Context ctx) {
         requireType(ctx, BUNDLE_TYPES);
-        return body(ctx, maxBundleBytes);
+        return bodies.read(ctx, maxBundleBytes, null);
     }
 
-    /** The {@code items} of a predict or explain request, each mapping every input field of the model to its text. */
-    List<Map<String, String>> items(Context ctx, List<String> inputFields) throws IOException {
+    /**
+     * The {@code items} of a predict or explain request, each mapping every input field of the model
+     * to its text; the body must arrive before {@code deadline}.
+     */
+    ItemsReader.Items items(Context ctx, List<String> inputFields, Deadline deadline) throws IOException {
         requireType(ctx, Set.of(JSON));
-        return items(body(ctx, maxJsonBytes), inputFields);
+        return readItems(bodies.read(ctx, maxJsonBytes, deadline), inputFields);
     }
 
     /** The {@code items} of a body already read within its limit. */
     List<Map<String, String>> items(byte[] body, List<String> inputFields) throws IOException {
+        return readItems(body, inputFields).list();
+    }
+
+    private ItemsReader.Items readItems(byte[] body, List<String> inputFields) throws IOException {
         try {
-            return items.read(body, inputFields);
+            return items.readItems(body, inputFields);
         } catch (CharConversionException e) {
             throw notJsonText(e);
         }
@@ -133,7 +148,8 @@ final class Requests {
             return new ShadowBody(tag, Shadow.DEFAULT_FRACTION);
         }
         if (!fraction.isNumber() || !(fraction.doubleValue() > 0 && fraction.doubleValue() <= 1)) {
-            throw ApiProblem.invalidField("fraction", "must be a number in (0, 1], the share of requests scored, was " + fraction);
+            throw ApiProblem.invalidField("fraction", "must be a number in (0, 1], the share of requests scored, was "
+                    + Problems.quote(fraction.toString()));
         }
         return new ShadowBody(tag, fraction.doubleValue());
     }
@@ -189,7 +205,7 @@ final class Requests {
         return switch (raw) {
             case "true" -> true;
             case "false" -> false;
-            default -> throw ApiProblem.invalidField(name, "must be true or false, was \"" + raw + "\"");
+            default -> throw ApiProblem.invalidField(name, "must be true or false, was " + Problems.quote(raw));
         };
     }
 
@@ -203,7 +219,7 @@ final class Requests {
         try {
             value = Integer.parseInt(raw);
         } catch (NumberFormatException e) {
-            throw ApiProblem.invalidField(name, "must be an integer, was \"" + raw + "\"");
+            throw ApiProblem.invalidField(name, "must be an integer, was " + Problems.quote(raw));
         }
         if (value < min || value > max) {
             throw ApiProblem.invalidField(name, "must be in [" + min + ", " + max + "], was " + value);
@@ -216,45 +232,7 @@ final class Requests {
         String type = header == null ? "" : header.split(";", 2)[0].strip().toLowerCase(Locale.ROOT);
         if (!accepted.contains(type)) {
             throw ApiProblem.unsupportedMediaType("Content-Type must be " + String.join(" or ", accepted.stream().sorted().toList())
-                    + ", was " + (header == null ? "missing" : "\"" + header + "\""));
+                    + ", was " + (header == null ? "missing" : Problems.quote(header)));
         }
-    }
-
-    /** Reads the body, stopping as soon as it passes {@code limitBytes}, whether or not a length was declared. */
-    private static byte[] body(Context ctx, long limitBytes) {
-        long declared = ctx.req().getContentLengthLong();
-        if (declared > limitBytes) {
-            throw tooLarge(limitBytes, declared + " bytes");
-        }
-        try (InputStream in = ctx.req().getInputStream()) {
-            if (declared >= 0) {
-                // The usual case: read exactly the declared bytes into their own array, with no copying buffer.
-                byte[] exact = in.readNBytes((int) declared);
-                if (exact.length < declared) {
-                    throw new IOException("the body ended after " + exact.length + " of " + declared + " bytes");
-                }
-                return exact;
-            }
-            ByteArrayOutputStream out = new ByteArrayOutputStream(8192);
-            byte[] buffer = new byte[16 * 1024];
-            long total = 0;
-            for (int n; (n = in.read(buffer)) >= 0; ) {
-                total += n;
-                if (total > limitBytes) {
-                    throw tooLarge(limitBytes, "more");
-                }
-                out.write(buffer, 0, n);
-            }
-            return out.toByteArray();
-        } catch (IOException e) {
-            // The client stopped sending (or closed) before the body was complete: its fault, not the server's.
-            throw new ApiProblem(400, "incomplete-body", "Incomplete body", "the body ended before it was complete"
-                    + (declared >= 0 ? " (" + declared + " bytes were declared)" : ""), List.of());
-        }
-    }
-
-    private static ApiProblem tooLarge(long limitBytes, String had) {
-        String mib = limitBytes >= 1L << 20 ? " (" + (limitBytes >> 20) + " MiB)" : "";
-        return ApiProblem.tooLarge("the body may have at most " + limitBytes + " bytes" + mib + ", had " + had);
     }
 }

@@ -27,10 +27,14 @@ import java.util.function.Consumer;
  * @param promotion when {@code PUT /models/{name}/active} refuses a candidate unless forced
  * @param tapCapacity how many answered requests may wait for the traffic listeners (shadow scoring, drift watch); beyond it they are dropped and counted
  * @param driftSample the share of active-version predict requests whose items go into the drift window, in [0, 1]; 0 turns drift watch off
+ * @param bodyBudgetBytes the bytes of request bodies held in memory at once, across all requests; a body that does not fit now
+ *     is answered 503 with {@code Retry-After} before it is read, one that never could 413
+ * @param openMetrics whether {@code GET /metrics} answers without the reader token when one is set
  */
 public record ServerConfig(String host, int port, int maxItems, long maxJsonBytes, long maxBundleBytes, Optional<BearerToken> adminToken,
         Optional<BearerToken> readerToken, int maxThreads, boolean accessLog, int maxConcurrent, List<String> corsOrigins,
-        int maxTokensPerField, long requestTimeoutMs, PromotionPolicy promotion, int tapCapacity, double driftSample) {
+        int maxTokensPerField, long requestTimeoutMs, PromotionPolicy promotion, int tapCapacity, double driftSample, long bodyBudgetBytes,
+        boolean openMetrics) {
 
     public static final String DEFAULT_HOST = "127.0.0.1";
     public static final int DEFAULT_PORT = 8080;
@@ -61,6 +65,19 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
      * within minutes at modest traffic, at a tenth of the cost of tokenising every item twice.
      */
     public static final double DEFAULT_DRIFT_SAMPLE = 0.1;
+    /**
+     * The default body budget is this share of the heap's limit: an 8 MiB JSON body costs some three
+     * times its size while it is parsed and scored, so an eighth leaves the rest of the heap for the
+     * models, the answers and the collector (measured at -Xmx256m: MemoryAttackTest).
+     */
+    public static final int BODY_BUDGET_HEAP_DIVISOR = 8;
+    /** {@code /metrics} needs the reader token when one is set, unless opened for a scraper. */
+    public static final boolean DEFAULT_OPEN_METRICS = false;
+
+    /** An eighth of the heap this JVM may grow to ({@link #BODY_BUDGET_HEAP_DIVISOR}). */
+    public static long defaultBodyBudgetBytes() {
+        return Runtime.getRuntime().maxMemory() / BODY_BUDGET_HEAP_DIVISOR;
+    }
 
     public ServerConfig {
         Objects.requireNonNull(host, "host");
@@ -85,6 +102,7 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
         atLeast("maxTokensPerField", maxTokensPerField, 1, " tokens");
         atLeast("requestTimeoutMs", requestTimeoutMs, 1, " ms");
         atLeast("tapCapacity", tapCapacity, 1, " requests");
+        atLeast("bodyBudgetBytes", bodyBudgetBytes, 1, " bytes");
         if (!(driftSample >= 0.0 && driftSample <= 1.0)) {
             throw new IllegalArgumentException("driftSample must be a share of requests in [0, 1], was " + driftSample);
         }
@@ -100,7 +118,8 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     public static ServerConfig defaults() {
         return new ServerConfig(DEFAULT_HOST, DEFAULT_PORT, DEFAULT_MAX_ITEMS, DEFAULT_MAX_JSON_BYTES, DEFAULT_MAX_BUNDLE_BYTES, Optional.empty(),
                 Optional.empty(), DEFAULT_MAX_THREADS, DEFAULT_ACCESS_LOG, DEFAULT_MAX_CONCURRENT, List.of(),
-                DEFAULT_MAX_TOKENS_PER_FIELD, DEFAULT_REQUEST_TIMEOUT_MS, PromotionPolicy.defaults(), DEFAULT_TAP_CAPACITY, DEFAULT_DRIFT_SAMPLE);
+                DEFAULT_MAX_TOKENS_PER_FIELD, DEFAULT_REQUEST_TIMEOUT_MS, PromotionPolicy.defaults(), DEFAULT_TAP_CAPACITY, DEFAULT_DRIFT_SAMPLE,
+                defaultBodyBudgetBytes(), DEFAULT_OPEN_METRICS);
     }
 
     public ServerConfig withHost(String newHost) {
@@ -162,13 +181,21 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
         return edit(e -> e.driftSample = share);
     }
 
+    public ServerConfig withBodyBudgetBytes(long bytes) {
+        return edit(e -> e.bodyBudgetBytes = bytes);
+    }
+
+    public ServerConfig withOpenMetrics(boolean open) {
+        return edit(e -> e.openMetrics = open);
+    }
+
     /** A copy with some components changed; the compact constructor checks the result. */
     private ServerConfig edit(Consumer<Edit> change) {
         Edit e = new Edit(this);
         change.accept(e);
         return new ServerConfig(e.host, e.port, e.maxItems, e.maxJsonBytes, e.maxBundleBytes, e.adminToken, e.readerToken, e.maxThreads,
                 e.accessLog, e.maxConcurrent, e.corsOrigins, e.maxTokensPerField, e.requestTimeoutMs, e.promotion, e.tapCapacity,
-                e.driftSample);
+                e.driftSample, e.bodyBudgetBytes, e.openMetrics);
     }
 
     /** The components of a config being copied, one field each. */
@@ -189,6 +216,8 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
         PromotionPolicy promotion;
         int tapCapacity;
         double driftSample;
+        long bodyBudgetBytes;
+        boolean openMetrics;
 
         Edit(ServerConfig c) {
             host = c.host;
@@ -207,6 +236,8 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
             promotion = c.promotion;
             tapCapacity = c.tapCapacity;
             driftSample = c.driftSample;
+            bodyBudgetBytes = c.bodyBudgetBytes;
+            openMetrics = c.openMetrics;
         }
     }
 }

@@ -73,14 +73,13 @@ final class ShadowScoring implements TrafficTap.Listener, AutoCloseable {
     private final Thread poller;
     private volatile boolean stopped;
 
-    ShadowScoring(BundleStore store, LiveModels live, Metrics metrics, int maxTokensPerField) {
+    ShadowScoring(BundleStore store, LiveModels live, Metrics metrics, int maxTokensPerField, Supervisor supervisor) {
         this.store = store;
         this.live = live;
         this.metrics = metrics;
         this.maxTokensPerField = maxTokensPerField;
         this.replica = replicaName();
-        this.poller = new Thread(this::poll, "pressmark-shadow");
-        this.poller.setDaemon(true);
+        this.poller = supervisor.thread("pressmark-shadow", this::poll);
     }
 
     void start() {

@@ -62,13 +62,16 @@ final class TrafficTap implements AutoCloseable {
     private final Thread worker;
 
     TrafficTap(int capacity, Metrics metrics) {
+        this(capacity, metrics, new Supervisor(metrics));
+    }
+
+    TrafficTap(int capacity, Metrics metrics, Supervisor supervisor) {
         if (capacity < 1) {
             throw new IllegalArgumentException("capacity must be >= 1 request, was " + capacity);
         }
         this.queue = new ArrayBlockingQueue<>(capacity);
         this.metrics = metrics;
-        this.worker = new Thread(this::deliver, "pressmark-traffic-tap");
-        this.worker.setDaemon(true);
+        this.worker = supervisor.thread("pressmark-traffic-tap", this::deliver);
         this.worker.start();
     }
 
@@ -171,7 +174,8 @@ final class TrafficTap implements AutoCloseable {
             for (Listener listener : d.to()) {
                 try {
                     listener.onPredict(d.model(), d.tag(), d.served(), d.items(), d.results());
-                } catch (RuntimeException | StackOverflowError e) {
+                } catch (RuntimeException | OutOfMemoryError | StackOverflowError e) {
+                    // a listener that runs out of memory on one request (a huge batch) fails that delivery, not the worker
                     failed(listener, e);
                 }
             }

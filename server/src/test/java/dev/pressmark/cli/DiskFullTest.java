@@ -2,19 +2,14 @@ package dev.pressmark.cli;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import com.fasterxml.jackson.databind.node.JsonNodeFactory;
-import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.Version;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Map;
 import java.util.Optional;
-import java.util.SplittableRandom;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -34,6 +29,8 @@ class DiskFullTest {
     private static final int BIG_WEIGHTS_BYTES = 4 << 20;
     /** Room on the tmpfs beyond the copied store: enough to open it and start the write, not to finish it. */
     private static final long ROOM_BYTES = 1L << 20;
+
+    private static final List<String> LABELS = List.of("a", "b", "c", "d", "e", "f", "g", "h", "i", "j", "k", "l", "m", "n", "o", "p");
 
     @TempDir
     Path dir;
@@ -92,16 +89,8 @@ class DiskFullTest {
 
     /** A bundle the store accepts (entries under matching checksums) with {@code weightsBytes} random bytes of weights. */
     private static byte[] bundle(long seed, int weightsBytes) throws IOException {
-        SplittableRandom random = new SplittableRandom(seed);
-        byte[] weights = new byte[weightsBytes];
-        for (int i = 0; i < weights.length; i++) {
-            weights[i] = (byte) random.nextInt(256);
-        }
-        Map<String, byte[]> entries = new LinkedHashMap<>();
-        entries.put(BundleArchive.TOKENIZER, "{}".getBytes(StandardCharsets.UTF_8));
-        entries.put(BundleArchive.FEATURES, "{}".getBytes(StandardCharsets.UTF_8));
-        entries.put(BundleArchive.WEIGHTS, weights);
-        entries.put(BundleArchive.PROFILE, "{}".getBytes(StandardCharsets.UTF_8));
-        return BundleArchive.toBytes(JsonNodeFactory.instance.objectNode().put("name", "routing"), entries);
+        // 16 labels, 16 scores of 8-byte weights per feature: incompressible random doubles of about weightsBytes in all
+        return LoadableBundles.of(seed, LoadableBundles.FIELDS, LABELS, weightsBytes / 8 / LABELS.size());
     }
+
 }

@@ -2,17 +2,13 @@ package dev.pressmark.cli;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import com.fasterxml.jackson.databind.node.JsonNodeFactory;
-import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.store.Activation;
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.Version;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Map;
 import java.util.Optional;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -33,12 +29,8 @@ class HostileNamesTest {
 
     @Test
     void sql_text_in_every_name_and_tag_argument_is_refused_and_changes_nothing() throws Exception {
-        Map<String, byte[]> entries = new LinkedHashMap<>();
-        for (String name : BundleArchive.ENTRY_ORDER.subList(1, BundleArchive.ENTRY_ORDER.size())) {
-            entries.put(name, (name + " of the test").getBytes(StandardCharsets.UTF_8));
-        }
         String bundle = dir.resolve("b.pmb").toString();
-        Files.write(dir.resolve("b.pmb"), BundleArchive.toBytes(JsonNodeFactory.instance.objectNode().put("name", "routing"), entries));
+        Files.write(dir.resolve("b.pmb"), LoadableBundles.of(1));
         assertThat(run("publish", bundle, "--name", "routing", "--tag", "1.0.0", "--activate").exitCode()).isZero();
 
         for (String h : HOSTILE) {

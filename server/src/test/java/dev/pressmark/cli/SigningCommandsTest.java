@@ -4,13 +4,8 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.node.JsonNodeFactory;
-import com.fasterxml.jackson.databind.node.ObjectNode;
-import dev.pressmark.core.bundle.Bundle;
-import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.sign.SigningKeys;
 import java.io.IOException;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.attribute.PosixFilePermissions;
@@ -19,9 +14,7 @@ import java.security.PublicKey;
 import java.security.Signature;
 import java.util.Base64;
 import java.util.HexFormat;
-import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -32,15 +25,8 @@ class SigningCommandsTest {
     Path dir;
 
     private Path bundle(String file, long seed, List<String> labels) throws IOException {
-        Map<String, byte[]> entries = new LinkedHashMap<>();
-        for (String name : BundleArchive.ENTRY_ORDER.subList(1, BundleArchive.ENTRY_ORDER.size())) {
-            entries.put(name, (name + " of build " + seed).getBytes(StandardCharsets.UTF_8));
-        }
-        ObjectNode manifest = JsonNodeFactory.instance.objectNode().put("name", "routing");
-        manifest.putArray(Bundle.INPUT_FIELDS).add("title");
-        labels.forEach(manifest.putArray(Bundle.LABELS)::add);
         Path path = dir.resolve(file);
-        Files.write(path, BundleArchive.toBytes(manifest, entries));
+        Files.write(path, LoadableBundles.of(seed, LoadableBundles.FIELDS, labels, 16));
         return path;
     }
 

@@ -4,7 +4,6 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.node.JsonNodeFactory;
 import dev.pressmark.core.bundle.BundleArchive;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
@@ -15,7 +14,6 @@ import java.sql.Connection;
 import java.sql.DriverManager;
 import java.sql.PreparedStatement;
 import java.util.HexFormat;
-import java.util.LinkedHashMap;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -27,12 +25,8 @@ class StoreCommandsTest {
     Path dir;
 
     private Path bundle(String file, long seed) throws IOException {
-        Map<String, byte[]> entries = new LinkedHashMap<>();
-        for (String name : BundleArchive.ENTRY_ORDER.subList(1, BundleArchive.ENTRY_ORDER.size())) {
-            entries.put(name, (name + " of build " + seed).getBytes(StandardCharsets.UTF_8));
-        }
         Path path = dir.resolve(file);
-        Files.write(path, BundleArchive.toBytes(JsonNodeFactory.instance.objectNode().put("name", "routing"), entries));
+        Files.write(path, LoadableBundles.of(seed));
         return path;
     }
 
@@ -113,6 +107,45 @@ class StoreCommandsTest {
         assertThat(twice.err()).isEqualTo("pressmark: routing 1 is already published; a published tag is immutable, so publish under a new tag\n");
     }
 
+    /** {@code bundle} with weights.bin's header claiming 2^31 - 1 features (int32 at offset 16, little-endian) and its checksums redone. */
+    private static byte[] claimingMaxIntFeatures(byte[] bundle) {
+        dev.pressmark.core.bundle.BundleContents contents = BundleArchive.read(bundle);
+        byte[] weights = contents.entry(BundleArchive.WEIGHTS).clone();
+        java.nio.ByteBuffer.wrap(weights).order(java.nio.ByteOrder.LITTLE_ENDIAN).putInt(16, Integer.MAX_VALUE);
+        com.fasterxml.jackson.databind.node.ObjectNode manifest = contents.manifest().deepCopy();
+        manifest.remove(BundleArchive.FORMAT_VERSION_FIELD);
+        manifest.remove(BundleArchive.ENTRIES_FIELD);
+        Map<String, byte[]> entries = new java.util.LinkedHashMap<>(contents.entries());
+        entries.put(BundleArchive.WEIGHTS, weights);
+        return BundleArchive.toBytes(manifest, entries);
+    }
+
+    @Test
+    void a_bundle_that_does_not_load_is_not_published_one_line_exit_1_and_verify_names_one_stored_behind_the_stores_back() throws Exception {
+        Files.write(dir.resolve("big.pmb"), claimingMaxIntFeatures(LoadableBundles.of(1)));
+        CommandRun refused = run("publish", "big.pmb", "--name", "routing", "--tag", "1");
+        assertThat(refused.exitCode()).isEqualTo(1);
+        assertThat(refused.err()).isEqualTo("pressmark: big.pmb: cannot publish routing 1: weights.bin: the header declares 2,147,483,647 features,"
+                + " more than 1,048,576, the limit on a model's features\n");
+        bundle("good.pmb", 2);
+        assertThat(run("publish", "good.pmb", "--name", "routing", "--tag", "1").exitCode()).isZero();
+        // as a store written by an older program may hold it
+        byte[] big = Files.readAllBytes(dir.resolve("big.pmb"));
+        try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + dir.resolve("pressmark.db"));
+                PreparedStatement insert = c.prepareStatement("INSERT INTO versions (model, tag, sha256, size, created_at, manifest_json, bundle)"
+                        + " VALUES ('routing', '2', ?, ?, 0, '{}', ?)")) {
+            insert.setString(1, HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(big)));
+            insert.setLong(2, big.length);
+            insert.setBytes(3, big);
+            insert.executeUpdate();
+        }
+        CommandRun verified = run("verify");
+        assertThat(verified.exitCode()).isEqualTo(1);
+        assertThat(verified.out()).isEqualTo("UNUSABLE routing 2: weights.bin: the header declares 2,147,483,647 features, more than 1,048,576,"
+                + " the limit on a model's features\n");
+        assertThat(verified.err()).isEqualTo("pressmark: 1 of 2 versions do not load as a model\n");
+    }
+
     @Test
     void verify_exits_1_listing_each_version_whose_bytes_changed() throws Exception {
         bundle("a.pmb", 1);
@@ -121,7 +154,7 @@ class StoreCommandsTest {
         run("publish", "b.pmb", "--name", "risk", "--tag", "b");
         CommandRun clean = run("verify");
         assertThat(clean.exitCode()).isZero();
-        assertThat(clean.out()).isEqualTo("verified 2 versions: every checksum matches\n");
+        assertThat(clean.out()).isEqualTo("verified 2 versions: every checksum matches and every version loads\n");
 
         byte[] altered = Files.readAllBytes(dir.resolve("b.pmb"));
         altered[altered.length - 30] ^= 0x01;

@@ -169,18 +169,21 @@ class ApiDocsTest {
     }
 
     @Test
-    void the_documents_are_open_and_reading_operations_say_they_need_the_token_when_the_server_has_one() {
+    void the_documents_need_the_reader_token_when_the_server_has_one_and_say_that_reading_operations_do() {
         ServerConfig config = Served.config()
                 .withReaderToken(Optional.of(BearerToken.of(Served.READER)));
         try (Served s = Served.on(dir, config)) {
             s.serving(threeLabels);
             assertThat(s.http.get("/models").status()).isEqualTo(401);
-            Http.Answer json = s.http.get("/openapi.json");
+            assertThat(s.http.get("/openapi.json").status()).isEqualTo(401);
+            assertThat(s.http.get("/openapi.yaml").status()).isEqualTo(401);
+            String[] asReader = {"Authorization", "Bearer " + Served.READER};
+            Http.Answer json = s.http.get("/openapi.json", asReader);
             assertThat(json.status()).isEqualTo(200);
             OpenAPI api = parsedCleanly(json.body());
             assertThat(api.getPaths().get("/models").getGet().getSecurity()).hasSize(1);
             assertThat(api.getPaths().get("/models/routing/predict").getPost().getSecurity()).hasSize(1);
-            assertThat(s.http.get("/openapi.yaml").status()).isEqualTo(200);
+            assertThat(s.http.get("/openapi.yaml", asReader).status()).isEqualTo(200);
             assertThat(s.http.get("/docs").status()).isEqualTo(200);
         }
     }

@@ -5,13 +5,11 @@ import static org.assertj.core.api.Assertions.assertThat;
 import com.fasterxml.jackson.databind.JsonNode;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.store.BundleStore;
-import dev.pressmark.store.PublishOptions;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
-import java.util.Optional;
 import java.util.Set;
 import java.util.SplittableRandom;
 import java.util.concurrent.ConcurrentHashMap;
@@ -78,8 +76,8 @@ class HotSwapTest {
             awaitServed(s, "1.0.0", PICKED_UP_WITHIN);
             assertThat(s.http.get("/health/ready").status()).isEqualTo(200);
 
-            // its manifest declares no fields or labels, a breaking change that must be allowed
-            cli.publish("routing", "2.0.0", TestBundles.unloadable(), new PublishOptions(Optional.empty(), true), "cli");
+            // a version this program would refuse to publish, stored and activated as an older program could
+            TestBundles.storeUnchecked(s.storeUrl, "routing", "2.0.0", TestBundles.unloadable());
             cli.activate("routing", "2.0.0", "cli", "broken build");
             JsonNode ready = null;
             long deadline = System.nanoTime() + PICKED_UP_WITHIN.toNanos() * 3;

@@ -124,6 +124,47 @@ class LimitsTest {
         }
     }
 
+    @Test
+    void with_cors_on_an_admin_request_from_a_foreign_origin_is_refused_before_it_runs_and_changes_nothing() throws Exception {
+        String allowed = "http://console.example.test:8443";
+        byte[] second = TestBundles.train(5, "classifier: {kind: linear-svm, probabilities: platt}");
+        try (Served s = served(Served.config().withCorsOrigins(List.of(allowed)))) {
+            s.publishing("2.0.0", second);
+            s.store.activate("routing", "2.0.0", "test", "second");
+            s.awaitServing("2.0.0");
+            int activations = s.store.activations("routing").size();
+            String admin = "Authorization: Bearer " + Served.ADMIN + "\r\n";
+            String foreign = raw(s, "POST /models/routing/rollback", "Origin: http://elsewhere.example.test\r\n" + admin);
+            assertThat(foreign).startsWith("HTTP/1.1 403").contains(Problems.TYPE_PREFIX + "origin-not-allowed");
+            String activate = raw(s, "PUT /models/routing/active", "Origin: http://elsewhere.example.test\r\n" + admin
+                    + "Content-Type: application/json\r\nContent-Length: 15\r\n", "{\"tag\":\"1.0.0\"}");
+            assertThat(activate).startsWith("HTTP/1.1 403");
+            assertThat(s.store.activations("routing")).hasSize(activations);
+            assertThat(s.store.activeVersion("routing").orElseThrow().tag()).isEqualTo("2.0.0");
+            // the named origin, and the service's own (its console), may
+            assertThat(raw(s, "GET /models", "Origin: http://127.0.0.1:" + s.server.port() + "\r\n")).startsWith("HTTP/1.1 200");
+            assertThat(raw(s, "POST /models/routing/rollback", "Origin: " + allowed + "\r\n" + admin)).startsWith("HTTP/1.1 200");
+            assertThat(s.store.activeVersion("routing").orElseThrow().tag()).isEqualTo("1.0.0");
+            assertThat(s.http.get("/metrics").body()).contains("status=\"403\"").doesNotContain("status=\"400\"");
+        }
+    }
+
+    private static String raw(Served s, String requestLine, String headers) throws IOException {
+        return raw(s, requestLine, headers, "");
+    }
+
+    /** The whole answer to one request sent as raw bytes (the JDK client refuses to send Origin). */
+    private static String raw(Served s, String requestLine, String headers, String body) throws IOException {
+        try (Socket socket = new Socket(InetAddress.getLoopbackAddress(), s.server.port())) {
+            socket.setSoTimeout(30_000);
+            socket.getOutputStream().write((requestLine + " HTTP/1.1\r\nHost: 127.0.0.1:" + s.server.port() + "\r\nConnection: close\r\n"
+                    + headers + "\r\n" + body).getBytes(StandardCharsets.UTF_8));
+            ByteArrayOutputStream answer = new ByteArrayOutputStream();
+            socket.getInputStream().transferTo(answer);
+            return answer.toString(StandardCharsets.UTF_8);
+        }
+    }
+
     /** The Access-Control-Allow-Origin the server sends to a request from {@code origin}, over a raw socket (the JDK client refuses to send Origin). */
     private static Optional<String> allowOrigin(Served s, String method, String origin) throws IOException {
         try (Socket socket = new Socket(InetAddress.getLoopbackAddress(), s.server.port())) {

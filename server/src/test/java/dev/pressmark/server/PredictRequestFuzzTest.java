@@ -43,7 +43,7 @@ final class PredictRequestFuzzTest {
 
     /** Configured as {@code PressmarkServer.start} configures the service's mapper. */
     private static final ObjectMapper JSON = PressmarkServer.jsonMapper();
-    private static final Requests REQUESTS = new Requests(JSON, ServerConfig.defaults().withMaxItems(MAX_ITEMS));
+    private static final Requests REQUESTS = new Requests(JSON, ServerConfig.defaults().withMaxItems(MAX_ITEMS), new Bodies(new BodyBudget(ServerConfig.defaultBodyBudgetBytes())));
     private static final Views VIEWS = new Views(JSON);
     private static final LiveVersion SERVED = trainOnce();
 

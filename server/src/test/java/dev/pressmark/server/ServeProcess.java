@@ -46,9 +46,14 @@ public final class ServeProcess implements AutoCloseable {
      * added to the environment (and neither token nor store taken from this JVM's environment).
      */
     public static ServeProcess serve(Path dir, String storeUrl, Map<String, String> env, String... extraArgs) {
+        return serve(dir, storeUrl, List.of(), env, extraArgs);
+    }
+
+    /** {@link #serve(Path, String, Map, String...)} in a JVM started with {@code jvmOptions} (such as {@code -Xmx256m}). */
+    public static ServeProcess serve(Path dir, String storeUrl, List<String> jvmOptions, Map<String, String> env, String... extraArgs) {
         List<String> args = new ArrayList<>(List.of("serve", "--port", "0", "--store", storeUrl));
         args.addAll(List.of(extraArgs));
-        Process process = start(dir, env, args.toArray(String[]::new));
+        Process process = start(dir, jvmOptions, env, args.toArray(String[]::new));
         CompletableFuture<String> err = collect(process);
         try {
             BufferedReader out = new BufferedReader(new InputStreamReader(process.getInputStream(), StandardCharsets.UTF_8));
@@ -70,9 +75,11 @@ public final class ServeProcess implements AutoCloseable {
         }
     }
 
-    private static Process start(Path dir, Map<String, String> env, String... args) {
+    private static Process start(Path dir, List<String> jvmOptions, Map<String, String> env, String... args) {
         try {
-            return CommandRun.builder(dir, env, args).start();
+            ProcessBuilder builder = CommandRun.builder(dir, env, args);
+            builder.command().addAll(1, jvmOptions); // right after the java executable
+            return builder.start();
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }

@@ -38,6 +38,16 @@ final class Served implements AutoCloseable {
         return on(dir, config());
     }
 
+    /** A server over {@code store}, which the returned object closes; {@code url} is where the store is. */
+    static Served over(String url, BundleStore store) {
+        try {
+            return new Served(url, store, PressmarkServer.start(store, config()));
+        } catch (RuntimeException e) {
+            store.close();
+            throw e;
+        }
+    }
+
     static Served on(Path dir, ServerConfig config) {
         String url = "sqlite:" + dir.resolve("store.db");
         BundleStore store = BundleStore.open(url);

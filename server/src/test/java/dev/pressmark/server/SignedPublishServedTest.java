@@ -88,9 +88,14 @@ class SignedPublishServedTest {
             assertThat(s.servedVersion()).isEqualTo("1.0.0");
             s.store.trust(SigningKeys.publicKeyPem(KEYS.getPublic()), "test");
 
-            Http.Answer activated = s.http.putJson("/models/routing/active", "{\"tag\":\"1.1.0\"}", Served.AS_ADMIN);
-            assertThat(activated.status()).as(activated.body()).isEqualTo(200);
-            assertThat(activated.json().get("serving").asText()).isEqualTo("1.0.0");
+            // this server cannot load it, so it does not make it active
+            Http.Answer refused = s.http.putJson("/models/routing/active", "{\"tag\":\"1.1.0\"}", Served.AS_ADMIN);
+            assertThat(refused.status()).as(refused.body()).isEqualTo(422);
+            assertThat(refused.json().get("type").asText()).isEqualTo("urn:pressmark:problem:unsigned");
+            assertThat(s.store.activeVersion("routing").orElseThrow().tag()).isEqualTo("1.0.0");
+            // activated all the same by a client that does not load what it activates (a program older than this check)
+            s.store.activate("routing", "1.1.0", "test", "older client");
+            s.server.live().refresh("routing");
             JsonNode ready = s.http.get("/health/ready").json();
             assertThat(ready.at("/models/routing/failed_tag").asText()).isEqualTo("1.1.0");
             assertThat(ready.at("/models/routing/error").asText()).contains("unsigned");
@@ -108,8 +113,8 @@ class SignedPublishServedTest {
             s.http.putJson("/models/routing/active", "{\"tag\":\"1\"}", Served.AS_ADMIN);
             assertThat(s.http.get("/openapi.json").json().at("/info/version").asText()).isEqualTo("1.0.0");
 
-            // a bundle whose manifest declares neither the field nor the labels: every one of them removed
-            byte[] bare = TestBundles.unloadable();
+            // a model of another field and other labels: every field and label of the active one removed
+            byte[] bare = TestBundles.otherContract();
             Http.Answer refused = put(s, "/models/routing/versions/2", bare);
             assertThat(refused.status()).as(refused.body()).isEqualTo(409);
             assertThat(refused.json().get("type").asText()).isEqualTo("urn:pressmark:problem:breaking-change");

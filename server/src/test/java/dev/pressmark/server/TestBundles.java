@@ -3,6 +3,7 @@ package dev.pressmark.server;
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
 import dev.pressmark.core.Progress;
 import dev.pressmark.core.bundle.BundleArchive;
+import dev.pressmark.core.bundle.Sha256;
 import dev.pressmark.core.train.BundleAssembler;
 import dev.pressmark.core.train.LabelledData;
 import dev.pressmark.core.train.TrainConfig;
@@ -12,9 +13,14 @@ import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.sql.Connection;
+import java.sql.DriverManager;
+import java.sql.PreparedStatement;
+import java.sql.SQLException;
 import java.time.Instant;
 import java.util.Comparator;
 import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Map;
 import java.util.SplittableRandom;
 import java.util.concurrent.ConcurrentHashMap;
@@ -125,5 +131,34 @@ final class TestBundles {
             entries.put(name, (name + " is not what it should be").getBytes(StandardCharsets.UTF_8));
         }
         return BundleArchive.toBytes(JsonNodeFactory.instance.objectNode().put("name", "routing"), entries);
+    }
+
+    /**
+     * A loadable model of another contract than the trained ones: input field {@code name}, labels
+     * {@code north} and {@code south}.
+     */
+    static byte[] otherContract() {
+        return dev.pressmark.cli.LoadableBundles.of(4, List.of("name"), List.of("north", "south"), 4);
+    }
+
+    /**
+     * Stores {@code bundle} under its true SHA-256 straight into the SQLite store at {@code storeUrl},
+     * past the publish checks, as a store written by an older program may hold it.
+     */
+    static void storeUnchecked(String storeUrl, String model, String tag, byte[] bundle) {
+        String path = storeUrl.substring(storeUrl.indexOf(':') + 1);
+        try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + path);
+                PreparedStatement insert = c.prepareStatement("INSERT INTO versions (model, tag, sha256, size, created_at, manifest_json, bundle)"
+                        + " VALUES (?, ?, ?, ?, 0, ?, ?)")) {
+            insert.setString(1, model);
+            insert.setString(2, tag);
+            insert.setString(3, Sha256.hex(bundle));
+            insert.setLong(4, bundle.length);
+            insert.setString(5, BundleArchive.read(bundle).manifestJson());
+            insert.setBytes(6, bundle);
+            insert.executeUpdate();
+        } catch (SQLException e) {
+            throw new IllegalStateException("cannot store " + model + " " + tag + " in " + path, e);
+        }
     }
 }

@@ -27,6 +27,24 @@ class TrafficTapTest {
     }
 
     @Test
+    void a_listener_that_runs_out_of_memory_fails_that_delivery_and_the_worker_goes_on() throws Exception {
+        AtomicInteger calls = new AtomicInteger();
+        CountDownLatch second = new CountDownLatch(1);
+        try (Metrics metrics = new Metrics(); TrafficTap tap = new TrafficTap(4, metrics)) {
+            tap.register((model, tag, served, items, results) -> {
+                if (calls.incrementAndGet() == 1) {
+                    throw new OutOfMemoryError("Java heap space");
+                }
+                second.countDown();
+            });
+            assertThat(tap.offer("routing", "1", null, ONE_ITEM, List.of())).isTrue();
+            assertThat(tap.offer("routing", "1", null, ONE_ITEM, List.of())).isTrue();
+            assertThat(second.await(10, TimeUnit.SECONDS)).as("the second request delivered after the first failed").isTrue();
+            assertThat(metrics.scrape()).contains("pressmark_tap_listener_failures_total{kind=\"OutOfMemoryError\"} 1.0");
+        }
+    }
+
+    @Test
     void a_stuck_listener_never_blocks_an_offer_and_exactly_the_overflow_is_dropped_and_counted() throws Exception {
         CountDownLatch entered = new CountDownLatch(1);
         CountDownLatch release = new CountDownLatch(1);

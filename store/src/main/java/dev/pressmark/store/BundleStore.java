@@ -41,9 +41,11 @@ public interface BundleStore extends AutoCloseable {
     }
 
     /**
-     * Checks the bundle (every entry's checksum, through the bundle reader), computes the SHA-256
-     * of the whole file, and stores it as {@code model}/{@code tag} in one transaction. A tag that
-     * exists is refused, even with identical bytes. The version is not activated.
+     * Checks the bundle (every entry's checksum, through the bundle reader), loads it as a model
+     * within {@link dev.pressmark.core.bundle.BundleLimits#DEFAULT} ({@link StoreException#UNUSABLE}
+     * when it does not load, {@link StoreException#LIMIT} naming the limit it goes past), computes
+     * the SHA-256 of the whole file, and stores it as {@code model}/{@code tag} in one transaction.
+     * A tag that exists is refused, even with identical bytes. The version is not activated.
      */
     default Version publish(String model, String tag, byte[] bundle, String actor) {
         return publish(model, tag, bundle, PublishOptions.DEFAULT, actor);
@@ -62,11 +64,28 @@ public interface BundleStore extends AutoCloseable {
     Version publish(String model, String tag, byte[] bundle, PublishOptions options, String actor);
 
     /**
+     * Publishes the bundle file {@code bundle} as {@link #publish(String, String, byte[], PublishOptions, String)}
+     * does, without reading it into memory first: it must be a regular file within the bundle size
+     * limit (checked before it is read), its SHA-256 is computed while it is read, and the stored
+     * bytes are checked against that SHA-256 in the same transaction. Messages start with the path.
+     */
+    Version publish(String model, String tag, java.nio.file.Path bundle, PublishOptions options, String actor);
+
+    /**
      * Makes {@code tag} the active version of {@code model}. Activating the active version again
      * changes nothing. A running shadow of the model stops: it compared a pair of versions, and
      * the pair is gone whether the candidate was promoted or another version took over.
      */
     Activation activate(String model, String tag, String actor, String reason);
+
+    /**
+     * Activates as {@link #activate(String, String, String, String)} does, but only if the active
+     * version is still {@code expectedActive} (empty: none) when the transaction that writes the
+     * activation reads it: a compare-and-set on the active tag. Otherwise it changes nothing and
+     * fails with {@link StoreException#ACTIVE_CHANGED}, so a decision made against one active
+     * version is never applied over another that some other client activated in between.
+     */
+    Activation activate(String model, String tag, Optional<String> expectedActive, String actor, String reason);
 
     /**
      * Re-activates the version that was active before the current one, appending an activation.
@@ -97,8 +116,18 @@ public interface BundleStore extends AutoCloseable {
      */
     LoadedBundle load(String model, String tag);
 
-    /** Recomputes the SHA-256 of every stored version, or of one model's when {@code model} is not empty. */
+    /**
+     * Recomputes the SHA-256 of every stored version, or of one model's when {@code model} is not
+     * empty, and loads each one whose checksum matches as a model, within the default limits.
+     */
     VerifyReport verify(Optional<String> model);
+
+    /**
+     * Reads every row of the store's metadata (models, versions without their bundles, activations),
+     * so that damage to the pages holding them shows here: what a readiness check runs. Fails as
+     * any other read does.
+     */
+    void probe();
 
     /** A model's activations, newest first. */
     List<Activation> activations(String model);

@@ -10,7 +10,10 @@ import dev.pressmark.core.contract.ContractRecord;
 import dev.pressmark.core.contract.SemanticVersion;
 import dev.pressmark.core.sign.BundleSignature;
 import java.io.IOException;
+import java.io.FilterInputStream;
 import java.io.InputStream;
+import java.io.OutputStream;
+import java.nio.file.Path;
 import java.security.DigestInputStream;
 import java.security.MessageDigest;
 import java.sql.Connection;
@@ -65,19 +68,57 @@ final class JdbcBundleStore implements BundleStore {
 
     @Override
     public Version publish(String model, String tag, byte[] bundle, PublishOptions options, String actor) {
-        Objects.requireNonNull(options, "options");
-        Names.model(model);
-        Names.tag(tag);
-        Names.actor(actor);
         Objects.requireNonNull(bundle, "bundle");
+        checkPublish(model, tag, options, actor);
         BundleContents contents;
         try {
             contents = BundleArchive.read(bundle);
         } catch (BundleException e) {
-            String message = e.getMessage().startsWith("not a bundle") ? e.getMessage() : "not a valid bundle: " + e.getMessage();
-            throw new StoreException(StoreException.NOT_A_BUNDLE, message, e);
+            throw BundleCheck.notABundle(e, "");
         }
-        String sha256 = Sha256.hex(bundle);
+        BundleCheck.load(contents, model, tag, "cannot publish ");
+        return insert(model, tag, contents, Sha256.hex(bundle), bundle.length, new BundleBytes() {
+            @Override
+            public void bind(PreparedStatement statement, int index) throws SQLException {
+                statement.setBytes(index, bundle);
+            }
+        }, options, actor);
+    }
+
+    @Override
+    public Version publish(String model, String tag, Path bundle, PublishOptions options, String actor) {
+        Objects.requireNonNull(bundle, "bundle");
+        checkPublish(model, tag, options, actor);
+        long size = BundleFile.size(bundle);
+        MessageDigest digest = Sha256.newDigest();
+        BundleContents contents = BundleFile.read(bundle, digest);
+        BundleCheck.load(contents, model, tag, "cannot publish ");
+        String sha256 = Sha256.toHex(digest.digest());
+        try (BundleFile.Stored stored = new BundleFile.Stored(bundle, size, sha256)) {
+            return insert(model, tag, contents, sha256, size, stored, options, actor);
+        }
+    }
+
+    private static void checkPublish(String model, String tag, PublishOptions options, String actor) {
+        Objects.requireNonNull(options, "options");
+        Names.model(model);
+        Names.tag(tag);
+        Names.actor(actor);
+    }
+
+    /** The bundle's bytes as the publishing transaction stores them. */
+    interface BundleBytes {
+        /** Sets the statement parameter that holds the bytes. */
+        void bind(PreparedStatement statement, int index) throws SQLException;
+
+        /** After the statement ran: fails the transaction if what it stored is not what was checked. */
+        default void verify() {
+        }
+    }
+
+    /** Stores a checked bundle in one transaction. */
+    private Version insert(String model, String tag, BundleContents contents, String sha256, long size, BundleBytes bytes, PublishOptions options,
+            String actor) {
         String manifest = contents.manifestJson();
         long now = now();
         return write("publish " + model + " " + tag, c -> {
@@ -99,20 +140,21 @@ final class JdbcBundleStore implements BundleStore {
                 insert.setString(1, model);
                 insert.setString(2, tag);
                 insert.setString(3, sha256);
-                insert.setLong(4, bundle.length);
+                insert.setLong(4, size);
                 insert.setLong(5, now);
                 insert.setString(6, manifest);
-                insert.setBytes(7, bundle);
+                bytes.bind(insert, 7);
                 insert.setString(8, options.signatureJson().orElse(null));
                 insert.setString(9, contractJson);
                 insert.executeUpdate();
+                bytes.verify();
             }
             String signedBy = options.signatureJson().map(json -> ", signed by key " + BundleSignature.parse(json, "the signature").keyId())
                     .orElse("");
-            event(c, now, actor, StoreEvent.PUBLISH, model, tag, "sha256 " + sha256 + ", " + bundle.length + " bytes" + signedBy
+            event(c, now, actor, StoreEvent.PUBLISH, model, tag, "sha256 " + sha256 + ", " + size + " bytes" + signedBy
                     + ", contract " + contract.version() + contract.against().map(a -> " (" + contract.diff().describe() + " against " + a + ")")
                     .orElse(""));
-            return new Version(model, tag, sha256, bundle.length, Instant.ofEpochMilli(now), manifest, false, false, options.signatureJson(),
+            return new Version(model, tag, sha256, size, Instant.ofEpochMilli(now), manifest, false, false, options.signatureJson(),
                     Optional.of(contractJson));
         });
     }
@@ -205,6 +247,25 @@ final class JdbcBundleStore implements BundleStore {
 
     @Override
     public Activation activate(String model, String tag, String actor, String reason) {
+        return activate(model, tag, Expected.ANY, actor, reason);
+    }
+
+    @Override
+    public Activation activate(String model, String tag, Optional<String> expectedActive, String actor, String reason) {
+        Objects.requireNonNull(expectedActive, "expectedActive");
+        return activate(model, tag, new Expected(false, expectedActive), actor, reason);
+    }
+
+    /** What an activation expects to replace: any version, or exactly the active tag {@code tag} (empty: none active). */
+    private record Expected(boolean any, Optional<String> tag) {
+        static final Expected ANY = new Expected(true, Optional.empty());
+
+        boolean matches(Activation current) {
+            return any || tag.equals(Optional.ofNullable(current).map(Activation::tag));
+        }
+    }
+
+    private Activation activate(String model, String tag, Expected expected, String actor, String reason) {
         Names.model(model);
         Names.tag(tag);
         Names.actor(actor);
@@ -220,6 +281,10 @@ final class JdbcBundleStore implements BundleStore {
                 throw new StoreException(StoreException.RETIRED, model + " " + tag + " is retired and cannot be activated");
             }
             Activation current = currentActivation(c, model);
+            if (!expected.matches(current)) {
+                throw new StoreException(StoreException.ACTIVE_CHANGED, "cannot activate " + model + " " + tag + ": the active version changed from "
+                        + expected.tag().orElse("none") + " to " + (current == null ? "none" : current.tag()) + " since it was checked; check again");
+            }
             if (current != null && current.tag().equals(tag)) {
                 return current;
             }
@@ -418,6 +483,7 @@ final class JdbcBundleStore implements BundleStore {
                 }
             }
             List<VerifyReport.Mismatch> mismatches = new ArrayList<>();
+            List<VerifyReport.Unusable> unusable = new ArrayList<>();
             // one bundle at a time, so that memory holds at most one of them
             try (PreparedStatement select = c.prepareStatement("SELECT bundle FROM versions WHERE id = ?")) {
                 for (Stored version : stored) {
@@ -426,26 +492,65 @@ final class JdbcBundleStore implements BundleStore {
                         if (!rs.next()) {
                             continue; // cannot happen: versions are never deleted
                         }
-                        MessageDigest digest = Sha256.newDigest();
-                        long size = 0;
-                        try (InputStream in = rs.getBinaryStream(1)) {
-                            byte[] buffer = new byte[64 * 1024];
-                            for (int n = in.read(buffer); n >= 0; n = in.read(buffer)) {
-                                digest.update(buffer, 0, n);
-                                size += n;
-                            }
-                        } catch (IOException e) {
-                            throw new StoreException(StoreException.FAILURE, "cannot read " + version.model() + " " + version.tag() + ": "
-                                    + e.getMessage(), e);
-                        }
-                        String actual = Sha256.toHex(digest.digest());
-                        if (!actual.equals(version.sha256()) || size != version.size()) {
-                            mismatches.add(new VerifyReport.Mismatch(version.model(), version.tag(), version.sha256(), actual, version.size(), size));
-                        }
+                        verifyOne(version, rs.getBinaryStream(1), mismatches, unusable);
                     }
                 }
             }
-            return new VerifyReport(stored.size(), mismatches);
+            return new VerifyReport(stored.size(), mismatches, unusable);
+        });
+    }
+
+    /**
+     * Streams one stored bundle through the SHA-256 and the bundle reader at once, then loads what
+     * the reader gave as a model; a checksum mismatch is reported alone, since it explains any
+     * failure to load.
+     */
+    private static void verifyOne(Stored version, InputStream stored, List<VerifyReport.Mismatch> mismatches, List<VerifyReport.Unusable> unusable) {
+        MessageDigest digest = Sha256.newDigest();
+        CountingInputStream counted = new CountingInputStream(new DigestInputStream(stored, digest));
+        BundleContents contents = null;
+        String unreadable = null;
+        try (InputStream in = counted) {
+            try {
+                contents = BundleArchive.read(in);
+            } catch (BundleException e) {
+                unreadable = e.getMessage();
+            }
+            in.transferTo(OutputStream.nullOutputStream()); // the rest, for the checksum
+        } catch (IOException e) {
+            throw new StoreException(StoreException.FAILURE, "cannot read " + version.model() + " " + version.tag() + ": " + e.getMessage(), e);
+        }
+        String actual = Sha256.toHex(digest.digest());
+        if (!actual.equals(version.sha256()) || counted.count() != version.size()) {
+            mismatches.add(new VerifyReport.Mismatch(version.model(), version.tag(), version.sha256(), actual, version.size(), counted.count()));
+            return;
+        }
+        if (unreadable != null) {
+            unusable.add(new VerifyReport.Unusable(version.model(), version.tag(), unreadable));
+            return;
+        }
+        try {
+            BundleCheck.load(contents, version.model(), version.tag(), "");
+        } catch (StoreException e) {
+            String prefix = version.model() + " " + version.tag() + ": ";
+            unusable.add(new VerifyReport.Unusable(version.model(), version.tag(),
+                    e.getMessage().startsWith(prefix) ? e.getMessage().substring(prefix.length()) : e.getMessage()));
+        }
+    }
+
+    @Override
+    public void probe() {
+        read("read the store's metadata", c -> {
+            // LENGTH makes each database read every value it measures: a damaged page under any row fails here
+            for (String sql : List.of("SELECT COUNT(*), SUM(LENGTH(name)) FROM models",
+                    "SELECT COUNT(*), SUM(LENGTH(model) + LENGTH(tag) + LENGTH(sha256) + LENGTH(manifest_json)"
+                            + " + COALESCE(LENGTH(signature_json), 0) + COALESCE(LENGTH(contract_json), 0)) FROM versions",
+                    "SELECT COUNT(*), SUM(LENGTH(model) + LENGTH(tag) + LENGTH(reason)) FROM activations")) {
+                try (PreparedStatement select = c.prepareStatement(sql); ResultSet rs = select.executeQuery()) {
+                    rs.next();
+                }
+            }
+            return null;
         });
     }
 
@@ -926,5 +1031,39 @@ final class JdbcBundleStore implements BundleStore {
     private static String firstLine(String message) {
         int newline = message.indexOf('\n');
         return newline < 0 ? message : message.substring(0, newline);
+    }
+
+    /** Counts the bytes read through it. */
+    private static final class CountingInputStream extends FilterInputStream {
+        private long count;
+
+        CountingInputStream(InputStream in) {
+            super(in);
+        }
+
+        @Override
+        public int read() throws IOException {
+            int b = super.read();
+            count += b < 0 ? 0 : 1;
+            return b;
+        }
+
+        @Override
+        public int read(byte[] buffer, int offset, int length) throws IOException {
+            int n = super.read(buffer, offset, length);
+            count += Math.max(n, 0);
+            return n;
+        }
+
+        @Override
+        public long skip(long n) throws IOException {
+            long skipped = super.skip(n);
+            count += skipped;
+            return skipped;
+        }
+
+        long count() {
+            return count;
+        }
     }
 }

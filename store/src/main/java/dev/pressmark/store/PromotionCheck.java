@@ -12,8 +12,9 @@ import java.util.Optional;
 /**
  * Whether a candidate version may replace the active one. Pure: it reads the two versions'
  * manifests and, when there is one, the shadow summary of the candidate against the active
- * version, and decides by a {@link PromotionPolicy}. The command line and the HTTP service both
- * call it before activating; a rollback never does, since it is the way back in an emergency.
+ * version, and decides by a {@link PromotionPolicy}. {@link Promotion}, which the command line and
+ * the HTTP service both call, runs it before activating; a rollback never does, since it is the
+ * way back in an emergency.
  *
  * <p>The metric comes from the manifests' {@code metrics.test} (the held-out split), else from
  * {@code metrics.cv} ({@code mean} of the cross-validation folds), the same source for both

@@ -21,6 +21,12 @@ public final class StoreException extends PressmarkException {
     public static final String INVALID_NAME = "invalid-model-name";
     public static final String INVALID_TAG = "invalid-tag";
     public static final String NOT_A_BUNDLE = "not-a-bundle";
+    /** A well-formed bundle, every checksum holding, whose contents do not load as a model. */
+    public static final String UNUSABLE = "bundle-unusable";
+    /** A bundle that goes past one of the declared resource limits ({@link dev.pressmark.core.bundle.BundleLimits}). */
+    public static final String LIMIT = "bundle-limit";
+    /** A compare-and-set activation found another version active than the one it was checked against. */
+    public static final String ACTIVE_CHANGED = "active-changed";
     public static final String TAG_EXISTS = "tag-exists";
     public static final String NO_SUCH_MODEL = "no-such-model";
     public static final String NO_SUCH_VERSION = "no-such-version";

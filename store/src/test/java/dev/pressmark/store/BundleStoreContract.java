@@ -285,6 +285,201 @@ abstract class BundleStoreContract {
     }
 
     @Test
+    void a_bundle_whose_checksums_hold_but_whose_contents_do_not_load_is_refused_and_nothing_is_stored() {
+        UnusableBundles.unusable().forEach((what, bundle) -> assertThatThrownBy(() -> store.publish("routing", "1", bundle, ACTOR)).as(what)
+                .isInstanceOf(StoreException.class).hasMessageStartingWith("cannot publish routing 1: ")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.UNUSABLE));
+        assertThat(store.models()).isEmpty();
+    }
+
+    @Test
+    void a_bundle_past_a_declared_limit_is_refused_naming_the_limit_and_nothing_is_stored() {
+        assertThatThrownBy(() -> store.publish("routing", "1", UnusableBundles.claimingMaxIntFeatures(), ACTOR))
+                .isInstanceOf(StoreException.class)
+                .hasMessage("cannot publish routing 1: weights.bin: the header declares 2,147,483,647 features, more than 1,048,576,"
+                        + " the limit on a model's features")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.LIMIT);
+        assertThatThrownBy(() -> store.publish("routing", "1", UnusableBundles.vocabularyPastTheLimit(), ACTOR))
+                .isInstanceOf(StoreException.class)
+                .hasMessage("cannot publish routing 1: tokenizer.json: vocabulary has more than 1,048,576 tokens, the limit on a vocabulary's size")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.LIMIT);
+        assertThat(store.models()).isEmpty();
+    }
+
+    /** Stores {@code bundle} under its true SHA-256 by SQL, past the store's publish checks: as a store written by an older program holds it. */
+    void storeBehindTheStoresBack(String model, String tag, byte[] bundle) throws Exception {
+        try (Connection c = rawConnection()) {
+            try (PreparedStatement insert = c.prepareStatement("INSERT INTO models (name, created_at) VALUES (?, 0) ON CONFLICT (name) DO NOTHING")) {
+                insert.setString(1, model);
+                insert.executeUpdate();
+            }
+            try (PreparedStatement insert = c.prepareStatement("INSERT INTO versions (model, tag, sha256, size, created_at, manifest_json, bundle)"
+                    + " VALUES (?, ?, ?, ?, 0, ?, ?)")) {
+                insert.setString(1, model);
+                insert.setString(2, tag);
+                insert.setString(3, jdkSha256(bundle));
+                insert.setLong(4, bundle.length);
+                insert.setString(5, BundleArchive.read(bundle).manifestJson());
+                insert.setBytes(6, bundle);
+                insert.executeUpdate();
+            }
+        }
+    }
+
+    @Test
+    void verify_reports_each_stored_version_that_does_not_load_though_its_checksum_matches() throws Exception {
+        publish("routing", "good", 1);
+        storeBehindTheStoresBack("routing", "bad", UnusableBundles.claimingMaxIntFeatures());
+        storeBehindTheStoresBack("routing", "empty", UnusableBundles.unusable().get("an empty tokenizer"));
+        VerifyReport report = store.verify(Optional.empty());
+        assertThat(report.checked()).isEqualTo(3);
+        assertThat(report.mismatches()).isEmpty();
+        assertThat(report.ok()).isFalse();
+        assertThat(report.unusable()).extracting(VerifyReport.Unusable::tag).containsExactly("bad", "empty");
+        assertThat(report.unusable().get(0).describe())
+                .isEqualTo("routing bad: weights.bin: the header declares 2,147,483,647 features, more than 1,048,576, the limit on a model's features");
+        assertThat(store.verify(Optional.of("routing")).unusable()).hasSize(2);
+    }
+
+    @Test
+    void an_activation_that_expected_another_active_version_fails_cleanly_and_changes_nothing() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        publish("routing", "c", 3);
+        store.activate("routing", "a", ACTOR, "first");
+        try (BundleStore other = BundleStore.open(url)) {
+            // this handle checked c against a; meanwhile another replica makes b active
+            other.activate("routing", "b", "other", "in between");
+            assertThatThrownBy(() -> store.activate("routing", "c", Optional.of("a"), ACTOR, "checked against a"))
+                    .isInstanceOf(StoreException.class)
+                    .hasMessage("cannot activate routing c: the active version changed from a to b since it was checked; check again")
+                    .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.ACTIVE_CHANGED);
+            assertThat(store.activeVersion("routing")).map(Version::tag).contains("b");
+            assertThat(store.activations("routing")).hasSize(2);
+            assertThat(store.activate("routing", "c", Optional.of("b"), ACTOR, "checked against b").tag()).isEqualTo("c");
+            assertThat(other.activeVersion("routing")).map(Version::tag).contains("c");
+        }
+    }
+
+    @Test
+    void an_activation_that_expected_no_active_version_fails_once_one_is_active() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        store.activate("routing", "a", ACTOR, "first");
+        assertThatThrownBy(() -> store.activate("routing", "b", Optional.empty(), ACTOR, ""))
+                .hasMessage("cannot activate routing b: the active version changed from none to a since it was checked; check again");
+        assertThat(store.activate("routing", "a", Optional.of("a"), ACTOR, "again").tag()).isEqualTo("a");
+        assertThat(store.activations("routing")).hasSize(1);
+    }
+
+    private static Promotion.Request plainActivation(String tag) {
+        return new Promotion.Request("routing", tag, false, "", PromotionPolicy.defaults(), ACTOR);
+    }
+
+    @Test
+    void a_promotion_checked_against_a_version_that_another_client_replaced_meanwhile_fails_cleanly() throws Exception {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        publish("routing", "c", 3);
+        store.activate("routing", "a", ACTOR, "first");
+        try (BundleStore other = BundleStore.open(url)) {
+            // the real store, except that its load (the step between the check and the write) lets another client activate b first
+            BundleStore interleaved = (BundleStore) java.lang.reflect.Proxy.newProxyInstance(BundleStore.class.getClassLoader(),
+                    new Class<?>[] {BundleStore.class}, (proxy, method, args) -> {
+                        if (method.getName().equals("load")) {
+                            other.activate("routing", "b", "other", "in between");
+                        }
+                        try {
+                            return method.invoke(store, args);
+                        } catch (java.lang.reflect.InvocationTargetException e) {
+                            throw e.getCause();
+                        }
+                    });
+            assertThatThrownBy(() -> Promotion.activate(interleaved, plainActivation("c"), Optional.empty()))
+                    .isInstanceOf(StoreException.class)
+                    .hasMessage("cannot activate routing c: the active version changed from a to b since it was checked; check again")
+                    .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.ACTIVE_CHANGED);
+            assertThat(store.activeVersion("routing")).map(Version::tag).contains("b");
+            assertThat(store.activations("routing")).extracting(Activation::tag).containsExactly("b", "a");
+        }
+        Promotion.Result again = Promotion.activate(store, plainActivation("c"), Optional.empty());
+        assertThat(again.activation().tag()).isEqualTo("c");
+        assertThat(again.outcome().passed()).isTrue();
+        assertThat(store.events("routing").get(0).detail()).isEqualTo("replaces b");
+    }
+
+    @Test
+    void a_promotion_of_a_version_this_process_cannot_load_is_refused_and_the_active_version_stays() throws Exception {
+        publish("routing", "a", 1);
+        store.activate("routing", "a", ACTOR, "first");
+        storeBehindTheStoresBack("routing", "big", UnusableBundles.claimingMaxIntFeatures());
+        assertThatThrownBy(() -> Promotion.activate(store, plainActivation("big"), Optional.empty()))
+                .isInstanceOf(StoreException.class)
+                .hasMessage("cannot activate routing big: weights.bin: the header declares 2,147,483,647 features, more than 1,048,576,"
+                        + " the limit on a model's features")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.LIMIT);
+        assertThat(store.activeVersion("routing")).map(Version::tag).contains("a");
+        assertThat(store.activations("routing")).hasSize(1);
+    }
+
+    @Test
+    void forcing_a_promotion_needs_a_reason() {
+        assertThatThrownBy(() -> new Promotion.Request("routing", "a", true, " ", PromotionPolicy.defaults(), ACTOR))
+                .isInstanceOf(IllegalArgumentException.class).hasMessageContaining("reason is required");
+    }
+
+    @Test
+    void a_bundle_published_from_a_file_is_streamed_into_the_store_with_the_files_sha256() throws Exception {
+        java.nio.file.Path dir = java.nio.file.Files.createTempDirectory("pressmark-publish");
+        try {
+            byte[] bundle = TestBundles.sized("routing", 5, TestBundles.FIELDS, TestBundles.LABELS, 4096);
+            java.nio.file.Path file = java.nio.file.Files.write(dir.resolve("b.pmb"), bundle);
+            Version published = store.publish("routing", "1", file, PublishOptions.DEFAULT, ACTOR);
+            assertThat(published.sha256()).isEqualTo(jdkSha256(bundle));
+            assertThat(published.sizeBytes()).isEqualTo(bundle.length);
+            // load recomputes the SHA-256 of the stored bytes and refuses them when it differs from the recorded one
+            assertThat(store.load("routing", "1").contents().entry(BundleArchive.WEIGHTS)).isEqualTo(BundleArchive.read(bundle).entry(BundleArchive.WEIGHTS));
+            assertThat(store.verify(Optional.empty()).ok()).isTrue();
+        } finally {
+            try (var files = java.nio.file.Files.walk(dir)) {
+                files.sorted(java.util.Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
+            }
+        }
+    }
+
+    @Test
+    void a_device_a_directory_or_a_file_past_the_size_limit_is_refused_before_it_is_read() throws Exception {
+        java.nio.file.Path dir = java.nio.file.Files.createTempDirectory("pressmark-publish");
+        try {
+            assertThatThrownBy(() -> store.publish("routing", "1", java.nio.file.Path.of("/dev/zero"), PublishOptions.DEFAULT, ACTOR))
+                    .isInstanceOf(StoreException.class)
+                    .hasMessage("/dev/zero: not a regular file (a directory, device or pipe); a bundle is a file");
+            assertThatThrownBy(() -> store.publish("routing", "1", dir, PublishOptions.DEFAULT, ACTOR))
+                    .hasMessageEndingWith("not a regular file (a directory, device or pipe); a bundle is a file");
+            java.nio.file.Path huge = dir.resolve("huge.pmb");
+            try (java.io.RandomAccessFile sparse = new java.io.RandomAccessFile(huge.toFile(), "rw")) {
+                sparse.setLength(BundleArchive.MAX_BUNDLE_BYTES + 1); // sparse: no disk blocks, nothing to read
+            }
+            assertThatThrownBy(() -> store.publish("routing", "1", huge, PublishOptions.DEFAULT, ACTOR))
+                    .isInstanceOf(StoreException.class)
+                    .hasMessage(huge + ": 536,870,913 bytes, more than 536,870,912, the limit on a bundle's size")
+                    .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.LIMIT);
+            java.nio.file.Path zeros = dir.resolve("zeros.pmb");
+            try (java.io.RandomAccessFile sparse = new java.io.RandomAccessFile(zeros.toFile(), "rw")) {
+                sparse.setLength(400L << 20);
+            }
+            assertThatThrownBy(() -> store.publish("routing", "1", zeros, PublishOptions.DEFAULT, ACTOR))
+                    .hasMessage(zeros + ": not a bundle: it does not start as a ZIP file")
+                    .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.NOT_A_BUNDLE);
+            assertThat(store.models()).isEmpty();
+        } finally {
+            try (var files = java.nio.file.Files.walk(dir)) {
+                files.sorted(java.util.Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
+            }
+        }
+    }
+
+    @Test
     void unknown_models_and_versions_are_named() {
         publish("routing", "a", 1);
         assertThatThrownBy(() -> store.activate("routing", "zz", ACTOR, "")).hasMessage("no version zz of model routing in the store");

@@ -1,10 +1,5 @@
 package dev.pressmark.store;
 
-import com.fasterxml.jackson.databind.node.JsonNodeFactory;
-import dev.pressmark.core.bundle.BundleArchive;
-import java.nio.charset.StandardCharsets;
-import java.util.LinkedHashMap;
-import java.util.Map;
 import java.util.SplittableRandom;
 
 /**
@@ -52,16 +47,8 @@ public final class CrashWorker {
         System.out.flush();
     }
 
+    /** A loadable bundle whose weights take about {@link #WEIGHTS_BYTES}: one score of 8-byte weights per feature. */
     private static byte[] bundle(String model, SplittableRandom random) {
-        byte[] weights = new byte[WEIGHTS_BYTES];
-        for (int i = 0; i < weights.length; i++) {
-            weights[i] = (byte) random.nextInt(256);
-        }
-        Map<String, byte[]> entries = new LinkedHashMap<>();
-        entries.put(BundleArchive.TOKENIZER, ("{\"model\":\"" + model + "\"}").getBytes(StandardCharsets.UTF_8));
-        entries.put(BundleArchive.FEATURES, "{}".getBytes(StandardCharsets.UTF_8));
-        entries.put(BundleArchive.WEIGHTS, weights);
-        entries.put(BundleArchive.PROFILE, "{}".getBytes(StandardCharsets.UTF_8));
-        return BundleArchive.toBytes(JsonNodeFactory.instance.objectNode().put("name", model), entries);
+        return TestBundles.sized(model, random.nextLong(), TestBundles.FIELDS, TestBundles.LABELS, WEIGHTS_BYTES / 8);
     }
 }

@@ -89,4 +89,42 @@ class SqliteStoreTest extends BundleStoreContract {
                 .hasMessageStartingWith("cannot open or create the store /proc/pressmark-store.db: the location is not writable")
                 .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.READ_ONLY);
     }
+
+    /** Overwrites page {@code page} (1-based) of the closed store file with zeros. */
+    private void zeroPage(long page) throws Exception {
+        try (java.nio.channels.FileChannel channel = java.nio.channels.FileChannel.open(file, java.nio.file.StandardOpenOption.WRITE)) {
+            channel.write(java.nio.ByteBuffer.allocate(PAGE_BYTES), (page - 1) * PAGE_BYTES);
+        }
+    }
+
+    /** SQLite's default page size (sqlite.org, "Database File Format", 1.3.2); the store does not change it. */
+    private static final int PAGE_BYTES = 4096;
+
+    @Test
+    void a_zeroed_page_under_the_versions_table_fails_the_readiness_probe_though_the_model_list_still_answers() throws Exception {
+        for (int i = 0; i < 40; i++) {
+            store.publish("routing", "v" + i, TestBundles.bundle("routing", i), ACTOR);
+        }
+        store.activate("routing", "v0", ACTOR, "");
+        store.probe();
+        long root;
+        try (Connection c = rawConnection(); Statement s = c.createStatement()) {
+            s.execute("PRAGMA wal_checkpoint(TRUNCATE)");
+            try (ResultSet rs = s.executeQuery("SELECT rootpage FROM sqlite_master WHERE type = 'table' AND name = 'versions'")) {
+                rs.next();
+                root = rs.getLong(1);
+            }
+            try (ResultSet rs = s.executeQuery("PRAGMA page_size")) {
+                rs.next();
+                assertThat(rs.getInt(1)).isEqualTo(PAGE_BYTES);
+            }
+        }
+        store.close();
+        zeroPage(root);
+        store = BundleStore.open(url);
+        // the list of models is answered from the index, which the zeroed page does not hold
+        assertThat(store.models()).extracting(ModelSummary::name).containsExactly("routing");
+        assertThatThrownBy(() -> store.versions("routing")).isInstanceOf(StoreException.class).hasMessageContaining("malformed");
+        assertThatThrownBy(() -> store.probe()).isInstanceOf(StoreException.class).hasMessageContaining("malformed");
+    }
 }

@@ -4,6 +4,7 @@ import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
+import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.classify.LinearClassifier;
 import dev.pressmark.core.classify.LinearWeights;
 import dev.pressmark.core.classify.PlattScaling;
@@ -90,14 +91,29 @@ public final class Bundle {
         return from(BundleArchive.read(bytes), "bundle");
     }
 
-    /** Rebuilds the model from verified contents; {@code source} names it in messages. */
+    /** Rebuilds the model from verified contents within {@link BundleLimits#DEFAULT}; {@code source} names it in messages. */
     public static Bundle from(BundleContents contents, String source) {
+        return from(contents, source, BundleLimits.DEFAULT);
+    }
+
+    /**
+     * Rebuilds the model from verified contents. The sizes that the entries declare (features,
+     * vocabulary tokens) are checked against {@code limits} before anything is built from them; a
+     * bundle past one is a {@link BundleException#LIMIT} naming it.
+     */
+    public static Bundle from(BundleContents contents, String source, BundleLimits limits) {
         JsonNode manifest = contents.manifest();
         try {
             List<String> labels = strings(manifest.path(LABELS));
-            List<TokenizerSpec> views = TokenizerViews.read(contents.entry(BundleArchive.TOKENIZER));
-            FeatureSpace features = FeatureSpace.fromState(JSON.readValue(contents.entry(BundleArchive.FEATURES), FeatureSpace.State.class));
-            LinearWeights weights = WeightsCodec.read(contents.entry(BundleArchive.WEIGHTS));
+            byte[] tokenizer = contents.entry(BundleArchive.TOKENIZER);
+            byte[] featureState = contents.entry(BundleArchive.FEATURES);
+            ArrayCounter.requireAtMost(tokenizer, BundleArchive.TOKENIZER, "vocabulary", limits.maxVocabularyTokens(), "tokens",
+                    "a vocabulary's size");
+            ArrayCounter.requireAtMost(featureState, BundleArchive.FEATURES, "features", limits.maxFeatures(), "features",
+                    "a model's features");
+            List<TokenizerSpec> views = TokenizerViews.read(tokenizer);
+            FeatureSpace features = FeatureSpace.fromState(JSON.readValue(featureState, FeatureSpace.State.class));
+            LinearWeights weights = WeightsCodec.read(contents.entry(BundleArchive.WEIGHTS), limits.maxFeatures());
             JsonNode classifierNode = manifest.path(CLASSIFIER);
             List<PlattScaling> platt = new ArrayList<>();
             for (JsonNode sigmoid : classifierNode.path("platt")) {
@@ -117,7 +133,9 @@ public final class Bundle {
                         + BundleArchive.FORMAT_VERSION + ", but the manifest says " + BundleArchive.FORMAT_VERSION_1);
             }
             return new Bundle(manifest, labels, pipeline, model, profile);
-        } catch (IOException | IllegalArgumentException e) {
+        } catch (BundleException e) {
+            throw new BundleException(e.code(), source + ": " + e.getMessage(), e);
+        } catch (IOException | IllegalArgumentException | PressmarkException e) {
             throw new BundleException(BundleException.CORRUPT, source + ": not a usable model: " + e.getMessage(), e);
         }
     }

@@ -27,6 +27,8 @@ public final class BundleException extends PressmarkException {
     public static final String ENTRY_MISMATCH = "bundle-entry-mismatch";
     /** The stream under the bundle failed (a disk or network error, not the bundle's content). */
     public static final String UNREADABLE = "bundle-unreadable";
+    /** A well-formed bundle whose contents go past a {@link BundleLimits} limit (features, vocabulary). */
+    public static final String LIMIT = "bundle-limit";
     /** The manifest is not valid JSON or lacks a required field. */
     public static final String MANIFEST = "bundle-manifest";
 

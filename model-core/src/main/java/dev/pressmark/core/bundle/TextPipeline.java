@@ -7,9 +7,8 @@ import dev.pressmark.core.tokenize.Tokenizer;
 import dev.pressmark.core.tokenize.ViewsTokenizer;
 import dev.pressmark.core.tokenize.WordPieceVocabulary;
 import dev.pressmark.core.feature.SpanIndex;
+import dev.pressmark.core.feature.TokenSource;
 import java.util.ArrayList;
-import java.util.HashMap;
-import java.util.Map;
 import java.util.List;
 import java.util.Objects;
 
@@ -56,7 +55,7 @@ public final class TextPipeline {
             index = buildSpanIndex();
             spanIndex = index;
         }
-        List<Tokenizer> viewTokenizers = tokenizer instanceof ViewsTokenizer tagged ? tagged.views() : List.of(tokenizer);
+        List<Tokenizer> viewTokenizers = viewTokenizers();
         boolean[] wordPiece = new boolean[views.size()];
         for (int v = 0; v < wordPiece.length; v++) {
             wordPiece[v] = views.get(v).isWordPiece();
@@ -65,26 +64,47 @@ public final class TextPipeline {
     }
 
     private SpanIndex[][] buildSpanIndex() {
-        ViewsTokenizer tagged = tokenizer instanceof ViewsTokenizer v ? v : null;
-        SpanIndex[][] index = new SpanIndex[features.columns().size()][views.size()];
-        for (int c = 0; c < index.length; c++) {
-            List<Map<String, Integer>> byView = new ArrayList<>();
-            for (int v = 0; v < views.size(); v++) {
-                byView.add(new HashMap<>());
+        return features.spanIndex(prefixes());
+    }
+
+    /** Per view, what its tokens carry in front in the feature space: its tag, or nothing for a single view. */
+    public List<String> prefixes() {
+        return prefixes(tokenizer);
+    }
+
+    /** Per view of {@code tokenizer}, what its tokens carry in front in a feature space. */
+    public static List<String> prefixes(Tokenizer tokenizer) {
+        if (tokenizer instanceof ViewsTokenizer tagged) {
+            List<String> prefixes = new ArrayList<>(tagged.tags().size());
+            tagged.tags().forEach(tag -> prefixes.add(tag + ViewsTokenizer.SEPARATOR));
+            return prefixes;
+        }
+        return List.of("");
+    }
+
+    /** The tokenizer of each view, untagged. */
+    public List<Tokenizer> viewTokenizers() {
+        return tokenizer instanceof ViewsTokenizer tagged ? tagged.views() : List.of(tokenizer);
+    }
+
+    /** {@code rows} (one text per column) as the views scan them, for fitting and transforming without token lists. */
+    public static TokenSource source(List<Tokenizer> viewTokenizers, List<String[]> rows) {
+        return new TokenSource() {
+            @Override
+            public int rows() {
+                return rows.size();
             }
-            for (Map.Entry<String, Integer> entry : features.tokensOf(c).entrySet()) {
-                String token = entry.getKey();
-                int view = tagged == null ? 0 : tagged.viewOf(token);
-                if (view >= 0) {
-                    String raw = tagged == null ? token : token.substring(tagged.tags().get(view).length() + 1);
-                    byView.get(view).put(raw, entry.getValue());
+
+            @Override
+            public void scan(int row, int column, Sink sink) {
+                String text = rows.get(row)[column];
+                for (int v = 0; v < viewTokenizers.size(); v++) {
+                    int view = v;
+                    viewTokenizers.get(v).scan(text == null ? "" : text, Integer.MAX_VALUE,
+                            (chars, start, end) -> sink.token(view, chars, start, end));
                 }
             }
-            for (int v = 0; v < views.size(); v++) {
-                index[c][v] = new SpanIndex(byView.get(v));
-            }
-        }
-        return index;
+        };
     }
 
     /** A pipeline of one view. */
@@ -151,7 +171,7 @@ public final class TextPipeline {
 
     /** The feature rows of {@code rows}, each with one text per column. */
     public SparseMatrix transform(List<String[]> rows) {
-        return features.transform(tokenize(tokenizer, rows));
+        return features.transform(source(viewTokenizers(), rows), prefixes());
     }
 
     /**

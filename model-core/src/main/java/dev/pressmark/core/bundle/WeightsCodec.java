@@ -43,6 +43,11 @@ final class WeightsCodec {
     }
 
     static LinearWeights read(byte[] bytes) {
+        return read(bytes, BundleLimits.DEFAULT.maxFeatures());
+    }
+
+    /** Reads the weights, refusing a header that declares more than {@code maxFeatures} features before anything is sized from it. */
+    static LinearWeights read(byte[] bytes, int maxFeatures) {
         ByteBuffer in = ByteBuffer.wrap(bytes).order(ByteOrder.LITTLE_ENDIAN);
         if (bytes.length < HEADER_BYTES || in.get(0) != MAGIC[0] || in.get(1) != MAGIC[1] || in.get(2) != MAGIC[2] || in.get(3) != MAGIC[3]) {
             throw corrupt("does not start with the weights header");
@@ -59,6 +64,10 @@ final class WeightsCodec {
         double bias = in.getDouble();
         if (classes < 2 || scores != (classes == 2 ? 1 : classes) || features < 0) {
             throw corrupt("inconsistent header: " + classes + " classes, " + scores + " scores, " + features + " features");
+        }
+        if (features > maxFeatures) {
+            throw BundleLimits.exceeded(String.format("weights.bin: the header declares %,d features, more than %,d, the limit on a model's"
+                    + " features", features, maxFeatures));
         }
         // below 2^62, so this product cannot overflow; the same count in bytes could, and did let a
         // 28-byte file with 2^30 scores and 2^31 - 1 features past the size check

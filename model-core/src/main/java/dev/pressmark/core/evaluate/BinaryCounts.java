@@ -22,7 +22,9 @@ package dev.pressmark.core.evaluate;
  *       gives 0.
  * </ul>
  * These follow the choice common practice makes for precision, recall and F1 (a zero numerator
- * wins); for MCC and kappa they report "no measurable association".
+ * wins); for MCC and kappa they report "no measurable association". The formulas live in
+ * {@link BinaryWeights}, the same table with case weights, so counts and all-ones weights agree
+ * exactly.
  */
 public record BinaryCounts(long truePositives, long falsePositives, long falseNegatives, long trueNegatives) {
 
@@ -43,39 +45,44 @@ public record BinaryCounts(long truePositives, long falsePositives, long falseNe
         return truePositives + falsePositives + falseNegatives + trueNegatives;
     }
 
+    /** The same cells as weights; every metric here is computed there. */
+    public BinaryWeights weights() {
+        return new BinaryWeights(truePositives, falsePositives, falseNegatives, trueNegatives);
+    }
+
     /** (TP + TN) / N. */
     public double accuracy() {
-        return ratio(truePositives + trueNegatives, total());
+        return weights().accuracy();
     }
 
     /** (sensitivity + specificity) / 2. */
     public double balancedAccuracy() {
-        return 0.5 * (sensitivity() + specificity());
+        return weights().balancedAccuracy();
     }
 
     /** Recall, true-positive rate: TP / (TP + FN). */
     public double sensitivity() {
-        return ratio(truePositives, truePositives + falseNegatives);
+        return weights().sensitivity();
     }
 
     /** True-negative rate: TN / (TN + FP). */
     public double specificity() {
-        return ratio(trueNegatives, trueNegatives + falsePositives);
+        return weights().specificity();
     }
 
     /** Positive predictive value: TP / (TP + FP). */
     public double precision() {
-        return ratio(truePositives, truePositives + falsePositives);
+        return weights().precision();
     }
 
     /** Negative predictive value: TN / (TN + FN). */
     public double npv() {
-        return ratio(trueNegatives, trueNegatives + falseNegatives);
+        return weights().npv();
     }
 
     /** The harmonic mean of precision and sensitivity, in the form 2TP / (2TP + FP + FN). */
     public double f1() {
-        return ratio(2 * truePositives, 2 * truePositives + falsePositives + falseNegatives);
+        return weights().f1();
     }
 
     /**
@@ -83,45 +90,16 @@ public record BinaryCounts(long truePositives, long falsePositives, long falseNe
      * (TP·TN − FP·FN) / sqrt((TP + FP)(TP + FN)(TN + FP)(TN + FN)).
      */
     public double mcc() {
-        long predictedPositive = truePositives + falsePositives;
-        long actualPositive = truePositives + falseNegatives;
-        long actualNegative = trueNegatives + falsePositives;
-        long predictedNegative = trueNegatives + falseNegatives;
-        if (predictedPositive == 0 || actualPositive == 0 || actualNegative == 0 || predictedNegative == 0) {
-            return 0.0;
-        }
-        double numerator = (double) (truePositives * trueNegatives - falsePositives * falseNegatives);
-        // The product in doubles: it can overflow a long, and one root keeps a perfect table at exactly ±1.
-        double denominator = Math.sqrt((double) predictedPositive * actualPositive * actualNegative * predictedNegative);
-        return numerator / denominator;
+        return weights().mcc();
     }
 
     /** Cohen's kappa (Cohen 1960, Educ Psychol Meas 20:37): (p_o − p_e) / (1 − p_e). */
     public double kappa() {
-        long n = total();
-        long chance = (truePositives + falsePositives) * (truePositives + falseNegatives)
-                + (falseNegatives + trueNegatives) * (falsePositives + trueNegatives);
-        return Agreement.kappa(n, truePositives + trueNegatives, chance);
+        return weights().kappa();
     }
 
     /** The value of {@code metric}; {@link Metric#needsScores() score metrics} are not defined here. */
     public double get(Metric metric) {
-        return switch (metric) {
-            case ACCURACY -> accuracy();
-            case BALANCED_ACCURACY -> balancedAccuracy();
-            case SENSITIVITY -> sensitivity();
-            case SPECIFICITY -> specificity();
-            case PRECISION -> precision();
-            case NPV -> npv();
-            case F1 -> f1();
-            case MCC -> mcc();
-            case KAPPA -> kappa();
-            case ROC_AUC, PR_AUC -> throw new IllegalArgumentException(
-                    metric.key() + " needs scores, not a confusion table");
-        };
-    }
-
-    static double ratio(long numerator, long denominator) {
-        return denominator == 0 ? 0.0 : (double) numerator / (double) denominator;
+        return weights().get(metric);
     }
 }

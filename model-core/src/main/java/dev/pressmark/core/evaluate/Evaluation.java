@@ -18,6 +18,11 @@ import java.util.OptionalInt;
  * balanced accuracy; the macro {@code balanced_accuracy} is the mean of each class's
  * (sensitivity + specificity) / 2.)
  *
+ * <p>Every factory takes optional case weights (one finite weight {@code >= 0} per row; {@code null}
+ * means every row weighs 1): the confusion matrix, every metric and both areas then sum weights
+ * where they would count rows. A row of weight 0 counts nowhere; integer weight w counts as w
+ * copies of the row; the unweighted factories give exactly the all-ones values.
+ *
  * <p>{@link #overall()} is what a report leads with:
  * <ul>
  *   <li>{@link #binary two classes}: the positive class's values;
@@ -54,10 +59,22 @@ public final class Evaluation {
      * @param positiveScores one score per row, or {@code null} for none
      */
     public static Evaluation binary(int[] truth, int[] predicted, double[] positiveScores, int positiveClass) {
+        return binary(truth, predicted, positiveScores, null, positiveClass);
+    }
+
+    /**
+     * Two classes with a case weight per row: every metric, the areas included, sums weights where
+     * the unweighted form counts rows (see {@link ConfusionMatrix} and {@link RankMetrics}).
+     *
+     * @param positiveScores one score per row, or {@code null} for none
+     * @param weights one finite weight {@code >= 0} per row, not all 0, or {@code null} for all 1
+     */
+    public static Evaluation binary(int[] truth, int[] predicted, double[] positiveScores, double[] weights,
+            int positiveClass) {
         if (positiveClass != 0 && positiveClass != 1) {
             throw new IllegalArgumentException("positiveClass must be 0 or 1, was " + positiveClass);
         }
-        ConfusionMatrix confusion = checkedConfusion(truth, predicted, 2);
+        ConfusionMatrix confusion = checkedConfusion(truth, predicted, weights, 2);
         double[] columns = null;
         if (positiveScores != null) {
             if (positiveScores.length != truth.length) {
@@ -71,7 +88,7 @@ public final class Evaluation {
                 columns[2 * i + 1 - positiveClass] = -positiveScores[i];
             }
         }
-        List<MetricValues> perClass = perClass(confusion, truth, columns);
+        List<MetricValues> perClass = perClass(confusion, truth, columns, weights);
         return new Evaluation(confusion, positiveClass, perClass.get(positiveClass), macro(perClass), perClass);
     }
 
@@ -87,15 +104,27 @@ public final class Evaluation {
      * @param scores {@code truth.length × classCount} scores, or {@code null} for none
      */
     public static Evaluation multiClass(int[] truth, int[] predicted, double[] scores, int classCount) {
+        return multiClass(truth, predicted, scores, null, classCount);
+    }
+
+    /**
+     * {@code classCount} classes with a case weight per row: every metric sums weights where the
+     * unweighted form counts rows.
+     *
+     * @param scores {@code truth.length × classCount} scores, or {@code null} for none
+     * @param weights one finite weight {@code >= 0} per row, not all 0, or {@code null} for all 1
+     */
+    public static Evaluation multiClass(int[] truth, int[] predicted, double[] scores, double[] weights,
+            int classCount) {
         if (classCount < 2) {
             throw new IllegalArgumentException("classCount must be >= 2, was " + classCount);
         }
-        ConfusionMatrix confusion = checkedConfusion(truth, predicted, classCount);
+        ConfusionMatrix confusion = checkedConfusion(truth, predicted, weights, classCount);
         if (scores != null && scores.length != (long) truth.length * classCount) {
             throw new IllegalArgumentException("scores must hold " + classCount + " per row, "
                     + (long) truth.length * classCount + " in all, had " + scores.length);
         }
-        List<MetricValues> perClass = perClass(confusion, truth, scores);
+        List<MetricValues> perClass = perClass(confusion, truth, scores, weights);
         MetricValues macro = macro(perClass);
         MetricValues.Builder overall = MetricValues.builder();
         for (Metric metric : macro.metrics()) {
@@ -107,19 +136,24 @@ public final class Evaluation {
         return new Evaluation(confusion, -1, overall.build(), macro, perClass);
     }
 
-    private static ConfusionMatrix checkedConfusion(int[] truth, int[] predicted, int classCount) {
+    private static ConfusionMatrix checkedConfusion(int[] truth, int[] predicted, double[] weights, int classCount) {
         Objects.requireNonNull(truth, "truth");
         if (truth.length == 0) {
             throw new IllegalArgumentException("truth must not be empty");
         }
-        return ConfusionMatrix.of(truth, predicted, classCount);
+        ConfusionMatrix confusion = ConfusionMatrix.of(truth, predicted, weights, classCount);
+        if (!(confusion.totalWeight() > 0)) {
+            throw new IllegalArgumentException("weights must not all be 0: no row of the " + truth.length + " would count");
+        }
+        return confusion;
     }
 
-    private static List<MetricValues> perClass(ConfusionMatrix confusion, int[] truth, double[] scores) {
+    private static List<MetricValues> perClass(ConfusionMatrix confusion, int[] truth, double[] scores,
+            double[] weights) {
         int k = confusion.classCount();
         List<MetricValues> out = new ArrayList<>(k);
         for (int c = 0; c < k; c++) {
-            BinaryCounts counts = confusion.oneVsRest(c);
+            BinaryWeights counts = confusion.oneVsRestWeights(c);
             MetricValues.Builder values = MetricValues.builder();
             for (Metric metric : Metric.values()) {
                 if (!metric.needsScores()) {
@@ -127,14 +161,13 @@ public final class Evaluation {
                 }
             }
             if (scores != null) {
-                values.put(Metric.ROC_AUC, RankMetrics.rocAuc(truth, scores, k, c, c))
-                        .put(Metric.PR_AUC, RankMetrics.averagePrecision(truth, scores, k, c, c));
+                values.put(Metric.ROC_AUC, RankMetrics.rocAuc(truth, scores, weights, k, c, c))
+                        .put(Metric.PR_AUC, RankMetrics.averagePrecision(truth, scores, weights, k, c, c));
             }
             out.add(values.build());
         }
         return Collections.unmodifiableList(out);
     }
-
     private static MetricValues macro(List<MetricValues> perClass) {
         MetricValues.Builder out = MetricValues.builder();
         for (Metric metric : perClass.get(0).metrics()) {

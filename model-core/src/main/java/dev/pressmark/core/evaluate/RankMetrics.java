@@ -5,12 +5,18 @@ import java.util.Objects;
 
 /**
  * Threshold-free metrics of a score that ranks rows: higher means more likely the positive class.
- * Both kernels sort the positives' and the negatives' scores apart ({@code O(n log n)}) and then
- * merge them in one linear walk, so equal scores form one group wherever they fall.
+ * Both kernels sort the distinct scores ({@code O(n log n)}), sum the positives' and the
+ * negatives' weights at each score, and then walk the scores once, so equal scores form one group
+ * wherever they fall.
+ *
+ * <p>Each row may carry a case weight (finite, {@code >= 0}); without weights every row weighs 1.
+ * A row of weight 0 counts nowhere; a row of integer weight w counts as w copies of itself, and
+ * the sums stay exact integers (below 2<sup>53</sup>), so the unweighted result and the all-ones
+ * result are the same number.
  *
  * <p>Scores must not be NaN; −0.0 counts as equal to 0.0. The 0/0 cases are defined: with no
- * positive or no negative rows {@link #rocAuc} is 0.5, the value of a ranking that separates
- * nothing; with no positive rows {@link #averagePrecision} is 0, as sensitivity is then.
+ * positive or no negative weight {@link #rocAuc} is 0.5, the value of a ranking that separates
+ * nothing; with no positive weight {@link #averagePrecision} is 0, as sensitivity is then.
  */
 public final class RankMetrics {
 
@@ -27,7 +33,7 @@ public final class RankMetrics {
      * @param positiveClass the class that counts as positive; every other class is negative
      */
     public static double rocAuc(int[] truth, double[] scores, int positiveClass) {
-        return rocAuc(truth, scores, 1, 0, positiveClass);
+        return rocAuc(truth, scores, null, 1, 0, positiveClass);
     }
 
     /**
@@ -35,29 +41,33 @@ public final class RankMetrics {
      * which reads one class's column of a row-major score matrix.
      */
     public static double rocAuc(int[] truth, double[] scores, int stride, int column, int positiveClass) {
-        Ranked ranked = Ranked.of(truth, scores, stride, column, positiveClass);
-        double[] pos = ranked.positives;
-        double[] neg = ranked.negatives;
-        if (pos.length == 0 || neg.length == 0) {
+        return rocAuc(truth, scores, null, stride, column, positiveClass);
+    }
+
+    /**
+     * The weighted area under the ROC curve: each (positive, negative) pair counts with the product
+     * of the two weights, a tie one half of it, over the product of the positive and the negative
+     * weight sums. This is the trapezoidal area under the ROC curve whose axes are weighted rates,
+     * the curve of scikit-learn's {@code roc_curve} with {@code sample_weight}.
+     *
+     * @param weights one weight per row, or {@code null} for all 1
+     */
+    public static double rocAuc(int[] truth, double[] scores, double[] weights, int stride, int column,
+            int positiveClass) {
+        Ranked ranked = Ranked.of(truth, scores, weights, stride, column, positiveClass);
+        double positiveWeight = ranked.positiveWeight();
+        double negativeWeight = ranked.negativeWeight();
+        if (positiveWeight == 0 || negativeWeight == 0) {
             return 0.5;
         }
-        // Twice the Mann-Whitney U, so that half-counted ties stay integral.
-        long twiceU = 0;
-        int below = 0;
-        int notAbove = 0;
-        for (double score : pos) {
-            while (below < neg.length && neg[below] < score) {
-                below++;
-            }
-            if (notAbove < below) {
-                notAbove = below;
-            }
-            while (notAbove < neg.length && neg[notAbove] <= score) {
-                notAbove++;
-            }
-            twiceU += below + notAbove;
+        // Twice the Mann-Whitney U, so that half-counted ties of integer weights stay integral.
+        double twiceU = 0;
+        double negativesBelow = 0;
+        for (int level = 0; level < ranked.levels(); level++) {
+            twiceU += ranked.positive[level] * (2 * negativesBelow + ranked.negative[level]);
+            negativesBelow += ranked.negative[level];
         }
-        return (double) twiceU / (2.0 * pos.length * neg.length);
+        return twiceU / (2 * positiveWeight * negativeWeight);
     }
 
     /**
@@ -73,52 +83,72 @@ public final class RankMetrics {
      * @param positiveClass the class that counts as positive; every other class is negative
      */
     public static double averagePrecision(int[] truth, double[] scores, int positiveClass) {
-        return averagePrecision(truth, scores, 1, 0, positiveClass);
+        return averagePrecision(truth, scores, null, 1, 0, positiveClass);
     }
 
     /** {@link #averagePrecision(int[], double[], int)} over a column of a row-major score matrix. */
     public static double averagePrecision(int[] truth, double[] scores, int stride, int column, int positiveClass) {
-        Ranked ranked = Ranked.of(truth, scores, stride, column, positiveClass);
-        double[] pos = ranked.positives;
-        double[] neg = ranked.negatives;
-        if (pos.length == 0) {
+        return averagePrecision(truth, scores, null, stride, column, positiveClass);
+    }
+
+    /**
+     * Weighted average precision: precision and recall from summed weights, as scikit-learn's
+     * {@code average_precision_score} with {@code sample_weight}.
+     *
+     * @param weights one weight per row, or {@code null} for all 1
+     */
+    public static double averagePrecision(int[] truth, double[] scores, double[] weights, int stride, int column,
+            int positiveClass) {
+        Ranked ranked = Ranked.of(truth, scores, weights, stride, column, positiveClass);
+        double positiveWeight = ranked.positiveWeight();
+        if (positiveWeight == 0) {
             return 0.0;
         }
         double sum = 0.0;
-        long truePositives = 0;
-        long falsePositives = 0;
-        int i = pos.length - 1;
-        int j = neg.length - 1;
-        while (i >= 0) {
-            double threshold = j >= 0 && neg[j] > pos[i] ? neg[j] : pos[i];
-            long gained = 0;
-            while (i >= 0 && pos[i] == threshold) {
-                gained++;
-                i--;
-            }
-            while (j >= 0 && neg[j] == threshold) {
-                falsePositives++;
-                j--;
-            }
+        double truePositives = 0;
+        double falsePositives = 0;
+        for (int level = ranked.levels() - 1; level >= 0; level--) {
+            double gained = ranked.positive[level];
+            falsePositives += ranked.negative[level];
             if (gained > 0) {
                 truePositives += gained;
-                sum += (double) gained * truePositives / (truePositives + falsePositives);
+                sum += gained * truePositives / (truePositives + falsePositives);
             }
         }
-        return sum / pos.length;
+        return sum / positiveWeight;
     }
 
-    /** The scores of one ranking split by class and sorted ascending. */
+    /** The distinct scores of one ranking, ascending, with the positives' and negatives' weight at each. */
     private static final class Ranked {
-        final double[] positives;
-        final double[] negatives;
+        final double[] positive;
+        final double[] negative;
 
-        private Ranked(double[] positives, double[] negatives) {
-            this.positives = positives;
-            this.negatives = negatives;
+        private Ranked(double[] positive, double[] negative) {
+            this.positive = positive;
+            this.negative = negative;
         }
 
-        static Ranked of(int[] truth, double[] scores, int stride, int column, int positiveClass) {
+        int levels() {
+            return positive.length;
+        }
+
+        double positiveWeight() {
+            return sum(positive);
+        }
+
+        double negativeWeight() {
+            return sum(negative);
+        }
+
+        private static double sum(double[] values) {
+            double sum = 0;
+            for (double v : values) {
+                sum += v;
+            }
+            return sum;
+        }
+
+        static Ranked of(int[] truth, double[] scores, double[] weights, int stride, int column, int positiveClass) {
             Objects.requireNonNull(truth, "truth");
             Objects.requireNonNull(scores, "scores");
             if (stride < 1) {
@@ -131,32 +161,41 @@ public final class RankMetrics {
                 throw new IllegalArgumentException("scores must hold " + stride + " per row, "
                         + (long) truth.length * stride + " in all, had " + scores.length);
             }
-            int positiveCount = 0;
-            for (int label : truth) {
-                if (label == positiveClass) {
-                    positiveCount++;
-                }
-            }
-            double[] pos = new double[positiveCount];
-            double[] neg = new double[truth.length - positiveCount];
-            int p = 0;
-            int q = 0;
+            CaseWeights.check(weights, truth.length);
+            double[] sorted = new double[truth.length];
             for (int row = 0; row < truth.length; row++) {
                 double score = scores[row * stride + column];
                 if (Double.isNaN(score)) {
                     throw new IllegalArgumentException("scores[" + (row * stride + column) + "] must not be NaN");
                 }
                 // Adding 0.0 turns -0.0 into 0.0, which Arrays.sort would otherwise order below it.
-                score += 0.0;
+                sorted[row] = score + 0.0;
+            }
+            Arrays.sort(sorted);
+            int levels = distinctInPlace(sorted);
+            double[] positive = new double[levels];
+            double[] negative = new double[levels];
+            for (int row = 0; row < truth.length; row++) {
+                int level = Arrays.binarySearch(sorted, 0, levels, scores[row * stride + column] + 0.0);
+                double w = weights == null ? 1.0 : weights[row];
                 if (truth[row] == positiveClass) {
-                    pos[p++] = score;
+                    positive[level] += w;
                 } else {
-                    neg[q++] = score;
+                    negative[level] += w;
                 }
             }
-            Arrays.sort(pos);
-            Arrays.sort(neg);
-            return new Ranked(pos, neg);
+            return new Ranked(positive, negative);
+        }
+
+        /** Moves the distinct values of a sorted array to its front and returns how many there are. */
+        private static int distinctInPlace(double[] sorted) {
+            int distinct = 0;
+            for (int i = 0; i < sorted.length; i++) {
+                if (distinct == 0 || sorted[i] != sorted[distinct - 1]) {
+                    sorted[distinct++] = sorted[i];
+                }
+            }
+            return distinct;
         }
     }
 }

@@ -7,16 +7,82 @@ import java.util.List;
 import java.util.SplittableRandom;
 
 /**
- * Stratified resampling of labelled rows. Labels are class indices in {@code [0, classCount)};
- * every random choice comes from a {@link SplittableRandom} seeded by the caller, so the same
- * labels and seed always give the same rows. Classes with no rows are allowed and take no part.
+ * Stratified resampling of labelled rows, by row or by group. Labels are class indices in
+ * {@code [0, classCount)}; every random choice comes from a {@link SplittableRandom} seeded by the
+ * caller, so the same labels (and groups) and seed always give the same rows. Classes with no rows
+ * are allowed and take no part.
+ *
+ * <p>The grouped forms ({@link #groupedStratifiedSplit}, {@link #groupedStratifiedKFold}) take a
+ * group id per row (any ints; rows with the same id form one group) and never put one group's rows
+ * on both sides of a split or into two folds of a repeat. They deal whole groups greedily, in the
+ * manner of scikit-learn's {@code StratifiedGroupKFold}: groups in a seeded random order, stably
+ * sorted so that the group whose class counts vary most comes first, each to the part where it
+ * leaves the parts' class proportions least spread from their targets (the measure and its tie
+ * rules are in {@code GroupAssigner}). What they guarantee beyond the seed: the result depends on the rows
+ * only through the multiset of (group id, label) pairs and on the ids only through their order, so
+ * permuting the rows moves each row's side or fold with it, and so does renaming the groups by any
+ * increasing map.
  */
 public final class Resampling {
 
     /** The error code when a class has fewer rows than there are folds. */
     public static final String FOLDS_EXCEED_CLASS = "fold-count-exceeds-class-size";
 
+    /** The error code when a class's rows lie in fewer groups than there are folds. */
+    public static final String FOLDS_EXCEED_CLASS_GROUPS = "fold-count-exceeds-class-groups";
+
+    /** The error code when no group can go to the test side of a grouped split. */
+    public static final String GROUPED_TEST_EMPTY = "grouped-split-empty-test";
+
     private Resampling() {}
+
+    /**
+     * Splits the rows into a training and a test side, whole groups at a time, stratified as far
+     * as the groups allow. The test side aims at {@code round(testFraction × n)} rows and at the
+     * same share of every class; {@link GroupedSplit#achievedTestFraction()} says where it landed.
+     * Three rules come before the greedy and put a group on the training side: a group larger than
+     * the test target (reported in {@link GroupedSplit#oversized()}, since it can only go there);
+     * the only group of a class (as a one-row class in {@link #stratifiedSplit}: a model never
+     * shown a class cannot be tested on it); and after the greedy, a class left without training
+     * rows gets its smallest test group moved back.
+     *
+     * @param labels class index of each row
+     * @param groups group id of each row
+     * @param classCount number of classes K; every label must be below it
+     * @param testFraction target share of the test side, in (0, 1)
+     * @param seed seed of the group order
+     * @return the sorted row indices of both sides, the achieved test share and the oversized groups
+     * @throws PressmarkException with code {@value #GROUPED_TEST_EMPTY} when no group can go to the test side
+     */
+    public static GroupedSplit groupedStratifiedSplit(int[] labels, int[] groups, int classCount, double testFraction,
+            long seed) {
+        return GroupedResampling.split(labels, groups, classCount, testFraction, seed);
+    }
+
+    /**
+     * Repeated k-fold over whole groups, stratified as far as the groups allow: each fold aims at
+     * a k-th of every class and of all rows. Every row is in exactly one fold's test part per
+     * repeat, and no fold is empty (an empty fold is always among the cheapest for the next
+     * group, and wins the tie as the least filled). No fold is promised a row of every class: the
+     * greedy only makes it likely. Repeat r orders the groups with the r-th
+     * {@link SplittableRandom#split()} of a generator seeded with {@code seed}, so each repeat
+     * reshuffles the groups and the first repeats do not depend on how many follow. A group with
+     * more rows than {@code ⌈n / k⌉} is reported in {@link GroupedFolds#oversized()}.
+     *
+     * @param labels class index of each row
+     * @param groups group id of each row
+     * @param classCount number of classes K; every label must be below it
+     * @param folds number of folds k, at least 2 and at most the group count of every non-empty class
+     * @param repeats number of repeats, at least 1
+     * @param seed seed of the group orders
+     * @return {@code repeats × folds} folds, ordered by repeat and then by fold index, and the oversized groups
+     * @throws TooFewGroupsException (code {@value #FOLDS_EXCEED_CLASS_GROUPS}) naming the class with
+     *     the fewest groups when it has fewer than {@code folds}
+     */
+    public static GroupedFolds groupedStratifiedKFold(int[] labels, int[] groups, int classCount, int folds,
+            int repeats, long seed) {
+        return GroupedResampling.kFold(labels, groups, classCount, folds, repeats, seed);
+    }
 
     /**
      * Splits the rows into a training and a test side, class by class. Each class's rows are
@@ -140,7 +206,7 @@ public final class Resampling {
         }
     }
 
-    private static Fold fold(int repeat, int index, int[] foldOf, int testSize) {
+    static Fold fold(int repeat, int index, int[] foldOf, int testSize) {
         int[] train = new int[foldOf.length - testSize];
         int[] test = new int[testSize];
         int nTrain = 0;

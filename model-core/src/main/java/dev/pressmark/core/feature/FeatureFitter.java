@@ -8,6 +8,7 @@ import java.util.HashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Objects;
+import java.util.function.Function;
 
 /** Fits a {@link FeatureSpace}: counts document frequencies, selects, then fits idf and moments. */
 final class FeatureFitter {
@@ -23,18 +24,43 @@ final class FeatureFitter {
         if (rows.isEmpty()) {
             throw new PressmarkException("empty-training-set", "there are no training rows to fit the features on");
         }
-        Counts counts = Counts.of(columns, rows);
+        Counts counts = Counts.of(columns, rows, caps);
+        return build(config, columns, rows.size(), counts, caps.caps(), unscaled -> unscaled.transform(rows));
+    }
+
+    /**
+     * Fits from rows that views scan one field at a time; gives exactly the space that the token
+     * lists of the same rows, each token prefixed with its view's prefix, would give.
+     *
+     * @param prefixes per view, what its tokens are prefixed with in the space ({@code ""} for one view)
+     * @param caps per view, the most features it may keep
+     */
+    static FeatureSpace fit(FeatureConfig config, List<String> columns, TokenSource source, List<String> prefixes,
+            int[] caps) {
+        Objects.requireNonNull(config, "config");
+        checkColumns(columns);
+        if (source.rows() == 0) {
+            throw new PressmarkException("empty-training-set", "there are no training rows to fit the features on");
+        }
+        if (caps.length != prefixes.size()) {
+            throw new IllegalArgumentException("one cap per view: " + caps.length + " caps for " + prefixes.size() + " views");
+        }
+        Counts counts = Counts.of(columns.size(), source, prefixes);
+        return build(config, columns, source.rows(), counts, caps, unscaled -> unscaled.transform(source, prefixes));
+    }
+
+    private static FeatureSpace build(FeatureConfig config, List<String> columns, int n, Counts counts, int[] caps,
+            Function<FeatureSpace, SparseMatrix> transform) {
         if (counts.distinct == 0) {
-            throw new PressmarkException("no-tokens", "the " + rows.size()
+            throw new PressmarkException("no-tokens", "the " + n
                     + " training rows hold no tokens in columns " + String.join(", ", columns));
         }
         int[] selected = select(counts, columns, config, caps);
         if (selected.length == 0) {
             throw new PressmarkException("no-features", "no token occurs in at least features.min_df = " + config.minDf()
-                    + " of the " + rows.size() + " training rows; lower features.min_df");
+                    + " of the " + n + " training rows; lower features.min_df");
         }
         int m = selected.length;
-        int n = rows.size();
         int[] featureColumn = new int[m];
         String[] tokens = new String[m];
         int[] documentFrequency = new int[m];
@@ -58,7 +84,7 @@ final class FeatureFitter {
                 featureColumn, tokens, documentFrequency, idf, null, null);
         double[] means = new double[m];
         double[] standardDeviations = new double[m];
-        FeatureKernels.columnMoments(unscaled.transform(rows), means, standardDeviations);
+        FeatureKernels.columnMoments(transform.apply(unscaled), means, standardDeviations);
         return new FeatureSpace(columns, config, n, featureColumn, tokens, documentFrequency, idf, means,
                 standardDeviations);
     }
@@ -86,22 +112,28 @@ final class FeatureFitter {
      * token seen in at least {@code min_df} rows, until its view has its own cap or all views
      * together have {@code max_tokens}.
      */
-    private static int[] select(Counts counts, List<String> columns, FeatureConfig config, ViewCaps caps) {
-        int d = counts.distinct;
-        String[] names = new String[d];
-        Integer[] order = new Integer[d];
-        for (int id = 0; id < d; id++) {
-            names[id] = FeatureSpace.name(columns.get(counts.column[id]), counts.tokens.get(id));
-            order[id] = id;
-        }
+    private static int[] select(Counts counts, List<String> columns, FeatureConfig config, int[] caps) {
         int[] df = counts.documentFrequency;
+        int frequent = 0;
+        for (int id = 0; id < counts.distinct; id++) {
+            frequent += df[id] >= config.minDf() ? 1 : 0;
+        }
+        // Only the tokens that min_df keeps are named and sorted: the rest are most of a large space.
+        Integer[] order = new Integer[frequent];
+        String[] names = new String[counts.distinct];
+        for (int id = 0, k = 0; id < counts.distinct; id++) {
+            if (df[id] >= config.minDf()) {
+                names[id] = FeatureSpace.name(columns.get(counts.column[id]), counts.tokens.get(id));
+                order[k++] = id;
+            }
+        }
         Arrays.sort(order, (a, b) -> df[a] != df[b] ? Integer.compare(df[b], df[a]) : names[a].compareTo(names[b]));
-        int[] room = caps.caps();
-        int[] selected = new int[Math.min(config.maxTokens(), d)];
+        int[] room = caps.clone();
+        int[] selected = new int[Math.min(config.maxTokens(), frequent)];
         int m = 0;
-        for (int k = 0; k < d && m < selected.length && df[order[k]] >= config.minDf(); k++) {
+        for (int k = 0; k < frequent && m < selected.length; k++) {
             int id = order[k];
-            int view = caps.viewOf().applyAsInt(counts.tokens.get(id));
+            int view = counts.view[id];
             if (room[view] > 0) {
                 room[view]--;
                 selected[m++] = id;
@@ -111,16 +143,17 @@ final class FeatureFitter {
     }
 
     /** Every distinct (column, token) of the training rows with its document frequency. */
-    private static final class Counts {
+    static final class Counts {
 
         private int distinct;
         private int[] column = new int[64];
+        private int[] view = new int[64];
         private int[] documentFrequency = new int[64];
         /** The last row that counted each id, so that a row counts a token once. */
         private int[] lastRow = new int[64];
         private final List<String> tokens = new ArrayList<>();
 
-        static Counts of(List<String> columns, List<List<List<String>>> rows) {
+        static Counts of(List<String> columns, List<List<List<String>>> rows, ViewCaps caps) {
             Counts counts = new Counts();
             List<Map<String, Integer>> ids = new ArrayList<>(columns.size());
             for (int c = 0; c < columns.size(); c++) {
@@ -138,7 +171,7 @@ final class FeatureFitter {
                         }
                         Integer id = columnIds.get(token);
                         if (id == null) {
-                            id = counts.add(c, token);
+                            id = counts.add(c, caps.viewOf().applyAsInt(token), token);
                             columnIds.put(token, id);
                         }
                         counts.count(id, i);
@@ -149,14 +182,38 @@ final class FeatureFitter {
             return counts;
         }
 
-        private int add(int c, String token) {
+        /** Counts the tokens of every field of every row of {@code source}, view by view. */
+        static Counts of(int columns, TokenSource source, List<String> prefixes) {
+            Counts counts = new Counts();
+            SpanCounter[][] ids = new SpanCounter[columns][prefixes.size()];
+            for (int c = 0; c < columns; c++) {
+                for (int v = 0; v < prefixes.size(); v++) {
+                    ids[c][v] = new SpanCounter(prefixes.get(v));
+                }
+            }
+            int[] current = new int[2];
+            TokenSource.Sink sink = (v, chars, start, end) ->
+                    counts.count(ids[current[1]][v].id(chars, start, end, counts, current[1], v), current[0]);
+            for (int i = 0; i < source.rows(); i++) {
+                current[0] = i;
+                for (int c = 0; c < columns; c++) {
+                    current[1] = c;
+                    source.scan(i, c, sink);
+                }
+            }
+            return counts;
+        }
+
+        int add(int c, int v, String token) {
             if (distinct == column.length) {
                 int capacity = distinct * 2;
+                view = Arrays.copyOf(view, capacity);
                 column = Arrays.copyOf(column, capacity);
                 documentFrequency = Arrays.copyOf(documentFrequency, capacity);
                 lastRow = Arrays.copyOf(lastRow, capacity);
             }
             column[distinct] = c;
+            view[distinct] = v;
             lastRow[distinct] = -1;
             tokens.add(token);
             return distinct++;

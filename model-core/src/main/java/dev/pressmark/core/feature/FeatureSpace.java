@@ -144,6 +144,67 @@ public final class FeatureSpace {
         return FeatureFitter.fit(config, columns, rows, caps);
     }
 
+    /**
+     * Fits from rows that views scan one field at a time, holding a string only per distinct token;
+     * the same space as {@link #fit(FeatureConfig, List, List, ViewCaps)} on the token lists of the
+     * same rows with each token prefixed by its view's prefix.
+     *
+     * @param prefixes per view, what its tokens carry in front in the space ({@code ""} for a single view)
+     * @param caps per view, the most features it may keep ({@link FeatureConfig#ALL} for no cap)
+     */
+    public static FeatureSpace fit(FeatureConfig config, List<String> columns, TokenSource source, List<String> prefixes,
+            int[] caps) {
+        return FeatureFitter.fit(config, columns, source, prefixes, caps);
+    }
+
+    /**
+     * Per text column and view, the features of that view's tokens, looked up by span without the
+     * view's prefix.
+     */
+    public SpanIndex[][] spanIndex(List<String> prefixes) {
+        SpanIndex[][] spans = new SpanIndex[columns.size()][prefixes.size()];
+        for (int c = 0; c < columns.size(); c++) {
+            List<Map<String, Integer>> byView = new ArrayList<>();
+            for (int v = 0; v < prefixes.size(); v++) {
+                byView.add(new HashMap<>());
+            }
+            for (Map.Entry<String, Integer> entry : index.get(c).entrySet()) {
+                String token = entry.getKey();
+                for (int v = 0; v < prefixes.size(); v++) {
+                    if (token.startsWith(prefixes.get(v)) && (prefixes.size() == 1 || !prefixes.get(v).isEmpty())) {
+                        byView.get(v).put(token.substring(prefixes.get(v).length()), entry.getValue());
+                        break;
+                    }
+                }
+            }
+            for (int v = 0; v < prefixes.size(); v++) {
+                spans[c][v] = new SpanIndex(byView.get(v));
+            }
+        }
+        return spans;
+    }
+
+    /** The feature rows of {@code source}'s rows, as {@link #transform(List)} gives them for their token lists. */
+    public SparseMatrix transform(TokenSource source, List<String> prefixes) {
+        SpanIndex[][] spans = spanIndex(prefixes);
+        Encoder encoder = encoder();
+        int m = featureCount();
+        int[] cols = new int[m];
+        double[] vals = new double[m];
+        int[] column = new int[1];
+        TokenSource.Sink sink = (v, chars, start, end) -> encoder.add(spans[column[0]][v].get(chars, start, end));
+        SparseMatrix.Builder builder = SparseMatrix.builder(m);
+        for (int i = 0; i < source.rows(); i++) {
+            for (int c = 0; c < columns.size(); c++) {
+                column[0] = c;
+                source.scan(i, c, sink);
+            }
+            int length = encoder.finish(cols, vals);
+            builder.addRow(Arrays.copyOf(cols, length), Arrays.copyOf(vals, length));
+        }
+        return builder.build();
+    }
+
     /** True when a state of format 1 can hold this space. */
     public boolean fitsFormat1() {
         return config.fitsFormat1();

@@ -69,7 +69,7 @@ public final class BundleAssembler {
         if (result.search() != null) {
             manifest.set(SearchSummary.KEY, result.search().summary().toJson());
         }
-        return Bundle.write(manifest, result.labels(), result.pipeline(), result.model(), profile(result));
+        return Bundle.write(manifest, result.labels(), result.pipeline(), result.model(), profile(result, data));
     }
 
     private static String fileName(TrainConfig config) {
@@ -136,23 +136,26 @@ public final class BundleAssembler {
     }
 
     /** What the training rows looked like, so that live traffic can be compared with it later. */
-    static ObjectNode profile(TrainingRun.Result result) {
+    static ObjectNode profile(TrainingRun.Result result, LabelledData data) {
         TextPipeline pipeline = result.pipeline();
-        List<List<List<String>>> rows = result.finalTokens();
+        int[] trainRows = result.trainRows();
         long tokens = 0;
         long unknown = 0;
         long documentFrequencyTotal = 0;
-        int[] lengths = new int[rows.size()];
+        int[] lengths = new int[trainRows.length];
         for (int i = 0; i < lengths.length; i++) {
-            for (List<String> column : rows.get(i)) {
+            // One row's tokens at a time: the training part's tokens all at once can take gigabytes.
+            List<List<String>> row = TextPipeline.tokenize(pipeline.tokenizer(), List.<String[]>of(data.texts().get(trainRows[i])))
+                    .get(0);
+            for (List<String> column : row) {
                 lengths[i] += column.size();
                 documentFrequencyTotal += new HashSet<>(column).size();
             }
             tokens += lengths[i];
-            unknown += pipeline.unknownTokens(rows.get(i));
+            unknown += pipeline.unknownTokens(row);
         }
         ObjectNode profile = JSON.createObjectNode();
-        profile.put("rows", rows.size());
+        profile.put("rows", trainRows.length);
         profile.put("tokens", tokens);
         profile.put("unknown_rate", tokens == 0 ? 0.0 : (double) unknown / tokens);
         // Every distinct (field, token) of every row counted once: the document frequencies of all tokens, features or

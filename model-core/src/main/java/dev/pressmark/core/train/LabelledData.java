@@ -1,8 +1,11 @@
 package dev.pressmark.core.train;
 
 import com.fasterxml.jackson.core.JsonParser;
+import com.fasterxml.jackson.core.StreamReadConstraints;
+import com.fasterxml.jackson.core.exc.StreamConstraintsException;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.core.JsonToken;
+import com.fasterxml.jackson.dataformat.csv.CsvFactory;
 import com.fasterxml.jackson.dataformat.csv.CsvMapper;
 import com.fasterxml.jackson.dataformat.csv.CsvParser;
 import dev.pressmark.core.PressmarkException;
@@ -43,7 +46,15 @@ public record LabelledData(
         String sha256,
         int droppedRows) {
 
-    private static final CsvMapper CSV = CsvMapper.builder()
+    /**
+     * The longest field read: 8 Mi characters, far beyond a short text and below the parser's own
+     * default cap, so that the limit and its message are ours.
+     */
+    public static final int MAX_FIELD_CHARS = 8 << 20;
+
+    private static final CsvMapper CSV = CsvMapper.builder(CsvFactory.builder()
+                    .streamReadConstraints(StreamReadConstraints.builder().maxStringLength(MAX_FIELD_CHARS).build())
+                    .build())
             .enable(CsvParser.Feature.SKIP_EMPTY_LINES)
             .build();
 
@@ -99,20 +110,25 @@ public record LabelledData(
             throw new PressmarkException("file-unreadable", file + ": cannot read: " + e.getMessage(), e);
         }
         String text = StrictUtf8.decode(bytes, file.toString());
+        FieldStart start = new FieldStart(text);
         try (JsonParser parser = CSV.createParser(new StringReader(text))) {
-            return parse(parser, file, textColumns, labelColumn, dropIncomplete, Sha256.hex(bytes));
+            return parse(parser, start, file, textColumns, labelColumn, dropIncomplete, Sha256.hex(bytes));
+        } catch (StreamConstraintsException e) {
+            throw new PressmarkException("invalid-csv", String.format("%s: line %d: a field longer than %,d characters, the limit on one field"
+                    + " (an unclosed quote makes the rest of the file one field)", file, start.line(), MAX_FIELD_CHARS), e);
         } catch (JsonProcessingException e) {
-            throw new PressmarkException("invalid-csv", file + ": line " + e.getLocation().getLineNr()
-                    + ": " + e.getOriginalMessage());
+            String what = String.valueOf(e.getOriginalMessage()).startsWith("Missing closing quote")
+                    ? "the quoted field that starts on this line has no closing quote" : e.getOriginalMessage();
+            throw new PressmarkException("invalid-csv", file + ": line " + start.line() + ": " + what, e);
         } catch (IOException e) {
             throw new PressmarkException("file-unreadable", file + ": " + e.getMessage(), e);
         }
     }
 
-    private static LabelledData parse(JsonParser parser, Path file, List<String> textColumns, String labelColumn,
+    private static LabelledData parse(JsonParser parser, FieldStart start, Path file, List<String> textColumns, String labelColumn,
                                       boolean dropIncomplete, String sha256) throws IOException {
         List<String> fields = new ArrayList<>();
-        int line = nextRow(parser, fields);
+        int line = nextRow(parser, start, fields);
         if (line < 0) {
             throw new PressmarkException("empty-data", file + ": no header row; the file is empty");
         }
@@ -127,7 +143,7 @@ public record LabelledData(
         List<String> labels = new ArrayList<>();
         int[] lines = new int[64];
         int dropped = 0;
-        while ((line = nextRow(parser, fields)) >= 0) {
+        while ((line = nextRow(parser, start, fields)) >= 0) {
             if (fields.size() != header.size()) {
                 throw new PressmarkException("invalid-csv", file + ": line " + line + ": " + fields.size()
                         + " fields, but the header has " + header.size());
@@ -163,14 +179,15 @@ public record LabelledData(
     }
 
     /** Reads the next row into {@code fields}; returns the line it starts on, or -1 at the end. */
-    private static int nextRow(JsonParser parser, List<String> fields) throws IOException {
+    private static int nextRow(JsonParser parser, FieldStart start, List<String> fields) throws IOException {
+        start.after(parser);
         if (parser.nextToken() == null) {
             return -1;
         }
         fields.clear();
         int line = -1;
         JsonToken token;
-        while ((token = parser.nextToken()) != JsonToken.END_ARRAY && token != null) {
+        while ((token = start.after(parser).nextToken()) != JsonToken.END_ARRAY && token != null) {
             if (line < 0) {
                 line = parser.currentTokenLocation().getLineNr();
             }
@@ -190,5 +207,44 @@ public record LabelledData(
 
     private static String quoted(List<String> names) {
         return "\"" + String.join("\", \"", names) + "\"";
+    }
+
+    /**
+     * Where the field being read starts: the parser's position after the last token it returned,
+     * past the separator that ends that token. The parser's own error locations say where it gave
+     * up (the end of the file, for a quote never closed) or nothing at all (for a field past the
+     * length limit); a person needs the line where the field began.
+     */
+    private static final class FieldStart {
+
+        private final String text;
+        private long offset;
+
+        FieldStart(String text) {
+            this.text = text;
+        }
+
+        /** Notes the position before the parser reads on; returns the parser. */
+        JsonParser after(JsonParser parser) {
+            offset = parser.currentLocation().getCharOffset();
+            return parser;
+        }
+
+        /** The 1-based line of the first character of the field that follows the noted position. */
+        int line() {
+            int at = (int) Math.max(0, Math.min(offset, text.length()));
+            if (at < text.length() && text.charAt(at) == ',') {
+                at++;
+            } else {
+                while (at < text.length() && (text.charAt(at) == '\r' || text.charAt(at) == '\n')) {
+                    at++;
+                }
+            }
+            int line = 1;
+            for (int i = 0; i < at; i++) {
+                line += text.charAt(i) == '\n' ? 1 : 0;
+            }
+            return line;
+        }
     }
 }

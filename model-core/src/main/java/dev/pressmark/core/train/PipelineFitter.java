@@ -7,7 +7,7 @@ import dev.pressmark.core.bundle.TokenizerSpec;
 import dev.pressmark.core.feature.FeatureConfig;
 import dev.pressmark.core.feature.FeatureSpace;
 import dev.pressmark.core.feature.SparseMatrix;
-import dev.pressmark.core.feature.ViewCaps;
+import dev.pressmark.core.feature.TokenSource;
 import dev.pressmark.core.tokenize.Tokenizer;
 import dev.pressmark.core.tokenize.ViewsTokenizer;
 import dev.pressmark.core.tokenize.WordCounts;
@@ -34,8 +34,8 @@ final class PipelineFitter {
         this.columns = List.copyOf(columns);
     }
 
-    /** A fitted pipeline with the tokens and feature rows of the rows it was fitted on. */
-    record Fitted(TextPipeline pipeline, List<List<List<String>>> tokens, SparseMatrix x) {
+    /** A fitted pipeline with the feature rows of the rows it was fitted on. */
+    record Fitted(TextPipeline pipeline, SparseMatrix x) {
     }
 
     /** Fits on {@code rows}, each holding one text per column. */
@@ -54,29 +54,37 @@ final class PipelineFitter {
             built.add(spec.tokenizer());
         }
         Tokenizer tokenizer = TextPipeline.combine(specs, built);
-        List<List<List<String>>> tokens = TextPipeline.tokenize(tokenizer, rows);
-        FeatureSpace space = features(features, tokenizer, tokens);
-        return new Fitted(new TextPipeline(specs, tokenizer, space), tokens, space.transform(tokens));
+        return withFeatures(specs, built, tokenizer, features, rows);
     }
 
     /**
-     * The feature space of {@code settings} on {@code tokens}, which this fitter's tokenizer gave:
-     * what {@link #fit} fits after tokenizing, so that a search can fit several feature settings
-     * on one tokenization.
+     * The feature space of {@code settings} on {@code rows} through the tokenizers of {@code
+     * trained}, a pipeline this fitter fitted: a search fits further feature settings this way, so
+     * that each fold's tokenizers are trained once.
      */
-    FeatureSpace features(FeatureConfig settings, Tokenizer tokenizer, List<List<List<String>>> tokens) {
-        return FeatureSpace.fit(settings, columns, tokens, caps(tokenizer));
+    Fitted withFeatures(TextPipeline trained, FeatureConfig settings, List<String[]> rows) {
+        List<Tokenizer> built = new ArrayList<>(trained.views().size());
+        for (TokenizerSpec spec : trained.views()) {
+            built.add(spec.tokenizer());
+        }
+        return withFeatures(trained.views(), built, trained.tokenizer(), settings, rows);
     }
 
-    private ViewCaps caps(Tokenizer tokenizer) {
+    /** What {@link #fit} does once the tokenizers are trained. */
+    private Fitted withFeatures(List<TokenizerSpec> specs, List<Tokenizer> built, Tokenizer tokenizer, FeatureConfig settings,
+            List<String[]> rows) {
+        List<String> prefixes = TextPipeline.prefixes(tokenizer);
+        TokenSource source = TextPipeline.source(built, rows);
+        FeatureSpace space = FeatureSpace.fit(settings, columns, source, prefixes, caps());
+        return new Fitted(new TextPipeline(specs, tokenizer, space), space.transform(source, prefixes));
+    }
+
+    private int[] caps() {
         int[] caps = new int[tokenizers.size()];
         for (int v = 0; v < caps.length; v++) {
             caps[v] = tokenizers.get(v).maxTokens();
         }
-        if (tokenizer instanceof ViewsTokenizer views) {
-            return new ViewCaps(views::viewOf, caps);
-        }
-        return new ViewCaps(token -> 0, caps);
+        return caps;
     }
 
     private static WordPieceEncoder encoder(TokenizerConfig view, List<String[]> rows, int index, Progress progress) {

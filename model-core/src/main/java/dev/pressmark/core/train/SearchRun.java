@@ -7,7 +7,6 @@ import dev.pressmark.core.evaluate.Fold;
 import dev.pressmark.core.evaluate.FoldSummary;
 import dev.pressmark.core.evaluate.MetricSummary;
 import dev.pressmark.core.evaluate.MetricValues;
-import dev.pressmark.core.bundle.TextPipeline;
 import dev.pressmark.core.feature.FeatureSpace;
 import dev.pressmark.core.feature.SparseMatrix;
 import dev.pressmark.core.search.Pick;
@@ -27,7 +26,7 @@ import java.util.concurrent.Future;
  * Scores every candidate of a search by the run's cross-validation, on the training part only.
  *
  * <p>What candidates share is computed once per fold: candidates with the same tokenizer settings
- * share the normalisation, the vocabulary training and the tokens of the fold's rows; among those,
+ * share the vocabulary training (the tokenizers); among those,
  * candidates with the same feature settings share the feature space and both feature matrices;
  * and among those, candidates that differ only in C form a chain solved in increasing C, each fit
  * starting from the previous one's dual solution ({@link WarmStart}). The tasks, one per fold and
@@ -120,8 +119,8 @@ final class SearchRun {
     }
 
     /**
-     * One fold and one tokenizer setting: train the tokenizer and tokenize the fold's rows once,
-     * fit each feature setting on those tokens, then every classifier chain on its matrix.
+     * One fold and one tokenizer setting: train the tokenizers once, fit each feature setting with
+     * them, then every classifier chain on its matrix.
      */
     private void runTask(int f, Group group, TrainingRun.FoldResult[][] results, int[][] features, Runnable tick) {
         Fold fold = folds.get(f);
@@ -130,17 +129,19 @@ final class SearchRun {
         TrainConfig first = group.settings.get(0).config;
         List<String> columns = first.data().text();
         PipelineFitter fitter = new PipelineFitter(first.tokenizers(), first.features(), columns);
-        PipelineFitter.Fitted fitted = fitter.fit(run.rows(foldTrain), Progress.NONE);
-        List<List<List<String>>> testTokens = TextPipeline.tokenize(fitted.pipeline().tokenizer(), run.rows(foldTest));
+        List<String[]> trainTexts = run.rows(foldTrain);
+        List<String[]> testTexts = run.rows(foldTest);
+        PipelineFitter.Fitted firstFit = fitter.fit(trainTexts, Progress.NONE);
         int[] yTrain = TrainingRun.select(trainLabels, fold.train());
         int[] truth = TrainingRun.select(trainLabels, fold.test());
         long seed = run.foldSeed(fold);
         for (FeatureSetting setting : group.settings) {
-            // the same steps as PipelineFitter.fit after tokenization, on the shared tokens
-            FeatureSpace space = setting == group.settings.get(0) ? fitted.pipeline().features()
-                    : fitter.features(setting.config.features(), fitted.pipeline().tokenizer(), fitted.tokens());
-            SparseMatrix x = setting == group.settings.get(0) ? fitted.x() : space.transform(fitted.tokens());
-            SparseMatrix xTest = space.transform(testTokens);
+            // the first fit's tokenizers, trained once, serve every other feature setting
+            PipelineFitter.Fitted fitted = setting == group.settings.get(0) ? firstFit
+                    : fitter.withFeatures(firstFit.pipeline(), setting.config.features(), trainTexts);
+            SparseMatrix x = fitted.x();
+            SparseMatrix xTest = fitted.pipeline().transform(testTexts);
+            FeatureSpace space = fitted.pipeline().features();
             for (int[] chain : setting.chains) {
                 WarmStart warm = search.settings().warmStart() ? new WarmStart() : null;
                 for (int candidate : chain) {

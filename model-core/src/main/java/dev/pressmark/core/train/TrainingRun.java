@@ -56,7 +56,6 @@ public final class TrainingRun {
      * @param test the metrics on the held-out test part
      * @param trainRows the rows of the training part, as indices into the data
      * @param testRows the rows of the test part
-     * @param finalTokens the tokens of the training part, for the profile
      * @param warnings solver warnings, for example an iteration cap that was hit
      * @param search what the search found, or null when the config has no search
      */
@@ -69,7 +68,6 @@ public final class TrainingRun {
             Evaluation test,
             int[] trainRows,
             int[] testRows,
-            List<List<List<String>>> finalTokens,
             List<String> warnings,
             Searched search) {
     }
@@ -234,7 +232,7 @@ public final class TrainingRun {
         progress.finish();
         warnings.forEach(progress::note);
         return new Result(labels, positiveClass, fitted.pipeline(), model, FoldSummary.of(foldMetrics), test,
-                trainRows, split.test(), fitted.tokens(), warnings, searched);
+                trainRows, split.test(), warnings, searched);
     }
 
     private Split split(long seed) {

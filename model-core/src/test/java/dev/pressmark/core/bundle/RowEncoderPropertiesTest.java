@@ -63,6 +63,48 @@ class RowEncoderPropertiesTest {
         return new TextPipeline(views, tokenizer, FeatureSpace.fit(config, COLUMNS, tokens));
     }
 
+    /**
+     * Fitting from spans (a string per distinct token only) gives the space that fitting from the
+     * token lists gives, with per-view caps applied alike.
+     */
+    @Property(tries = 200)
+    void fitting_from_spans_gives_the_space_of_the_token_lists(
+            @ForAll("trainingTexts") List<String> trainingTexts, @ForAll @IntRange(min = 0, max = 11) int variant,
+            @ForAll @IntRange(min = 1, max = 40) int viewCap) {
+        List<String[]> training = new ArrayList<>();
+        training.add(new String[] {"kit valve pro ab", "quorubwick a"});
+        training.add(new String[] {"kit valve", "quorubwick pro"});
+        for (int i = 0; i + 1 < trainingTexts.size(); i += 2) {
+            training.add(new String[] {trainingTexts.get(i), trainingTexts.get(i + 1)});
+        }
+        TextPipeline pipeline = pipeline(training, variant);
+        FeatureConfig config = pipeline.features().config();
+        List<String> prefixes = pipeline.prefixes();
+        int[] caps = new int[prefixes.size()];
+        java.util.Arrays.fill(caps, FeatureConfig.ALL);
+        caps[0] = viewCap;
+        dev.pressmark.core.tokenize.ViewsTokenizer tagged = pipeline.tokenizer() instanceof
+                dev.pressmark.core.tokenize.ViewsTokenizer v ? v : null;
+        dev.pressmark.core.feature.ViewCaps viewCaps = new dev.pressmark.core.feature.ViewCaps(
+                token -> tagged == null ? 0 : tagged.viewOf(token), caps);
+
+        FeatureSpace fromLists = FeatureSpace.fit(config, COLUMNS, TextPipeline.tokenize(pipeline.tokenizer(), training),
+                viewCaps);
+        FeatureSpace fromSpans = FeatureSpace.fit(config, COLUMNS,
+                TextPipeline.source(pipeline.viewTokenizers(), training), prefixes, caps);
+
+        assertThat(fromSpans.toState()).isEqualTo(fromLists.toState());
+        SparseMatrix a = fromLists.transform(TextPipeline.tokenize(pipeline.tokenizer(), training));
+        SparseMatrix b = fromSpans.transform(TextPipeline.source(pipeline.viewTokenizers(), training), prefixes);
+        for (int i = 0; i < a.rows(); i++) {
+            assertThat(b.rowEnd(i) - b.rowStart(i)).isEqualTo(a.rowEnd(i) - a.rowStart(i));
+            for (int p = 0; p < a.rowEnd(i) - a.rowStart(i); p++) {
+                assertThat(b.column(b.rowStart(i) + p)).isEqualTo(a.column(a.rowStart(i) + p));
+                assertThat(b.value(b.rowStart(i) + p)).isEqualTo(a.value(a.rowStart(i) + p));
+            }
+        }
+    }
+
     @Property(tries = 300)
     void scanning_spans_gives_the_rows_counts_and_cuts_of_the_token_lists(
             @ForAll("trainingTexts") List<String> trainingTexts, @ForAll("texts") String title, @ForAll("texts") String brand,

@@ -37,9 +37,19 @@ class WeightsCodecTest {
         // found by the bundle fuzz test's seed weights-size-overflow.pmb: 8 * 2^30 * 2^31 wraps to 0
         // in 64 bits, so the 28-byte header alone passed the size check and the reader then asked for
         // a double[2^30][-2^31]
-        assertThatThrownBy(() -> WeightsCodec.read(file(1 << 30, 1 << 30, Integer.MAX_VALUE)))
+        assertThatThrownBy(() -> WeightsCodec.read(file(1 << 30, 1 << 30, Integer.MAX_VALUE), Integer.MAX_VALUE))
                 .isInstanceOf(BundleException.class)
                 .hasMessageContaining("its header calls for 28 + 8 × 2305843009213693952");
+    }
+
+    @Test
+    void a_header_declaring_more_features_than_the_limit_is_refused_naming_the_limit_before_the_size_check() {
+        assertThatThrownBy(() -> WeightsCodec.read(file(2, 1, Integer.MAX_VALUE)))
+                .isInstanceOf(BundleException.class)
+                .hasMessage("weights.bin: the header declares 2,147,483,647 features, more than 1,048,576, the limit on a model's features")
+                .extracting(e -> ((BundleException) e).code()).isEqualTo(BundleException.LIMIT);
+        assertThat(WeightsCodec.read(file(2, 1, 2, 0.5, -1.5, 0.25), 2).numFeatures()).isEqualTo(2);
+        assertThatThrownBy(() -> WeightsCodec.read(file(2, 1, 2, 0.5, -1.5, 0.25), 1)).hasMessageContaining("more than 1, the limit");
     }
 
     @Test

@@ -127,6 +127,14 @@ class ViewsTrainingTest {
 
         assertThat(BundleAssembler.assemble(config, data, new TrainingRun(config, data).run(Progress.NONE), CREATED))
                 .isEqualTo(bytes);
+
+        // The vocabulary limit counts the vocabularies of every view, one level down under "views".
+        int vocabulary = bundle.pipeline().vocabularySize();
+        dev.pressmark.core.bundle.BundleLimits tight = new dev.pressmark.core.bundle.BundleLimits(
+                BundleArchive.MAX_BUNDLE_BYTES, BundleArchive.MAX_ENTRY_BYTES,
+                dev.pressmark.core.bundle.BundleLimits.DEFAULT_MAX_FEATURES, vocabulary - 1);
+        assertThatThrownBy(() -> Bundle.from(BundleArchive.read(bytes), "b", tight))
+                .hasMessageContaining("tokenizer.json: vocabulary has more than");
     }
 
     @Test

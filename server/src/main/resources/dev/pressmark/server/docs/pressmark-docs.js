@@ -7,6 +7,14 @@ window.addEventListener("load", function () {
     deepLinking: true,
     layout: "BaseLayout",
     // no outside validator: the page talks to this server only
-    validatorUrl: null
+    validatorUrl: null,
+    // With a reader token set, the document itself needs it: send the token the console keeps for this tab, if any.
+    requestInterceptor: function (request) {
+      var token = sessionStorage.getItem("pressmark.reader-token") || sessionStorage.getItem("pressmark.admin-token");
+      if (token && !request.headers.Authorization) {
+        request.headers.Authorization = "Bearer " + token;
+      }
+      return request;
+    }
   });
 });
