@@ -227,6 +227,7 @@
     }
     renderVersions();
     renderComparison();
+    renderSearch();
     renderCharts();
     loadDrift();
   }
@@ -302,7 +303,40 @@
     state.chosen = tag;
     renderVersions();
     renderComparison();
+    renderSearch();
     renderCharts();
+  }
+
+  // The candidates of the search that chose the shown version's settings, the chosen one marked.
+  function renderSearch() {
+    const detail = state.details.get(state.chosen);
+    const search = detail && detail.search;
+    $('search-section').hidden = !search;
+    const head = document.querySelector('#search thead tr');
+    const body = document.querySelector('#search tbody');
+    head.replaceChildren();
+    body.replaceChildren();
+    if (!search) return;
+    const candidates = search.candidates || [];
+    const keys = candidates.length > 0 ? Object.keys(candidates[0].settings || {}) : [];
+    $('search-hint').textContent = candidates.length + ' candidates scored by cross-validation on the training part; pick '
+      + search.pick + '; the chosen one (\u2713) was trained on the whole training part.';
+    head.append(el('th', { scope: 'col', text: '#' }));
+    for (const key of keys) head.append(el('th', { scope: 'col', text: key }));
+    head.append(el('th', { scope: 'col', class: 'num', text: (METRIC_NAMES[search.metric] || search.metric) + ' (cv)' }));
+    head.append(el('th', { scope: 'col', class: 'num', text: '\u00B1 s.e.' }));
+    candidates.forEach((candidate, i) => {
+      const chosen = i === search.chosen;
+      const row = el('tr', chosen ? { class: 'chosen' } : {},
+        el('th', { scope: 'row', text: (chosen ? '\u2713 ' : '') + (i + 1) }));
+      for (const key of keys) {
+        const value = (candidate.settings || {})[key];
+        row.append(el('td', { text: typeof value === 'string' ? value : JSON.stringify(value) }));
+      }
+      row.append(el('td', { class: 'num', text: fixed((candidate.cv || {}).mean, 4) }));
+      row.append(el('td', { class: 'num', text: fixed((candidate.cv || {}).std_err, 4) }));
+      body.append(row);
+    });
   }
 
   function renderComparison() {

@@ -174,6 +174,8 @@ final class Shapes {
                 "input_fields", array("The text fields every item must carry.", string(null)),
                 "metrics", typed("object", "Cross-validation and held-out test metrics, as the manifest records them."),
                 "provenance", typed("object", "How it was made: library, Java, OS, seed, data checksum, config."),
+                "search", typed("object", "The model search that chose its settings, when there was one: metric, pick, candidates"
+                        + " (settings and cross-validated mean and std_err) and the chosen candidate's index."),
                 "contract_version", contractVersion(),
                 "contract", nullable(ref(CONTRACT)),
                 "signed_by", nullable(string("The id of the key that signed it; null when published unsigned."))));

@@ -6,6 +6,7 @@ import dev.pressmark.core.evaluate.Metric;
 import dev.pressmark.core.train.BundleAssembler;
 import dev.pressmark.core.train.LabelledData;
 import dev.pressmark.core.train.TrainConfig;
+import dev.pressmark.core.train.TrainPlan;
 import dev.pressmark.core.train.TrainingRun;
 import dev.pressmark.demo.ListingTitles;
 import dev.pressmark.server.BearerToken;
@@ -48,7 +49,7 @@ final class Demo implements AutoCloseable {
     static final String ACTOR = "pressmark-demo";
     private static final int TOKEN_BYTES = 32;
 
-    /** The demo's training config; only the tokenizer differs between the versions. */
+    /** The demo's training config; the versions differ in the tokenizer, and v2 searches C. */
     private static final String CONFIG = """
             name: %s
             data: {file: listings.csv, text: [title], label: department}
@@ -57,6 +58,14 @@ final class Demo implements AutoCloseable {
             features: {max_tokens: 800, weighting: tf, scaling: l2}
             classifier: {kind: linear-svm, c: 1.0, probabilities: platt}
             evaluation: {folds: 5}
+            """;
+
+    /** v2's small search: three values of C, one shared pipeline per fold, warm starts along C. */
+    private static final String SEARCH = """
+            search:
+              grid: {classifier.c: [0.3, 1, 3]}
+              metric: accuracy
+              pick: one-se
             """;
 
     private final Path dir;
@@ -121,10 +130,12 @@ final class Demo implements AutoCloseable {
     }
 
     private static byte[] train(Path data, String tokenizer, String what, Progress progress, PrintStream log) {
-        TrainConfig config = TrainConfig.parse(String.format(Locale.ROOT, CONFIG, MODEL, SEED, tokenizer), "the demo's config");
+        String yaml = String.format(Locale.ROOT, CONFIG, MODEL, SEED, tokenizer) + (tokenizer.equals("wordpiece") ? SEARCH : "");
+        TrainPlan plan = TrainPlan.parse(yaml, "the demo's config");
+        TrainConfig config = plan.config();
         LabelledData rows = LabelledData.read(data, config.data().text(), config.data().label(), false);
         log.println("pressmark demo: training " + what);
-        TrainingRun.Result result = new TrainingRun(config, rows).run(progress);
+        TrainingRun.Result result = new TrainingRun(plan, rows).run(progress);
         log.printf(Locale.ROOT, "pressmark demo: %s: test accuracy %.3f%n", what,
                 result.test().overall().get(Metric.ACCURACY));
         return BundleAssembler.assemble(config, rows, result, Instant.now().truncatedTo(ChronoUnit.SECONDS));

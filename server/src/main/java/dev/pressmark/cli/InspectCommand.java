@@ -7,6 +7,7 @@ import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.classify.LinearWeights;
 import dev.pressmark.core.feature.FeatureSpace;
+import dev.pressmark.core.search.SearchSummary;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.List;
@@ -19,7 +20,7 @@ import picocli.CommandLine.Parameters;
 
 /** {@code pressmark inspect}: a bundle's manifest, metrics, labels and top weighted features. */
 @Command(name = "inspect", mixinStandardHelpOptions = true,
-        description = "Show a bundle's manifest, metrics, label set and top weighted features.")
+        description = "Show a bundle's manifest, metrics, search candidates, label set and top weighted features.")
 final class InspectCommand implements Callable<Integer> {
 
     @Parameters(index = "0", paramLabel = "BUNDLE", description = "The bundle file.")
@@ -50,6 +51,10 @@ final class InspectCommand implements Callable<Integer> {
         for (Map.Entry<String, JsonNode> metric : manifest.path("metrics").path("cv").properties()) {
             System.out.printf(Locale.ROOT, "%-18s %.3f ± %-14.3f %.3f%n", metric.getKey(), metric.getValue().path("mean").asDouble(),
                     metric.getValue().path("std_err").asDouble(), manifest.path("metrics").path("test").path(metric.getKey()).asDouble(Double.NaN));
+        }
+        SearchSummary search = SearchSummary.fromManifest(manifest);
+        if (search != null) {
+            System.out.printf(Locale.ROOT, "%n%s", SearchTable.render(search));
         }
         LinearWeights weights = loaded.model().weights();
         FeatureSpace space = loaded.pipeline().features();

@@ -8,6 +8,7 @@ import dev.pressmark.core.io.AtomicFiles;
 import dev.pressmark.core.train.BundleAssembler;
 import dev.pressmark.core.train.LabelledData;
 import dev.pressmark.core.train.TrainConfig;
+import dev.pressmark.core.train.TrainPlan;
 import dev.pressmark.core.train.TrainingRun;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
@@ -27,7 +28,9 @@ import picocli.CommandLine.Option;
             "Train a classifier from a labelled CSV as train.yaml says: cross-validate on the training part,",
             "test once on the held-out part, and write the bundle FILE and its report FILE.html.",
             "The bundle's created time is SOURCE_DATE_EPOCH when set, else the data file's modification time,",
-            "so the same config on the same data gives the same bytes."
+            "so the same config on the same data gives the same bytes.",
+            "With a search section, the grid's candidates are cross-validated on the training part;",
+            "the chosen one is trained on the whole training part and tested once."
         })
 final class TrainCommand implements Callable<Integer> {
 
@@ -43,13 +46,14 @@ final class TrainCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws IOException {
-        TrainConfig trainConfig = TrainConfig.read(config);
+        TrainPlan plan = TrainPlan.read(config);
+        TrainConfig trainConfig = plan.config();
         Path dataFile = Path.of(trainConfig.data().file());
         LabelledData data = LabelledData.read(dataFile, trainConfig.data().text(), trainConfig.data().label(),
                 trainConfig.data().dropIncomplete());
         System.err.printf(Locale.ROOT, "pressmark: %s: %,d rows%s%n", dataFile, data.rows(),
                 data.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", data.droppedRows()) : "");
-        TrainingRun run = testData == null ? new TrainingRun(trainConfig, data) : withTestData(trainConfig, data);
+        TrainingRun run = testData == null ? new TrainingRun(plan, data) : withTestData(plan, data);
         if (run.positiveClass() >= 0) {
             System.err.println("pressmark: positive class for binary metrics: " + run.labels().get(run.positiveClass()));
         }
@@ -60,17 +64,22 @@ final class TrainCommand implements Callable<Integer> {
         String html = HtmlReport.render(Bundle.read(bundle));
         AtomicFiles.write(target, stream -> stream.write(bundle));
         AtomicFiles.write(report, stream -> stream.write(html.getBytes(StandardCharsets.UTF_8)));
+        if (result.search() != null) {
+            System.out.print(SearchTable.render(result.search().summary()));
+            System.out.println();
+        }
         printSummary(result);
         System.err.println("pressmark: wrote " + target + " and " + report);
         return Main.EXIT_OK;
     }
 
-    private TrainingRun withTestData(TrainConfig trainConfig, LabelledData data) {
+    private TrainingRun withTestData(TrainPlan plan, LabelledData data) {
+        TrainConfig trainConfig = plan.config();
         LabelledData test = LabelledData.read(testData, trainConfig.data().text(), trainConfig.data().label(),
                 trainConfig.data().dropIncomplete());
         System.err.printf(Locale.ROOT, "pressmark: %s: %,d test rows%s%n", testData, test.rows(),
                 test.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", test.droppedRows()) : "");
-        return TrainingRun.withTestData(trainConfig, data, test);
+        return TrainingRun.withTestData(plan, data, test);
     }
 
     private static Instant created(Path dataFile) throws IOException {

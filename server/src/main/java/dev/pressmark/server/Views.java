@@ -126,6 +126,9 @@ public final class Views {
         node.set("input_fields", manifest.path("input_fields").deepCopy());
         node.set("metrics", manifest.path("metrics").deepCopy());
         node.set("provenance", manifest.path("provenance").deepCopy());
+        if (manifest.has("search")) {
+            node.set("search", manifest.path("search").deepCopy());
+        }
         node.set("contract", contract(v));
         node.put("signed_by", signedBy(v));
         return node;

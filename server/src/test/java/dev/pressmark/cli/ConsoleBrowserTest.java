@@ -111,6 +111,12 @@ class ConsoleBrowserTest {
             assertThat(driver.findElement(By.cssSelector("#versions tr.is-active")).getAttribute("data-tag")).isEqualTo("v2");
             wait.until(ExpectedConditions.presenceOfElementLocated(By.cssSelector("#confusion svg")));
             wait.until(ExpectedConditions.numberOfElementsToBe(By.cssSelector("#features svg"), 4));
+            // v2's settings came from a small search: its candidates, the chosen one marked.
+            assertThat(driver.findElement(By.id("search-section")).isDisplayed()).isTrue();
+            assertThat(driver.findElements(By.cssSelector("#search tbody tr"))).hasSize(3);
+            assertThat(driver.findElements(By.cssSelector("#search tbody tr.chosen"))).hasSize(1);
+            assertThat(driver.findElements(By.cssSelector("#search thead th"))).extracting(WebElement::getText)
+                    .contains("classifier.c", "accuracy (cv)");
             // The drift panel reads the active version's window: its version, a status badge and the training rate.
             wait.until(ExpectedConditions.textToBe(By.id("drift-version"), "routing v2"));
             assertThat(driver.findElement(By.id("drift-status")).getText()).isIn("ok", "watch", "drift", "no traffic yet");
@@ -133,6 +139,8 @@ class ConsoleBrowserTest {
                 assertThat(neg.getCssValue("color")).isNotEqualTo(positive);
             });
             screenshot(driver, "1280x800");
+            ((JavascriptExecutor) driver).executeScript("document.getElementById('search-heading').scrollIntoView()");
+            screenshot(driver, "1280x800-search");
             ((JavascriptExecutor) driver).executeScript("document.getElementById('confusion-heading').scrollIntoView()");
             screenshot(driver, "1280x800-charts");
             ((JavascriptExecutor) driver).executeScript("window.scrollTo(0, 0)");

@@ -57,6 +57,53 @@ class TrainCommandTest {
     }
 
     @Test
+    void a_search_prints_and_inspects_its_candidate_table() throws IOException {
+        Files.writeString(dir.resolve("search.yaml"), Files.readString(dir.resolve("train.yaml")) + """
+                search:
+                  grid:
+                    classifier.c: [0.1, 1]
+                    features.max_tokens: [100, 400]
+                  pick: one-se
+                """);
+        CommandRun run = CommandRun.run(dir, "train", "--config", "search.yaml", "--out", "s.pmb");
+        assertThat(run.exitCode()).as(run.err()).isZero();
+        assertThat(run.out()).startsWith("search: 4 candidates, metric accuracy, pick one-se")
+                .containsPattern("(?m)^\\* [1-4]  ").contains("classifier.c  features.max_tokens  accuracy (cv mean ± s.e.)");
+        assertThat(run.err()).contains("search: 4 candidates x 3 folds");
+
+        CommandRun inspected = CommandRun.run(dir, "inspect", "s.pmb");
+        assertThat(inspected.out()).contains("search: 4 candidates, metric accuracy, pick one-se").containsPattern("(?m)^\\* [1-4]  ");
+        CommandRun json = CommandRun.run(dir, "inspect", "s.pmb", "--json");
+        assertThat(json.out()).contains("\"search\" : {", "\"pick\" : \"one-se\"", "\"chosen\" :", "\"classifier.c\" : 0.1");
+        assertThat(Files.readString(dir.resolve("s.pmb.html"))).contains("Model search", "accuracy against C");
+    }
+
+    @Test
+    void a_bad_grid_key_fails_with_its_line_and_writes_nothing() throws IOException {
+        Files.writeString(dir.resolve("bad.yaml"), "name: routing\nsearch:\n  grid:\n    classifier.cee: [1, 2]\n");
+        CommandRun run = CommandRun.run(dir, "train", "--config", "bad.yaml");
+        assertThat(run.exitCode()).isEqualTo(1);
+        assertThat(run.err()).startsWith("pressmark: bad.yaml: line 4: search.grid.classifier.cee = 1: unknown key \"classifier.cee\"");
+        assertThat(dir.resolve("routing.pmb")).doesNotExist();
+    }
+
+    @Test
+    void a_search_with_test_data_chooses_on_the_data_file_and_tests_on_the_test_file() throws IOException {
+        StringBuilder held = new StringBuilder("title,department\n");
+        for (ListingTitles.Listing listing : ListingTitles.generate(300, 11)) {
+            held.append('"').append(listing.title().replace("\"", "\"\"")).append("\",").append(listing.department()).append('\n');
+        }
+        Files.writeString(dir.resolve("held-out.csv"), held);
+        Files.writeString(dir.resolve("search.yaml"), Files.readString(dir.resolve("train.yaml"))
+                + "search: {grid: {classifier.c: [0.1, 1]}}\n");
+        CommandRun run = CommandRun.run(dir, "train", "--config", "search.yaml", "--test-data", "held-out.csv", "--out", "t.pmb");
+        assertThat(run.exitCode()).as(run.err()).isZero();
+        JsonNode manifest = JSON.readTree(CommandRun.run(dir, "inspect", "t.pmb", "--json").out());
+        assertThat(manifest.path("training").path("train_rows").asInt()).isEqualTo(1200);
+        assertThat(manifest.path("search").path("candidates")).hasSize(2);
+    }
+
+    @Test
     void with_test_data_every_data_row_trains_and_the_test_file_is_what_was_tested() throws IOException {
         StringBuilder held = new StringBuilder("title,department\n");
         for (ListingTitles.Listing listing : ListingTitles.generate(300, 11)) {

@@ -39,6 +39,7 @@ public final class HtmlReport {
                 .append(manifest.path("training").path("test_rows").asInt()).append(" test rows · ")
                 .append(escape(manifest.path("classifier").path("kind").asText())).append("</p>\n");
         metricsTable(html, manifest.path("metrics"));
+        SearchReport.append(html, manifest);
         confusion(html, bundle.labels(), manifest.path("metrics").path("test_confusion").path("counts"));
         foldSpread(html, manifest.path("metrics").path("cv"));
         features(html, bundle);
@@ -264,7 +265,7 @@ public final class HtmlReport {
             h2{font-size:1.15rem;border-bottom:1px solid #d5d9df;padding-bottom:.2rem;margin-top:2rem}
             h3{font-size:1rem;margin:.4rem 0}
             table.metrics{border-collapse:collapse}table.metrics td,table.metrics th{padding:.25rem .8rem;border-bottom:1px solid #e4e7eb;text-align:left}
-            table.metrics td:nth-child(n+2){font-variant-numeric:tabular-nums}
+            table.metrics td:nth-child(n+2){font-variant-numeric:tabular-nums}table.search tr.chosen td{font-weight:600;background:#e8f2ee}
             .chart text{font:11px system-ui,sans-serif;fill:#333}.count{font-weight:600}.count.light{fill:#fff}
             .grid{stroke:#e4e7eb}.dot{fill:#3d5a80;fill-opacity:.7}.mean{stroke:#1d2430;stroke-width:2}
             .pos{fill:#2f6f5e}.neg{fill:#a04a2c}.bar-title{margin:.3rem 0 0;color:#5b6472}

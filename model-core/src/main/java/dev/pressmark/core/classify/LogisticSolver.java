@@ -49,6 +49,20 @@ public final class LogisticSolver {
      */
     static SolverRun solve(SparseMatrix x, boolean[] positive, double[] cost, LogisticConfig config,
             SplittableRandom random, double[] w, double[] alpha) {
+        return solve(x, positive, cost, config, random, w, alpha, 0.0);
+    }
+
+    /**
+     * Solves one binary problem as {@link #solve(SparseMatrix, boolean[], double[], LogisticConfig,
+     * SplittableRandom, double[], double[])} does, but with {@code warmScale > 0} starts from the
+     * dual point that {@code alpha} holds times {@code warmScale} instead of near 0, as
+     * {@link SvmSolver#solve(SparseMatrix, boolean[], double[], SvmConfig, SplittableRandom,
+     * double[], double[], double)} does (Chu et al., KDD 2015). With the scale the ratio of the new
+     * C to the old, a point inside the previous open box {@code (0, C_i)} lands inside the new
+     * one; a value outside it is pulled just inside.
+     */
+    static SolverRun solve(SparseMatrix x, boolean[] positive, double[] cost, LogisticConfig config,
+            SplittableRandom random, double[] w, double[] alpha, double warmScale) {
         Rows.checkProblem(x, positive, cost, w, alpha);
         int n = x.rows();
         double bias = config.bias();
@@ -56,7 +70,8 @@ public final class LogisticSolver {
         double[] rest = new double[n];
         Arrays.fill(w, 0.0);
         for (int i = 0; i < n; i++) {
-            alpha[i] = Math.min(INITIAL_ALPHA_FRACTION * cost[i], INITIAL_ALPHA_MAX);
+            double start = Math.min(INITIAL_ALPHA_FRACTION * cost[i], INITIAL_ALPHA_MAX);
+            alpha[i] = warmScale > 0.0 ? interior(alpha[i] * warmScale, cost[i], start) : start;
             rest[i] = cost[i] - alpha[i];
             Rows.add(x, i, positive[i] ? alpha[i] : -alpha[i], bias, w);
         }
@@ -111,6 +126,14 @@ public final class LogisticSolver {
             }
         }
         return new SolverRun(iteration, false);
+    }
+
+    /** {@code a} if it lies inside {@code (0, c)}, else the point {@code edge} away from the bound it crossed. */
+    private static double interior(double a, double c, double edge) {
+        if (!(a > 0.0)) {
+            return edge;
+        }
+        return c - a > 0.0 ? a : c - edge;
     }
 
     /**

@@ -34,10 +34,22 @@ public final class SvmTrainer implements Trainer<SvmModel> {
 
     @Override
     public SvmModel train(SparseMatrix x, int[] labels, int numClasses, long seed) {
+        return train(x, labels, numClasses, seed, null);
+    }
+
+    /**
+     * Trains as {@link #train(SparseMatrix, int[], int, long)} does, each binary problem starting
+     * from its solution in {@code warm} (a previous fit on the same rows at a smaller C) when there is
+     * one, and leaving its new solution there for the next fit; {@code null} starts cold.
+     */
+    public SvmModel train(SparseMatrix x, int[] labels, int numClasses, long seed, WarmStart warm) {
         Labels.checkTrainingSet(x, labels, numClasses);
         List<SolverRun> runs = new ArrayList<>();
         double[][] w = solve(x, labels, OneVsRest.positiveClasses(numClasses),
-                OneVsRest.costs(labels, config.c(), classWeights.resolve(labels, numClasses)), seed, runs);
+                OneVsRest.costs(labels, config.c(), classWeights.resolve(labels, numClasses)), seed, runs, warm);
+        if (warm != null) {
+            warm.solvedAt(config.c());
+        }
         return new SvmModel(LinearWeights.own(numClasses, x.columns(), config.bias(), w), config, classWeights,
                 seed, new Convergence(runs));
     }
@@ -45,8 +57,18 @@ public final class SvmTrainer implements Trainer<SvmModel> {
     /** The weight vectors of the binary problems "class k against the rest", k in {@code positiveClasses}. */
     double[][] solve(SparseMatrix x, int[] labels, int[] positiveClasses, double[] cost, long seed,
             List<SolverRun> runs) {
-        double[] alpha = new double[x.rows()];
-        return OneVsRest.solve(x, labels, positiveClasses, cost, seed,
-                (positive, costs, random, w) -> SvmSolver.solve(x, positive, costs, config, random, w, alpha), runs);
+        return solve(x, labels, positiveClasses, cost, seed, runs, null);
+    }
+
+    private double[][] solve(SparseMatrix x, int[] labels, int[] positiveClasses, double[] cost, long seed,
+            List<SolverRun> runs, WarmStart warm) {
+        double[] shared = warm == null ? new double[x.rows()] : null;
+        int[] problem = {0};
+        return OneVsRest.solve(x, labels, positiveClasses, cost, seed, (positive, costs, random, w) -> {
+            int k = problem[0]++;
+            double scale = warm != null && warm.has(k, x.rows()) ? warm.scaleTo(config.c()) : 0.0;
+            double[] alpha = warm == null ? shared : warm.alpha(k, x.rows());
+            return SvmSolver.solve(x, positive, costs, config, random, w, alpha, scale);
+        }, runs);
     }
 }

@@ -14,6 +14,7 @@ import dev.pressmark.core.evaluate.MetricSummary;
 import dev.pressmark.core.evaluate.MetricValues;
 import dev.pressmark.core.feature.FeatureConfig;
 import dev.pressmark.core.feature.FeatureSpace;
+import dev.pressmark.core.search.SearchSummary;
 import java.time.Instant;
 import java.util.Arrays;
 import java.util.HashSet;
@@ -53,7 +54,8 @@ public final class BundleAssembler {
         provenance.put("seed", config.split().seed());
         provenance.put("data_sha256", data.sha256());
         provenance.put("data_file", fileName(config));
-        provenance.set("config", configJson(config));
+        // a search's bundle records the chosen candidate's config, which is what was trained
+        provenance.set("config", configJson(result.search() == null ? config : result.search().chosen()));
         ObjectNode training = manifest.putObject("training");
         training.put("rows", data.rows());
         training.put("dropped_rows", data.droppedRows());
@@ -64,6 +66,9 @@ public final class BundleAssembler {
         ArrayNode warnings = training.putArray("warnings");
         result.warnings().forEach(warnings::add);
         manifest.set("metrics", metrics(result));
+        if (result.search() != null) {
+            manifest.set(SearchSummary.KEY, result.search().summary().toJson());
+        }
         return Bundle.write(manifest, result.labels(), result.pipeline(), result.model(), profile(result, data));
     }
 

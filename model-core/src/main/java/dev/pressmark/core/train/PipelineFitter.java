@@ -54,9 +54,28 @@ final class PipelineFitter {
             built.add(spec.tokenizer());
         }
         Tokenizer tokenizer = TextPipeline.combine(specs, built);
+        return withFeatures(specs, built, tokenizer, features, rows);
+    }
+
+    /**
+     * The feature space of {@code settings} on {@code rows} through the tokenizers of {@code
+     * trained}, a pipeline this fitter fitted: a search fits further feature settings this way, so
+     * that each fold's tokenizers are trained once.
+     */
+    Fitted withFeatures(TextPipeline trained, FeatureConfig settings, List<String[]> rows) {
+        List<Tokenizer> built = new ArrayList<>(trained.views().size());
+        for (TokenizerSpec spec : trained.views()) {
+            built.add(spec.tokenizer());
+        }
+        return withFeatures(trained.views(), built, trained.tokenizer(), settings, rows);
+    }
+
+    /** What {@link #fit} does once the tokenizers are trained. */
+    private Fitted withFeatures(List<TokenizerSpec> specs, List<Tokenizer> built, Tokenizer tokenizer, FeatureConfig settings,
+            List<String[]> rows) {
         List<String> prefixes = TextPipeline.prefixes(tokenizer);
         TokenSource source = TextPipeline.source(built, rows);
-        FeatureSpace space = FeatureSpace.fit(features, columns, source, prefixes, caps());
+        FeatureSpace space = FeatureSpace.fit(settings, columns, source, prefixes, caps());
         return new Fitted(new TextPipeline(specs, tokenizer, space), space.transform(source, prefixes));
     }
 

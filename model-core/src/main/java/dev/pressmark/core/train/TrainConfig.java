@@ -2,6 +2,7 @@ package dev.pressmark.core.train;
 
 import com.fasterxml.jackson.annotation.JsonCreator;
 import com.fasterxml.jackson.annotation.JsonIgnore;
+import com.fasterxml.jackson.annotation.JsonIgnoreProperties;
 import com.fasterxml.jackson.annotation.JsonProperty;
 import com.fasterxml.jackson.annotation.JsonPropertyOrder;
 import com.fasterxml.jackson.core.JsonLocation;
@@ -30,8 +31,10 @@ import java.util.regex.Pattern;
 /**
  * Everything {@code pressmark train} needs, read from {@code train.yaml}. Every key has a default;
  * an unknown key, a wrong type or a value out of bounds is an error naming the file, the line and
- * the key. The resolved config, defaults filled in, goes into the bundle's manifest.
+ * the key. The resolved config, defaults filled in, goes into the bundle's manifest. The
+ * {@code search} section is {@link TrainPlan}'s to read.
  */
+@JsonIgnoreProperties({"search"})
 @JsonPropertyOrder({"name", "data", "split", "tokenizer", "features", "classifier", "evaluation"})
 public record TrainConfig(
         @JsonProperty("name") String name,

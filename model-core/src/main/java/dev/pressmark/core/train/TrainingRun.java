@@ -9,6 +9,7 @@ import dev.pressmark.core.classify.LinearClassifier;
 import dev.pressmark.core.classify.LogisticTrainer;
 import dev.pressmark.core.classify.PlattScaling;
 import dev.pressmark.core.classify.SvmTrainer;
+import dev.pressmark.core.classify.WarmStart;
 import dev.pressmark.core.evaluate.Evaluation;
 import dev.pressmark.core.evaluate.Fold;
 import dev.pressmark.core.evaluate.FoldSummary;
@@ -16,6 +17,7 @@ import dev.pressmark.core.evaluate.MetricValues;
 import dev.pressmark.core.evaluate.Resampling;
 import dev.pressmark.core.evaluate.Split;
 import dev.pressmark.core.feature.SparseMatrix;
+import dev.pressmark.core.search.SearchSummary;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Optional;
@@ -55,6 +57,7 @@ public final class TrainingRun {
      * @param trainRows the rows of the training part, as indices into the data
      * @param testRows the rows of the test part
      * @param warnings solver warnings, for example an iteration cap that was hit
+     * @param search what the search found, or null when the config has no search
      */
     public record Result(
             List<String> labels,
@@ -65,10 +68,21 @@ public final class TrainingRun {
             Evaluation test,
             int[] trainRows,
             int[] testRows,
-            List<String> warnings) {
+            List<String> warnings,
+            Searched search) {
+    }
+
+    /**
+     * A search's outcome.
+     *
+     * @param summary every candidate's score and the chosen one, as the manifest records them
+     * @param chosen the chosen candidate's config, which the final model was trained with
+     */
+    public record Searched(SearchSummary summary, TrainConfig chosen) {
     }
 
     private final TrainConfig config;
+    private final TrainPlan.Search search;
     private final LabelledData data;
     private final List<String> labels;
     private final int[] y;
@@ -78,7 +92,12 @@ public final class TrainingRun {
     private final Split fixedSplit;
 
     public TrainingRun(TrainConfig config, LabelledData data) {
-        this(config, data, null);
+        this(TrainPlan.of(config), data);
+    }
+
+    /** A run of {@code plan}: its config, or the search over its candidates and the chosen one. */
+    public TrainingRun(TrainPlan plan, LabelledData data) {
+        this(plan, data, null);
     }
 
     /**
@@ -88,12 +107,18 @@ public final class TrainingRun {
      * {@code test}'s, as in {@link #data()}.
      */
     public static TrainingRun withTestData(TrainConfig config, LabelledData train, LabelledData test) {
-        return new TrainingRun(config, train.followedBy(test), new Split(range(0, train.rows()),
+        return withTestData(TrainPlan.of(config), train, test);
+    }
+
+    /** As {@link #withTestData(TrainConfig, LabelledData, LabelledData)}, for a plan that may search. */
+    public static TrainingRun withTestData(TrainPlan plan, LabelledData train, LabelledData test) {
+        return new TrainingRun(plan, train.followedBy(test), new Split(range(0, train.rows()),
                 range(train.rows(), train.rows() + test.rows())));
     }
 
-    private TrainingRun(TrainConfig config, LabelledData data, Split fixedSplit) {
-        this.config = config;
+    private TrainingRun(TrainPlan plan, LabelledData data, Split fixedSplit) {
+        this.config = plan.config();
+        this.search = plan.search();
         this.data = data;
         this.fixedSplit = fixedSplit;
         this.labels = List.copyOf(new TreeSet<>(data.labels()));
@@ -171,8 +196,19 @@ public final class TrainingRun {
         requireEnoughRowsForFolds(trainLabels);
         List<Fold> folds = Resampling.stratifiedKFold(trainLabels, labels.size(), config.evaluation().folds(),
                 config.evaluation().repeats(), seed);
+        if (search != null) {
+            SearchRun.Outcome outcome = new SearchRun(this, search, config.evaluation(), trainRows, trainLabels, folds).run(progress);
+            TrainConfig chosen = search.configs().get(outcome.summary().chosen());
+            return new TrainingRun(chosen, data).finish(split, trainLabels, outcome.chosenFolds(), progress,
+                    new Searched(outcome.summary(), chosen));
+        }
+        return finish(split, trainLabels, crossValidate(trainRows, trainLabels, folds, progress), progress, null);
+    }
 
-        List<FoldResult> results = crossValidate(trainRows, trainLabels, folds, progress);
+    /** Platt sigmoids from the folds, the final model on the whole training part, and the test part scored once. */
+    private Result finish(Split split, int[] trainLabels, List<FoldResult> results, Progress progress, Searched searched) {
+        long seed = config.split().seed();
+        int[] trainRows = split.train();
         List<MetricValues> foldMetrics = new ArrayList<>();
         List<String> warnings = new ArrayList<>();
         for (FoldResult result : results) {
@@ -187,7 +223,7 @@ public final class TrainingRun {
         PipelineFitter.Fitted fitted = fitter.fit(rows(trainRows), progress);
         progress.start("final model", 3);
         progress.advance(1);
-        Trained trained = train(fitted.x(), trainLabels, seed);
+        Trained trained = train(config.classifier(), fitted.x(), trainLabels, seed, null);
         trained.warning.ifPresent(w -> warnings.add("final model: " + w));
         ModelWeights model = new ModelWeights(kindKey(), trained.model.weights(), platt);
         progress.advance(2);
@@ -196,7 +232,7 @@ public final class TrainingRun {
         progress.finish();
         warnings.forEach(progress::note);
         return new Result(labels, positiveClass, fitted.pipeline(), model, FoldSummary.of(foldMetrics), test,
-                trainRows, split.test(), warnings);
+                trainRows, split.test(), warnings, searched);
     }
 
     private Split split(long seed) {
@@ -222,10 +258,11 @@ public final class TrainingRun {
         return new Split(train, test);
     }
 
-    private record FoldResult(Fold fold, Evaluation evaluation, double[][] decisionValues, Optional<String> warning) {
+    /** One fold's evaluation, its held-out decision values (null when nothing needs them), and a solver warning. */
+    record FoldResult(Fold fold, Evaluation evaluation, double[][] decisionValues, Optional<String> warning) {
     }
 
-    private record Trained(LinearClassifier model, Optional<String> warning) {
+    record Trained(LinearClassifier model, Optional<String> warning) {
     }
 
     private List<FoldResult> crossValidate(int[] trainRows, int[] trainLabels, List<Fold> folds, Progress progress) {
@@ -272,18 +309,25 @@ public final class TrainingRun {
         int[] foldTrain = select(trainRows, fold.train());
         int[] foldTest = select(trainRows, fold.test());
         PipelineFitter.Fitted fitted = fitter.fit(rows(foldTrain), Progress.NONE);
-        Trained trained = train(fitted.x(), select(trainLabels, fold.train()), foldSeed(fold));
+        Trained trained = train(config.classifier(), fitted.x(), select(trainLabels, fold.train()), foldSeed(fold), null);
         SparseMatrix xTest = fitted.pipeline().transform(rows(foldTest));
-        int[] truth = select(trainLabels, fold.test());
+        return foldResult(fold, trained, xTest, select(trainLabels, fold.test()), true);
+    }
+
+    /** The result of {@code trained} on a fold's held-out rows, with their decision values when {@code keepValues}. */
+    FoldResult foldResult(Fold fold, Trained trained, SparseMatrix xTest, int[] truth, boolean keepValues) {
         Evaluation evaluation = evaluate(trained.model, xTest, truth);
-        double[][] values = new double[trained.model.weights().numScores()][];
-        for (int k = 0; k < values.length; k++) {
-            values[k] = trained.model.decisionColumn(xTest, k);
+        double[][] values = null;
+        if (keepValues) {
+            values = new double[trained.model.weights().numScores()][];
+            for (int k = 0; k < values.length; k++) {
+                values[k] = trained.model.decisionColumn(xTest, k);
+            }
         }
         return new FoldResult(fold, evaluation, values, trained.warning);
     }
 
-    private long foldSeed(Fold fold) {
+    long foldSeed(Fold fold) {
         return new SplittableRandom(config.split().seed() + 0x9E3779B97F4A7C15L * (1L + fold.repeat() * 1_000_003L + fold.index()))
                 .nextLong();
     }
@@ -308,14 +352,14 @@ public final class TrainingRun {
         return values;
     }
 
-    private Trained train(SparseMatrix x, int[] labels, long seed) {
-        ClassifierConfig classifier = config.classifier();
+    /** Trains {@code classifier} on {@code x}; {@code warm}, when not null, carries the previous C's solution. */
+    Trained train(ClassifierConfig classifier, SparseMatrix x, int[] labels, long seed, WarmStart warm) {
         ClassWeights weights = classifier.classWeight().resolve(this.labels);
         if (classifier.kind() == ClassifierConfig.Kind.LOGISTIC_REGRESSION) {
-            var model = new LogisticTrainer(classifier.logisticConfig(), weights).train(x, labels, this.labels.size(), seed);
+            var model = new LogisticTrainer(classifier.logisticConfig(), weights).train(x, labels, this.labels.size(), seed, warm);
             return new Trained(model, model.warning());
         }
-        var model = new SvmTrainer(classifier.svmConfig(), weights).train(x, labels, this.labels.size(), seed);
+        var model = new SvmTrainer(classifier.svmConfig(), weights).train(x, labels, this.labels.size(), seed, warm);
         return new Trained(model, model.warning());
     }
 
@@ -345,7 +389,7 @@ public final class TrainingRun {
                 ? ModelWeights.LOGISTIC_REGRESSION : ModelWeights.LINEAR_SVM;
     }
 
-    private List<String[]> rows(int[] indices) {
+    List<String[]> rows(int[] indices) {
         List<String[]> rows = new ArrayList<>(indices.length);
         for (int i : indices) {
             rows.add(data.texts().get(i));
@@ -361,7 +405,7 @@ public final class TrainingRun {
         return out;
     }
 
-    private static int[] select(int[] values, int[] indices) {
+    static int[] select(int[] values, int[] indices) {
         int[] out = new int[indices.length];
         for (int i = 0; i < indices.length; i++) {
             out[i] = values[indices[i]];
