@@ -17,9 +17,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
-import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorService;
-import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
 
 /**
@@ -80,37 +78,26 @@ final class SearchRun {
         int tasks = folds.size() * groups.size();
         int threads = Math.max(1, Math.min(evaluation.effectiveThreads(), tasks));
         checkMemory(threads);
-        ExecutorService pool = Executors.newFixedThreadPool(threads, runnable -> {
-            Thread thread = new Thread(runnable, "pressmark-search");
-            thread.setDaemon(true);
-            return thread;
-        });
+        ExecutorService pool = Workers.pool(threads, "pressmark-search");
         long[] done = {0};
         progress.start(String.format(Locale.ROOT, "search: %d candidates x %d folds", candidates, folds.size()),
                 (long) candidates * folds.size());
         try {
-            List<Future<?>> futures = new ArrayList<>(tasks);
+            List<Future<Object>> futures = new ArrayList<>(tasks);
             for (int f = 0; f < folds.size(); f++) {
                 for (Group group : groups) {
                     int fold = f;
-                    futures.add(pool.submit(() -> runTask(fold, group, results, features, () -> {
-                        synchronized (progress) {
-                            progress.advance(++done[0]);
-                        }
-                    })));
+                    futures.add(pool.submit(() -> {
+                        runTask(fold, group, results, features, () -> {
+                            synchronized (progress) {
+                                progress.advance(++done[0]);
+                            }
+                        });
+                        return null;
+                    }));
                 }
             }
-            for (Future<?> future : futures) {
-                future.get();
-            }
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new PressmarkException("interrupted", "the search was interrupted");
-        } catch (ExecutionException e) {
-            if (e.getCause() instanceof RuntimeException runtime) {
-                throw runtime;
-            }
-            throw new IllegalStateException(e.getCause());
+            Workers.await(futures, "the search");
         } finally {
             pool.shutdownNow();
             progress.finish();

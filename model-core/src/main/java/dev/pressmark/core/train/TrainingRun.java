@@ -23,9 +23,7 @@ import java.util.List;
 import java.util.Optional;
 import java.util.SplittableRandom;
 import java.util.TreeSet;
-import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorService;
-import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
 import java.util.concurrent.atomic.AtomicInteger;
 
@@ -267,11 +265,7 @@ public final class TrainingRun {
 
     private List<FoldResult> crossValidate(int[] trainRows, int[] trainLabels, List<Fold> folds, Progress progress) {
         int threads = Math.min(config.evaluation().effectiveThreads(), folds.size());
-        ExecutorService pool = Executors.newFixedThreadPool(threads, runnable -> {
-            Thread thread = new Thread(runnable, "pressmark-fold");
-            thread.setDaemon(true);
-            return thread;
-        });
+        ExecutorService pool = Workers.pool(threads, "pressmark-fold");
         AtomicInteger done = new AtomicInteger();
         progress.start("folds", folds.size());
         try {
@@ -286,19 +280,7 @@ public final class TrainingRun {
                     return result;
                 }));
             }
-            List<FoldResult> results = new ArrayList<>();
-            for (Future<FoldResult> future : futures) {
-                results.add(future.get());
-            }
-            return results;
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new PressmarkException("interrupted", "training was interrupted");
-        } catch (ExecutionException e) {
-            if (e.getCause() instanceof RuntimeException runtime) {
-                throw runtime;
-            }
-            throw new IllegalStateException(e.getCause());
+            return Workers.await(futures, "training");
         } finally {
             pool.shutdownNow();
             progress.finish();
