@@ -2,6 +2,10 @@
 """Writes the character n-grams that scikit-learn's char_wb analyzer yields for a fixed set of texts,
 the reference for CharNgramReferenceTest.
 
+The "cases" hold words of letters only, the same words for pressmark's default word split (at every
+punctuation mark) and for char_wb; the "whitespace_cases" hold punctuation inside words, for
+pressmark's `word_split: whitespace`, which splits where char_wb does.
+
     /usr/bin/python3 scripts/sklearn-char-wb-reference.py \
         > model-core/src/test/resources/reference/sklearn-char-wb.json
 
@@ -35,8 +39,25 @@ for min_n, max_n in [(1, 1), (1, 4), (1, 5), (2, 3), (3, 5), (4, 4), (5, 10)]:
         cases.append({"text": text, "min_n": min_n, "max_n": max_n,
                       "ngrams": [[g, c] for g, c in sorted(counts.items())]})
 
+punctuated = ["Re: [SA] $$$ Cheap!!!", "o'brien-smith", "3/4in kit (x2)", "a.b.c", "--", "!"]
+for _ in range(15):
+    words = ["".join(rng.choice(alphabet + ".,:;!?'()[]$-/") for _ in range(rng.randint(1, 9)))
+             for _ in range(rng.randint(1, 4))]
+    punctuated.append(" ".join(words))
+whitespace_cases = []
+for min_n, max_n in [(1, 4), (1, 5), (2, 3)]:
+    analyzer = CountVectorizer(analyzer="char_wb", ngram_range=(min_n, max_n), lowercase=False).build_analyzer()
+    for text in punctuated:
+        counts = {}
+        for gram in analyzer(text):
+            counts[gram] = counts.get(gram, 0) + 1
+        whitespace_cases.append({"text": text, "min_n": min_n, "max_n": max_n,
+                                 "ngrams": [[g, c] for g, c in sorted(counts.items())]})
+
 # One case per line, so that a change reads well in a diff.
 sys.stdout.write('{"source": ' + json.dumps("scikit-learn " + sklearn.__version__
                                              + " CountVectorizer(analyzer='char_wb', lowercase=False)") + ',\n"cases": [\n')
 sys.stdout.write(",\n".join(json.dumps(case, ensure_ascii=False, sort_keys=True) for case in cases))
+sys.stdout.write("\n],\n\"whitespace_cases\": [\n")
+sys.stdout.write(",\n".join(json.dumps(case, ensure_ascii=False, sort_keys=True) for case in whitespace_cases))
 sys.stdout.write("\n]}\n")

@@ -27,8 +27,10 @@ import java.util.Objects;
  * @param ngrams token n-grams of order 1 to this; null for 1 (and always for char n-grams)
  * @param minN the shortest character n-gram; null unless char n-grams
  * @param maxN the longest character n-gram; null unless char n-grams
+ * @param wordSplit {@value #WHITESPACE} when char n-grams take words from white space to white
+ *     space, punctuation inside; null for the words of the pre-tokenizer
  */
-@JsonPropertyOrder({"kind", "normalizer", "max_word_chars", "ngrams", "min_n", "max_n", "vocabulary"})
+@JsonPropertyOrder({"kind", "normalizer", "max_word_chars", "ngrams", "min_n", "max_n", "word_split", "vocabulary"})
 @JsonInclude(JsonInclude.Include.NON_NULL)
 public record TokenizerSpec(
         @JsonProperty("kind") String kind,
@@ -37,13 +39,16 @@ public record TokenizerSpec(
         @JsonProperty("vocabulary") List<String> vocabulary,
         @JsonProperty("ngrams") Integer ngrams,
         @JsonProperty("min_n") Integer minN,
-        @JsonProperty("max_n") Integer maxN) {
+        @JsonProperty("max_n") Integer maxN,
+        @JsonProperty("word_split") String wordSplit) {
 
     public static final String WORDPIECE = "wordpiece";
     /** Whole words, as bundles of format 1 name them. */
     public static final String WORD = "word";
     public static final String WORDS = "words";
     public static final String CHAR_NGRAMS = "char-ngrams";
+    /** Words run from white space to white space. */
+    public static final String WHITESPACE = "whitespace";
 
     public TokenizerSpec {
         Objects.requireNonNull(kind, "kind");
@@ -75,6 +80,10 @@ public record TokenizerSpec(
         } else if (minN != null || maxN != null) {
             throw new IllegalArgumentException("min_n and max_n apply to char-ngrams only, not to " + kind);
         }
+        if (wordSplit != null && (!wordSplit.equals(WHITESPACE) || !kind.equals(CHAR_NGRAMS))) {
+            throw new IllegalArgumentException("word_split may only be " + WHITESPACE + ", and only for char-ngrams; was \""
+                    + wordSplit + "\" for " + kind);
+        }
         vocabulary = vocabulary == null ? null : List.copyOf(vocabulary);
         ngrams = ngrams == null || ngrams == 1 ? null : ngrams;
     }
@@ -87,22 +96,28 @@ public record TokenizerSpec(
     /** The spec of a WordPiece encoder whose pieces form n-grams up to {@code ngrams}. */
     public static TokenizerSpec of(WordPieceEncoder encoder, int ngrams) {
         return new TokenizerSpec(WORDPIECE, encoder.normalizer(), encoder.maxWordChars(), encoder.vocabulary().tokens(),
-                ngrams, null, null);
+                ngrams, null, null, null);
     }
 
     /** The spec of a whole-word tokenizer, as format 1 names it. */
     public static TokenizerSpec words(TextNormalizer normalizer) {
-        return new TokenizerSpec(WORD, normalizer, WordPieceEncoder.DEFAULT_MAX_WORD_CHARS, null, null, null, null);
+        return new TokenizerSpec(WORD, normalizer, WordPieceEncoder.DEFAULT_MAX_WORD_CHARS, null, null, null, null, null);
     }
 
     /** The spec of whole words and their n-grams up to {@code ngrams}. */
     public static TokenizerSpec words(String kind, TextNormalizer normalizer, int ngrams) {
-        return new TokenizerSpec(kind, normalizer, WordPieceEncoder.DEFAULT_MAX_WORD_CHARS, null, ngrams, null, null);
+        return new TokenizerSpec(kind, normalizer, WordPieceEncoder.DEFAULT_MAX_WORD_CHARS, null, ngrams, null, null, null);
     }
 
     /** The spec of character n-grams from {@code minN} to {@code maxN}. */
     public static TokenizerSpec charNgrams(TextNormalizer normalizer, int minN, int maxN) {
-        return new TokenizerSpec(CHAR_NGRAMS, normalizer, WordPieceEncoder.DEFAULT_MAX_WORD_CHARS, null, null, minN, maxN);
+        return charNgrams(normalizer, minN, maxN, false);
+    }
+
+    /** The spec of character n-grams, of white-space-separated words when {@code whitespaceWords}. */
+    public static TokenizerSpec charNgrams(TextNormalizer normalizer, int minN, int maxN, boolean whitespaceWords) {
+        return new TokenizerSpec(CHAR_NGRAMS, normalizer, WordPieceEncoder.DEFAULT_MAX_WORD_CHARS, null, null, minN, maxN,
+                whitespaceWords ? WHITESPACE : null);
     }
 
     /** The order of token n-grams: 1 for unigrams only. */
@@ -132,7 +147,7 @@ public record TokenizerSpec(
     /** The tokenizer this spec describes. */
     public Tokenizer tokenizer() {
         Tokenizer base = switch (kind) {
-            case CHAR_NGRAMS -> new CharNgramTokenizer(normalizer, minN, maxN);
+            case CHAR_NGRAMS -> new CharNgramTokenizer(normalizer, minN, maxN, WHITESPACE.equals(wordSplit));
             case WORDPIECE -> new WordPieceEncoder(WordPieceVocabulary.of(vocabulary), normalizer, maxWordChars);
             default -> new WordTokenizer(normalizer);
         };

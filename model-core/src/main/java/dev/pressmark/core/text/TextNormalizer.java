@@ -143,7 +143,7 @@ public record TextNormalizer(
     }
 
     /** Unicode's White_Space property (PropList.txt), as the reference's whitespace test uses it. */
-    static boolean isWhitespace(int cp) {
+    public static boolean isWhitespace(int cp) {
         switch (cp) {
             case ' ', '\t', '\n', '\r', 0x0B, 0x0C, 0x85, 0xA0, 0x1680, 0x2028, 0x2029, 0x202F, 0x205F, 0x3000:
                 return true;

@@ -33,12 +33,44 @@ public final class CharNgramTokenizer implements Tokenizer {
     private final TextNormalizer normalizer;
     private final int minN;
     private final int maxN;
+    private final boolean whitespaceWords;
 
+    /** N-grams of the words of {@link PreTokenizer}: every punctuation mark is a word of its own. */
     public CharNgramTokenizer(TextNormalizer normalizer, int minN, int maxN) {
+        this(normalizer, minN, maxN, false);
+    }
+
+    /**
+     * @param whitespaceWords take words as the runs of text between white space, punctuation kept
+     *     inside them ({@code re:}, {@code [sa]}), as scikit-learn's {@code char_wb} does; else the
+     *     words of {@link PreTokenizer}
+     */
+    public CharNgramTokenizer(TextNormalizer normalizer, int minN, int maxN, boolean whitespaceWords) {
         this.normalizer = Objects.requireNonNull(normalizer, "normalizer");
         checkRange(minN, maxN);
         this.minN = minN;
         this.maxN = maxN;
+        this.whitespaceWords = whitespaceWords;
+    }
+
+    /** True when words run from white space to white space, punctuation inside them. */
+    public boolean whitespaceWords() {
+        return whitespaceWords;
+    }
+
+    private int wordEnd(String text, int start) {
+        if (!whitespaceWords) {
+            return PreTokenizer.wordEnd(text, start);
+        }
+        int end = start;
+        while (end < text.length()) {
+            int cp = text.codePointAt(end);
+            if (cp == ' ' || TextNormalizer.isWhitespace(cp)) {
+                break;
+            }
+            end += Character.charCount(cp);
+        }
+        return end;
     }
 
     /** Checks {@code 1 <= minN <= maxN <= MAX_N_LIMIT}, naming the config keys. */
@@ -74,7 +106,7 @@ public final class CharNgramTokenizer implements Tokenizer {
         int[] marked = new int[Math.min(length, 64) + 2];
         StringBuilder gram = new StringBuilder(maxN * 2);
         for (int start = PreTokenizer.wordStart(normalized, 0); start < length; ) {
-            int end = PreTokenizer.wordEnd(normalized, start);
+            int end = wordEnd(normalized, start);
             int points = Character.codePointCount(normalized, start, end) + 2;
             if (marked.length < points) {
                 marked = new int[points];
@@ -100,7 +132,7 @@ public final class CharNgramTokenizer implements Tokenizer {
         int emitted = 0;
         int dropped = 0;
         for (int start = PreTokenizer.wordStart(normalized, 0); start < length; ) {
-            int end = PreTokenizer.wordEnd(normalized, start);
+            int end = wordEnd(normalized, start);
             marked.setLength(0);
             marked.append(START).append(normalized, start, end).append(END);
             int points = Character.codePointCount(marked, 0, marked.length());

@@ -47,7 +47,8 @@ final class PipelineFitter {
             TokenizerSpec spec = switch (view.kind()) {
                 case WORD -> TokenizerSpec.words(TokenizerSpec.WORD, view.normalizer(), view.ngrams());
                 case WORDS -> TokenizerSpec.words(TokenizerSpec.WORDS, view.normalizer(), view.ngrams());
-                case CHAR_NGRAMS -> TokenizerSpec.charNgrams(view.normalizer(), view.minN(), view.maxN());
+                case CHAR_NGRAMS -> TokenizerSpec.charNgrams(view.normalizer(), view.minN(), view.maxN(),
+                        view.whitespaceWords());
                 case WORDPIECE -> TokenizerSpec.of(encoder(view, rows, v, progress), view.ngrams());
             };
             specs.add(spec);

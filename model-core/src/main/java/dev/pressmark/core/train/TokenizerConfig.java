@@ -34,6 +34,8 @@ import java.util.Objects;
  * @param minN the shortest character n-gram (char-ngrams)
  * @param maxN the longest character n-gram (char-ngrams)
  * @param maxTokens the most features this view may keep, or {@link FeatureConfig#ALL}
+ * @param whitespaceWords char-ngrams only: words run from white space to white space, punctuation
+ *     kept inside them ({@code word_split: whitespace}); else every punctuation mark is a word
  */
 public record TokenizerConfig(
         TokenizerKind kind,
@@ -46,7 +48,8 @@ public record TokenizerConfig(
         int ngrams,
         int minN,
         int maxN,
-        int maxTokens) {
+        int maxTokens,
+        boolean whitespaceWords) {
 
     public static final int DEFAULT_VOCAB_SIZE = 2000;
     public static final int DEFAULT_NGRAMS = 1;
@@ -54,7 +57,11 @@ public record TokenizerConfig(
     public static final int DEFAULT_MAX_N = 4;
     public static final TokenizerConfig DEFAULT = new TokenizerConfig(TokenizerKind.WORDPIECE, DEFAULT_VOCAB_SIZE,
             WordPieceEncoder.DEFAULT_MAX_WORD_CHARS, true, true, true, WordPieceTrainer.Config.DEFAULT_MIN_FREQUENCY,
-            DEFAULT_NGRAMS, DEFAULT_MIN_N, DEFAULT_MAX_N, FeatureConfig.ALL);
+            DEFAULT_NGRAMS, DEFAULT_MIN_N, DEFAULT_MAX_N, FeatureConfig.ALL, false);
+    /** {@code word_split}: words end at white space and at every punctuation mark (the default). */
+    public static final String PUNCTUATION = "punctuation";
+    /** {@code word_split}: words end at white space only. */
+    public static final String WHITESPACE = "whitespace";
 
     public TokenizerConfig {
         Objects.requireNonNull(kind, "tokenizer.kind");
@@ -81,6 +88,9 @@ public record TokenizerConfig(
         if (maxTokens < 1) {
             throw new IllegalArgumentException("tokenizer.max_tokens must be >= 1 or all, was " + maxTokens);
         }
+        if (whitespaceWords && kind != TokenizerKind.CHAR_NGRAMS) {
+            throw new IllegalArgumentException("tokenizer.word_split applies to kind char-ngrams only, not to " + kind.key());
+        }
     }
 
     @JsonCreator
@@ -95,8 +105,17 @@ public record TokenizerConfig(
             @JsonProperty("ngrams") Integer ngrams,
             @JsonProperty("min_n") Integer minN,
             @JsonProperty("max_n") Integer maxN,
-            @JsonProperty("max_tokens") MaxTokens maxTokens) {
+            @JsonProperty("max_tokens") MaxTokens maxTokens,
+            @JsonProperty("word_split") String wordSplit) {
         TokenizerKind resolvedKind = kind == null ? DEFAULT.kind : TokenizerKind.fromKey(kind);
+        if (wordSplit != null && !wordSplit.equals(PUNCTUATION) && !wordSplit.equals(WHITESPACE)) {
+            throw new IllegalArgumentException("tokenizer.word_split must be one of punctuation, whitespace; was \""
+                    + wordSplit + "\"");
+        }
+        if (resolvedKind != TokenizerKind.CHAR_NGRAMS && wordSplit != null) {
+            throw new IllegalArgumentException("tokenizer.word_split applies to kind char-ngrams only, not to "
+                    + resolvedKind.key());
+        }
         if (resolvedKind != TokenizerKind.CHAR_NGRAMS && (minN != null || maxN != null)) {
             throw new IllegalArgumentException("tokenizer." + (minN != null ? "min_n" : "max_n")
                     + " applies to kind char-ngrams only, not to " + resolvedKind.key());
@@ -112,7 +131,8 @@ public record TokenizerConfig(
                 ngrams == null ? DEFAULT_NGRAMS : ngrams,
                 minN == null ? DEFAULT_MIN_N : minN,
                 maxN == null ? DEFAULT_MAX_N : maxN,
-                maxTokens == null ? FeatureConfig.ALL : maxTokens.value());
+                maxTokens == null ? FeatureConfig.ALL : maxTokens.value(),
+                WHITESPACE.equals(wordSplit));
     }
 
     /**
@@ -136,6 +156,7 @@ public record TokenizerConfig(
         if (kind == TokenizerKind.CHAR_NGRAMS) {
             keys.put("min_n", minN);
             keys.put("max_n", maxN);
+            keys.put("word_split", whitespaceWords ? WHITESPACE : PUNCTUATION);
         }
         if (maxTokens != FeatureConfig.ALL) {
             keys.put("max_tokens", maxTokens);
@@ -165,6 +186,6 @@ public record TokenizerConfig(
     /** These settings with another WordPiece vocabulary size. */
     public TokenizerConfig withVocabSize(int newVocabSize) {
         return new TokenizerConfig(kind, newVocabSize, maxWordChars, lowercase, stripAccents, cjk, minFrequency, ngrams,
-                minN, maxN, maxTokens);
+                minN, maxN, maxTokens, whitespaceWords);
     }
 }

@@ -164,6 +164,10 @@ class ViewsTrainingTest {
         assertThatThrownBy(() -> TrainConfig.parse("features: {max_tokens: many}\n", "train.yaml"))
                 .hasMessageStartingWith("train.yaml: line 1: ")
                 .hasMessageContaining("max_tokens must be a whole number >= 1 or all, was \"many\"");
+        assertThatThrownBy(() -> TrainConfig.parse("tokenizer: {kind: words, word_split: whitespace}\n", "train.yaml"))
+                .hasMessage("train.yaml: line 1: tokenizer.word_split applies to kind char-ngrams only, not to words");
+        assertThatThrownBy(() -> TrainConfig.parse(base + "  - {kind: char-ngrams, word_split: spaces}\n", "train.yaml"))
+                .hasMessage("train.yaml: line 3: tokenizer.1.word_split must be one of punctuation, whitespace; was \"spaces\"");
         assertThatThrownBy(() -> TrainConfig.parse("tokenizer: []\n", "train.yaml"))
                 .hasMessageContaining("tokenizer must list 1 to 8 entries, had 0");
     }
