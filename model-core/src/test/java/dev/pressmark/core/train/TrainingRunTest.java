@@ -219,7 +219,10 @@ class TrainingRunTest {
         assertThat(dev.pressmark.core.bundle.Sha256.hex(json)).isEqualTo(MANIFEST_BEFORE_GROUPS);
     }
 
-    /** Listings with a seller column: 40 sellers, a few of them large, each selling one department mostly. */
+    /**
+     * Listings with a seller column: 40 sellers, a few of them large, each selling one department
+     * mostly; a row in every 50 (i % 50 == 7) has an empty seller.
+     */
     private Path listingsWithSellers(int rows, long seed) throws IOException {
         String[] labels = {"plumbing", "electrical", "garden"};
         String[][] words = {{"valve", "pipe", "drain"}, {"switch", "outlet", "breaker"}, {"hose", "rake", "planter"}};
@@ -229,7 +232,9 @@ class TrainingRunTest {
             int seller = random.nextInt(4) == 0 ? random.nextInt(4) : random.nextInt(40);
             int k = random.nextInt(5) == 0 ? random.nextInt(3) : seller % 3;
             String name = i % 50 == 7 ? "" : "s" + seller;
-            csv.append("brand").append(seller).append(' ').append(words[k][random.nextInt(3)]).append(',')
+            // the product word names the department only half the time, so no fold scores perfectly
+            int shown = random.nextBoolean() ? k : random.nextInt(3);
+            csv.append("brand").append(seller).append(' ').append(words[shown][random.nextInt(3)]).append(',')
                     .append(labels[k]).append(',').append(name).append('\n');
         }
         Path file = dir.resolve("listings.csv");
@@ -301,5 +306,30 @@ class TrainingRunTest {
         assertThatThrownBy(() -> run.run(Progress.NONE))
                 .hasMessageStartingWith("evaluation.folds is 5, but label \"garden\" has rows in only ")
                 .hasMessageContaining("of data.group \"seller\"");
+    }
+
+    @Test
+    void a_search_with_a_group_column_scores_its_candidates_on_the_grouped_folds() throws IOException {
+        listingsWithSellers(400, 13);
+        TrainConfig config = config("data: {file: listings.csv, text: [title], label: department, group: seller}",
+                "evaluation: {folds: 3, threads: 2}");
+        LabelledData data = groupedData(config);
+        Path yaml = dir.resolve("search.yaml");
+        Files.writeString(yaml, Files.readString(dir.resolve("train.yaml")) + "search: {grid: {classifier.c: [0.1, 1]}}\n");
+        TrainingRun.Result searched = new TrainingRun(TrainPlan.read(yaml), data).run(Progress.NONE);
+        TrainingRun.Result plain = new TrainingRun(searched.search().chosen(), data).run(Progress.NONE);
+        // the search is given the run's grouped folds: the chosen candidate scores per fold as a
+        // run of its config alone does, and the same rows go to the same places
+        assertThat(searched.cv().get(Metric.ACCURACY).perFold()).isEqualTo(plain.cv().get(Metric.ACCURACY).perFold());
+        assertThat(searched.foldOfRow()).isEqualTo(plain.foldOfRow());
+        assertThat(searched.grouping()).isEqualTo(plain.grouping());
+        Map<String, Integer> placeOfGroup = new java.util.HashMap<>();
+        for (int i = 0; i < data.rows(); i++) {
+            String group = data.groups().get(i);
+            if (!group.isEmpty()) {
+                Integer before = placeOfGroup.putIfAbsent(group, searched.foldOfRow()[i]);
+                assertThat(before == null || before == searched.foldOfRow()[i]).as("group %s", group).isTrue();
+            }
+        }
     }
 }
