@@ -78,6 +78,17 @@ public final class ListingTitles {
         return List.of(BRAND_ROOTS[departments().indexOf(department)]);
     }
 
+    /** The products only {@code department} sells. */
+    static List<String> products(String department) {
+        String[] row = DEPARTMENTS[departments().indexOf(department)];
+        return List.of(row).subList(1, row.length);
+    }
+
+    /** The products every department sells. */
+    static List<String> genericProducts() {
+        return List.of(GENERIC);
+    }
+
     /** Every product name as written without a slip, the ones all departments sell included. */
     static List<String> productNames() {
         List<String> names = new ArrayList<>(List.of(GENERIC));

@@ -44,13 +44,17 @@ final class TrainCommand implements Callable<Integer> {
             + "columns as the data) instead of holding out split.test_fraction; every data row then trains.")
     Path testData;
 
+    @Option(names = "--assignments", paramLabel = "FILE", description = "Also write where every data row went: a CSV with "
+            + "columns row (1-based data row number), part (train or test) and fold (1..k in the first repeat, empty for test rows).")
+    Path assignments;
+
     @Override
     public Integer call() throws IOException {
         TrainPlan plan = TrainPlan.read(config);
         TrainConfig trainConfig = plan.config();
         Path dataFile = Path.of(trainConfig.data().file());
         LabelledData data = LabelledData.read(dataFile, trainConfig.data().text(), trainConfig.data().label(),
-                trainConfig.data().dropIncomplete());
+                trainConfig.data().group(), trainConfig.data().dropIncomplete());
         System.err.printf(Locale.ROOT, "pressmark: %s: %,d rows%s%n", dataFile, data.rows(),
                 data.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", data.droppedRows()) : "");
         TrainingRun run = testData == null ? new TrainingRun(plan, data) : withTestData(plan, data);
@@ -64,12 +68,16 @@ final class TrainCommand implements Callable<Integer> {
         String html = HtmlReport.render(Bundle.read(bundle));
         AtomicFiles.write(target, stream -> stream.write(bundle));
         AtomicFiles.write(report, stream -> stream.write(html.getBytes(StandardCharsets.UTF_8)));
+        if (assignments != null) {
+            AtomicFiles.write(assignments, stream -> stream.write(
+                    AssignmentsCsv.render(data.rowNumbers(), result.foldOfRow()).getBytes(StandardCharsets.UTF_8)));
+        }
         if (result.search() != null) {
             System.out.print(SearchTable.render(result.search().summary()));
             System.out.println();
         }
         printSummary(result);
-        System.err.println("pressmark: wrote " + target + " and " + report);
+        System.err.println("pressmark: wrote " + target + " and " + report + (assignments == null ? "" : " and " + assignments));
         return Main.EXIT_OK;
     }
 

@@ -151,4 +151,82 @@ class TrainCommandTest {
         assertThat(run.exitCode()).isEqualTo(1);
         assertThat(run.err()).startsWith("pressmark: ").doesNotContain("Exception");
     }
+
+    /** The listings with a seller column (97 sellers) and one incomplete row, data row 6, left out. */
+    private void writeGroupedDataAndConfig() throws IOException {
+        StringBuilder csv = new StringBuilder("title,department,seller\n");
+        int i = 0;
+        for (ListingTitles.Listing listing : ListingTitles.generate(1200, 3)) {
+            if (i == 5) {
+                csv.append("\"Aquaward valve\",,s5\n");
+            }
+            csv.append('"').append(listing.title().replace("\"", "\"\"")).append("\",").append(listing.department())
+                    .append(",s").append(i++ % 97).append('\n');
+        }
+        Files.writeString(dir.resolve("sellers.csv"), csv);
+        Files.writeString(dir.resolve("grouped.yaml"), """
+                name: routing
+                data: {file: sellers.csv, text: [title], label: department, group: seller, drop_incomplete: true}
+                tokenizer: {vocab_size: 400}
+                evaluation: {folds: 3, threads: 2}
+                """);
+    }
+
+    @Test
+    void assignments_list_every_data_row_with_its_part_and_fold_and_no_seller_is_split() throws IOException {
+        writeGroupedDataAndConfig();
+        CommandRun run = CommandRun.run(dir, "train", "--config", "grouped.yaml", "--out", "g.pmb", "--assignments", "rows.csv");
+        assertThat(run.exitCode()).as(run.err()).isZero();
+        java.util.List<String> lines = Files.readAllLines(dir.resolve("rows.csv"));
+        assertThat(lines.get(0)).isEqualTo("row,part,fold");
+        assertThat(lines).hasSize(1201);
+        java.util.Map<String, String> placeOfSeller = new java.util.HashMap<>();
+        int test = 0;
+        for (int row = 1; row <= 1200; row++) {
+            String[] fields = lines.get(row).split(",", -1);
+            // data row 6 was the incomplete one: the numbers skip it
+            assertThat(Integer.parseInt(fields[0])).isEqualTo(row < 6 ? row : row + 1);
+            assertThat(fields[1] + "," + fields[2]).matches("train,[1-3]|test,");
+            test += fields[1].equals("test") ? 1 : 0;
+            String place = fields[1] + fields[2];
+            String before = placeOfSeller.putIfAbsent("s" + ((row - 1) % 97), place);
+            assertThat(before == null || before.equals(place)).as("seller s%d: %s and %s", (row - 1) % 97, before, place).isTrue();
+        }
+        JsonNode manifest = JSON.readTree(CommandRun.run(dir, "inspect", "g.pmb", "--json").out());
+        assertThat(manifest.path("training").path("test_rows").asInt()).isEqualTo(test);
+        assertThat(manifest.path("training").path("groups").asInt()).isEqualTo(97);
+        assertThat(manifest.path("training").path("test_fraction_achieved").asDouble()).isEqualTo(test / 1200.0);
+        try (var files = Files.list(dir)) {
+            assertThat(files.map(p -> p.getFileName().toString())).noneMatch(name -> name.endsWith(".tmp"));
+        }
+    }
+
+    @Test
+    void with_test_data_the_assignments_put_every_data_row_in_training() throws IOException {
+        Files.writeString(dir.resolve("held-out.csv"), "title,department\nAquaward valve,plumbing\nVoltline switch,electrical\n");
+        CommandRun run = CommandRun.run(dir, "train", "--config", "train.yaml", "--test-data", "held-out.csv", "--out", "t.pmb",
+                "--assignments", "rows.csv");
+        assertThat(run.exitCode()).as(run.err()).isZero();
+        java.util.List<String> lines = Files.readAllLines(dir.resolve("rows.csv"));
+        assertThat(lines).hasSize(1201);
+        assertThat(lines.subList(1, lines.size())).allMatch(line -> line.matches("[0-9]+,train,[1-3]"));
+        assertThat(lines.get(1200)).startsWith("1200,");
+    }
+
+    @Test
+    void a_missing_group_column_is_refused_naming_it_and_the_columns_and_the_old_assignments_stay() throws IOException {
+        Files.writeString(dir.resolve("grouped.yaml"), """
+                name: routing
+                data: {file: listings.csv, text: [title], label: department, group: seller}
+                """);
+        Files.writeString(dir.resolve("rows.csv"), "row,part,fold\n1,train,1\n");
+        CommandRun run = CommandRun.run(dir, "train", "--config", "grouped.yaml", "--assignments", "rows.csv");
+        assertThat(run.exitCode()).isEqualTo(1);
+        assertThat(run.err()).contains("listings.csv: line 1: no column \"seller\"; the header has \"title\", \"department\"");
+        assertThat(Files.readString(dir.resolve("rows.csv"))).isEqualTo("row,part,fold\n1,train,1\n");
+        assertThat(dir.resolve("routing.pmb")).doesNotExist();
+        try (var files = Files.list(dir)) {
+            assertThat(files.map(p -> p.getFileName().toString())).noneMatch(name -> name.endsWith(".tmp"));
+        }
+    }
 }

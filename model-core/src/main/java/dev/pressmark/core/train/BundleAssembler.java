@@ -61,6 +61,13 @@ public final class BundleAssembler {
         training.put("dropped_rows", data.droppedRows());
         training.put("train_rows", result.trainRows().length);
         training.put("test_rows", result.testRows().length);
+        if (result.grouping() != null) {
+            // only with data.group, so that a config without it writes the manifest it always did
+            training.put("groups", result.grouping().groups());
+            if (!Double.isNaN(result.grouping().testFractionAchieved())) {
+                training.put("test_fraction_achieved", result.grouping().testFractionAchieved());
+            }
+        }
         training.put("features", result.pipeline().features().featureCount());
         training.put("vocabulary_size", result.pipeline().vocabularySize());
         ArrayNode warnings = training.putArray("warnings");
@@ -80,7 +87,7 @@ public final class BundleAssembler {
     /** The resolved config as the manifest records it, the data file by name only. */
     static JsonNode configJson(TrainConfig config) {
         ObjectNode node = JSON.valueToTree(config.withData(new DataConfig(fileName(config), config.data().text(),
-                config.data().label(), config.data().positive(), config.data().dropIncomplete())));
+                config.data().label(), config.data().positive(), config.data().dropIncomplete(), config.data().group())));
         ObjectNode features = node.putObject("features");
         FeatureConfig settings = config.features();
         if (settings.maxTokens() == FeatureConfig.ALL) {

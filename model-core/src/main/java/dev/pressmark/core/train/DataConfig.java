@@ -1,6 +1,7 @@
 package dev.pressmark.core.train;
 
 import com.fasterxml.jackson.annotation.JsonCreator;
+import com.fasterxml.jackson.annotation.JsonInclude;
 import com.fasterxml.jackson.annotation.JsonProperty;
 import com.fasterxml.jackson.annotation.JsonPropertyOrder;
 import java.nio.file.Path;
@@ -16,19 +17,28 @@ import java.util.Objects;
  * @param label the label column
  * @param positive the positive class for binary metrics, or null for the second label in sorted order
  * @param dropIncomplete leave out rows without label or text instead of failing on the first
+ * @param group the column whose equal values make rows one group (kept on one side of the split and
+ *     in one fold), or null for rows that are independent; a row whose group value is empty is a
+ *     group of its own
  */
-@JsonPropertyOrder({"file", "text", "label", "positive", "drop_incomplete"})
+@JsonPropertyOrder({"file", "text", "label", "positive", "drop_incomplete", "group"})
 public record DataConfig(
         @JsonProperty("file") String file,
         @JsonProperty("text") List<String> text,
         @JsonProperty("label") String label,
         @JsonProperty("positive") String positive,
-        @JsonProperty("drop_incomplete") boolean dropIncomplete) {
+        @JsonProperty("drop_incomplete") boolean dropIncomplete,
+        @JsonProperty("group") @JsonInclude(JsonInclude.Include.NON_NULL) String group) {
 
     public static final String DEFAULT_FILE = "data.csv";
     public static final List<String> DEFAULT_TEXT = List.of("text");
     public static final String DEFAULT_LABEL = "label";
     public static final DataConfig DEFAULT = new DataConfig(DEFAULT_FILE, DEFAULT_TEXT, DEFAULT_LABEL, null, false);
+
+    /** A config whose rows are independent (no {@code group}). */
+    public DataConfig(String file, List<String> text, String label, String positive, boolean dropIncomplete) {
+        this(file, text, label, positive, dropIncomplete, null);
+    }
 
     public DataConfig {
         Objects.requireNonNull(file, "data.file");
@@ -51,6 +61,12 @@ public record DataConfig(
         if (text.contains(label)) {
             throw new IllegalArgumentException("data.label \"" + label + "\" must not also be a text column");
         }
+        if (group != null && group.isBlank()) {
+            throw new IllegalArgumentException("data.group must name a column, was empty");
+        }
+        if (label.equals(group)) {
+            throw new IllegalArgumentException("data.group \"" + group + "\" must not be the label column");
+        }
     }
 
     @JsonCreator
@@ -59,13 +75,15 @@ public record DataConfig(
             @JsonProperty("text") List<String> text,
             @JsonProperty("label") String label,
             @JsonProperty("positive") String positive,
-            @JsonProperty("drop_incomplete") Boolean dropIncomplete) {
+            @JsonProperty("drop_incomplete") Boolean dropIncomplete,
+            @JsonProperty("group") String group) {
         return new DataConfig(
                 file == null ? DEFAULT_FILE : file,
                 text == null ? DEFAULT_TEXT : text,
                 label == null ? DEFAULT_LABEL : label,
                 positive,
-                dropIncomplete != null && dropIncomplete);
+                dropIncomplete != null && dropIncomplete,
+                group);
     }
 
     /** The file as a path, resolved against {@code base} when relative. */
@@ -75,6 +93,6 @@ public record DataConfig(
     }
 
     DataConfig resolvedAgainst(Path base) {
-        return new DataConfig(path(base).toString(), text, label, positive, dropIncomplete);
+        return new DataConfig(path(base).toString(), text, label, positive, dropIncomplete, group);
     }
 }

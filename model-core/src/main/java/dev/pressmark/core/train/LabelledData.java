@@ -36,6 +36,10 @@ import java.util.Objects;
  * @param lines per row, the line of the file on which the row starts
  * @param sha256 the SHA-256 of the file's bytes, its fingerprint
  * @param droppedRows how many incomplete rows were left out
+ * @param groups per row, the stripped value of the group column, or null when no group column was
+ *     read; an empty value means the row is a group of its own
+ * @param rowNumbers per row, its 1-based number among the file's data rows (header excluded,
+ *     incomplete rows that were left out counted)
  */
 public record LabelledData(
         List<String> textColumns,
@@ -44,7 +48,9 @@ public record LabelledData(
         List<String> labels,
         int[] lines,
         String sha256,
-        int droppedRows) {
+        int droppedRows,
+        List<String> groups,
+        int[] rowNumbers) {
 
     /**
      * The longest field read: 8 Mi characters, far beyond a short text and below the parser's own
@@ -67,6 +73,39 @@ public record LabelledData(
             throw new IllegalArgumentException("texts, labels and lines must have one entry per row, were "
                     + texts.size() + ", " + labels.size() + " and " + lines.length);
         }
+        groups = groups == null ? null : List.copyOf(groups);
+        if (groups != null && groups.size() != labels.size()) {
+            throw new IllegalArgumentException("groups must have one entry per row (" + labels.size() + "), had " + groups.size());
+        }
+        rowNumbers = rowNumbers == null ? ordinals(labels.size()) : rowNumbers.clone();
+        if (rowNumbers.length != labels.size()) {
+            throw new IllegalArgumentException("rowNumbers must have one entry per row (" + labels.size() + "), had "
+                    + rowNumbers.length);
+        }
+    }
+
+    /** Rows without groups, numbered 1, 2, ... in order. */
+    public LabelledData(List<String> textColumns, String labelColumn, List<String[]> texts, List<String> labels, int[] lines,
+                        String sha256, int droppedRows) {
+        this(textColumns, labelColumn, texts, labels, lines, sha256, droppedRows, null, null);
+    }
+
+    private static int[] ordinals(int count) {
+        int[] out = new int[count];
+        for (int i = 0; i < count; i++) {
+            out[i] = i + 1;
+        }
+        return out;
+    }
+
+    /** Whether a group column was read. */
+    public boolean hasGroups() {
+        return groups != null;
+    }
+
+    @Override
+    public int[] rowNumbers() {
+        return rowNumbers.clone();
     }
 
     public int rows() {
@@ -76,7 +115,9 @@ public record LabelledData(
     /**
      * These rows followed by {@code more}'s, which must have the same text and label columns; used
      * to train on one file and test on another. The fingerprint becomes the SHA-256 of the two
-     * files' fingerprints (hex, this one's first); the line numbers stay those of each file.
+     * files' fingerprints (hex, this one's first); the line and row numbers stay those of each
+     * file. When these rows have groups and {@code more}'s do not, each of its rows is a group of
+     * its own.
      */
     public LabelledData followedBy(LabelledData more) {
         if (!textColumns.equals(more.textColumns) || !Objects.equals(labelColumn, more.labelColumn)) {
@@ -90,17 +131,34 @@ public record LabelledData(
         int[] allLines = Arrays.copyOf(lines, lines.length + more.lines.length);
         System.arraycopy(more.lines, 0, allLines, lines.length, more.lines.length);
         String fingerprint = Sha256.hex((sha256 + more.sha256).getBytes(StandardCharsets.US_ASCII));
+        List<String> allGroups = null;
+        if (groups != null) {
+            // rows of more read without the group column are groups of their own, as empty values are
+            allGroups = new ArrayList<>(groups);
+            allGroups.addAll(more.groups != null ? more.groups : java.util.Collections.nCopies(more.rows(), ""));
+        }
+        int[] allNumbers = Arrays.copyOf(rowNumbers, rowNumbers.length + more.rowNumbers.length);
+        System.arraycopy(more.rowNumbers, 0, allNumbers, rowNumbers.length, more.rowNumbers.length);
         return new LabelledData(textColumns, labelColumn, allTexts, allLabels, allLines, fingerprint,
-                droppedRows + more.droppedRows);
+                droppedRows + more.droppedRows, allGroups, allNumbers);
     }
 
     /** Reads the text columns of {@code file} without labels, for prediction; every row is kept. */
     public static LabelledData readTexts(Path file, List<String> textColumns) {
-        return read(file, textColumns, null, false);
+        return read(file, textColumns, null, null, false);
     }
 
-    /** Reads {@code file}; errors name the file, and the line where one is at fault. */
+    /** Reads {@code file} without a group column; errors name the file, and the line where one is at fault. */
     public static LabelledData read(Path file, List<String> textColumns, String labelColumn, boolean dropIncomplete) {
+        return read(file, textColumns, labelColumn, null, dropIncomplete);
+    }
+
+    /**
+     * Reads {@code file}, and the value of {@code groupColumn} (unless null) in every row; errors
+     * name the file, and the line where one is at fault.
+     */
+    public static LabelledData read(Path file, List<String> textColumns, String labelColumn, String groupColumn,
+                                    boolean dropIncomplete) {
         byte[] bytes;
         try {
             bytes = Files.readAllBytes(file);
@@ -112,7 +170,7 @@ public record LabelledData(
         String text = StrictUtf8.decode(bytes, file.toString());
         FieldStart start = new FieldStart(text);
         try (JsonParser parser = CSV.createParser(new StringReader(text))) {
-            return parse(parser, start, file, textColumns, labelColumn, dropIncomplete, Sha256.hex(bytes));
+            return parse(parser, start, file, new Columns(textColumns, labelColumn, groupColumn), dropIncomplete, Sha256.hex(bytes));
         } catch (StreamConstraintsException e) {
             throw new PressmarkException("invalid-csv", String.format("%s: line %d: a field longer than %,d characters, the limit on one field"
                     + " (an unclosed quote makes the rest of the file one field)", file, start.line(), MAX_FIELD_CHARS), e);
@@ -125,8 +183,14 @@ public record LabelledData(
         }
     }
 
-    private static LabelledData parse(JsonParser parser, FieldStart start, Path file, List<String> textColumns, String labelColumn,
+    /** The columns to read: text columns, and the label and group columns (each null when not read). */
+    private record Columns(List<String> text, String label, String group) {
+    }
+
+    private static LabelledData parse(JsonParser parser, FieldStart start, Path file, Columns columns,
                                       boolean dropIncomplete, String sha256) throws IOException {
+        List<String> textColumns = columns.text();
+        String labelColumn = columns.label();
         List<String> fields = new ArrayList<>();
         int line = nextRow(parser, start, fields);
         if (line < 0) {
@@ -138,12 +202,17 @@ public record LabelledData(
             textIndex[i] = column(header, textColumns.get(i), file);
         }
         int labelIndex = labelColumn == null ? -1 : column(header, labelColumn, file);
+        int groupIndex = columns.group() == null ? -1 : column(header, columns.group(), file);
+        List<String> groups = groupIndex < 0 ? null : new ArrayList<>();
+        int[] rowNumbers = new int[64];
+        int rowNumber = 0;
 
         List<String[]> texts = new ArrayList<>();
         List<String> labels = new ArrayList<>();
         int[] lines = new int[64];
         int dropped = 0;
         while ((line = nextRow(parser, start, fields)) >= 0) {
+            rowNumber++;
             if (fields.size() != header.size()) {
                 throw new PressmarkException("invalid-csv", file + ": line " + line + ": " + fields.size()
                         + " fields, but the header has " + header.size());
@@ -166,8 +235,13 @@ public record LabelledData(
             }
             if (labels.size() == lines.length) {
                 lines = Arrays.copyOf(lines, lines.length * 2);
+                rowNumbers = Arrays.copyOf(rowNumbers, rowNumbers.length * 2);
             }
             lines[labels.size()] = line;
+            rowNumbers[labels.size()] = rowNumber;
+            if (groups != null) {
+                groups.add(fields.get(groupIndex).strip());
+            }
             texts.add(row);
             labels.add(label);
         }
@@ -175,7 +249,8 @@ public record LabelledData(
             throw new PressmarkException("empty-data", file + ": no complete data rows"
                     + (dropped > 0 ? " (" + dropped + " incomplete rows left out)" : ""));
         }
-        return new LabelledData(textColumns, labelColumn, texts, labels, Arrays.copyOf(lines, labels.size()), sha256, dropped);
+        return new LabelledData(textColumns, labelColumn, texts, labels, Arrays.copyOf(lines, labels.size()), sha256, dropped,
+                groups, Arrays.copyOf(rowNumbers, labels.size()));
     }
 
     /** Reads the next row into {@code fields}; returns the line it starts on, or -1 at the end. */

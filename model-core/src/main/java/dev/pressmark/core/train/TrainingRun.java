@@ -13,13 +13,19 @@ import dev.pressmark.core.classify.WarmStart;
 import dev.pressmark.core.evaluate.Evaluation;
 import dev.pressmark.core.evaluate.Fold;
 import dev.pressmark.core.evaluate.FoldSummary;
+import dev.pressmark.core.evaluate.GroupedFolds;
+import dev.pressmark.core.evaluate.GroupedSplit;
 import dev.pressmark.core.evaluate.MetricValues;
+import dev.pressmark.core.evaluate.OversizedGroup;
 import dev.pressmark.core.evaluate.Resampling;
+import dev.pressmark.core.evaluate.RowAssignments;
 import dev.pressmark.core.evaluate.Split;
+import dev.pressmark.core.evaluate.TooFewGroupsException;
 import dev.pressmark.core.feature.SparseMatrix;
 import dev.pressmark.core.search.SearchSummary;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Locale;
 import java.util.Optional;
 import java.util.SplittableRandom;
 import java.util.TreeSet;
@@ -31,8 +37,9 @@ import java.util.concurrent.atomic.AtomicInteger;
  * One training run, from labelled rows to a fitted model with honest estimates of its quality:
  *
  * <ol>
- *   <li>hold out the test part (stratified by default);
- *   <li>cross-validate on the training part only: in every fold the whole preprocessing and the
+ *   <li>hold out the test part (stratified by default; with {@code data.group}, whole groups, as
+ *       {@link Resampling#groupedStratifiedSplit} places them);
+ *   <li>cross-validate on the training part only (in grouped folds with {@code data.group}): in every fold the whole preprocessing and the
  *       classifier are fitted on the fold's training rows and scored on its held-out rows;
  *   <li>fit Platt sigmoids, when asked, on the out-of-fold decision values of the first repeat;
  *   <li>fit the final model on the whole training part and score the test part, once.
@@ -54,8 +61,12 @@ public final class TrainingRun {
      * @param test the metrics on the held-out test part
      * @param trainRows the rows of the training part, as indices into the data
      * @param testRows the rows of the test part
-     * @param warnings solver warnings, for example an iteration cap that was hit
+     * @param warnings solver warnings, for example an iteration cap that was hit, and groups too
+     *     large for the part they went to
      * @param search what the search found, or null when the config has no search
+     * @param grouping the groups' figures when {@code data.group} is set, else null
+     * @param foldOfRow per data row, the fold (from 0) of the first repeat that held it out, or
+     *     {@link RowAssignments#TEST} for a test row
      */
     public record Result(
             List<String> labels,
@@ -67,7 +78,18 @@ public final class TrainingRun {
             int[] trainRows,
             int[] testRows,
             List<String> warnings,
-            Searched search) {
+            Searched search,
+            Grouping grouping,
+            int[] foldOfRow) {
+    }
+
+    /**
+     * What grouping did.
+     *
+     * @param groups the distinct groups among the data rows (each empty group value counts as one)
+     * @param testFractionAchieved the test part's share of the rows, or NaN when a test file was given
+     */
+    public record Grouping(int groups, double testFractionAchieved) {
     }
 
     /**
@@ -88,6 +110,8 @@ public final class TrainingRun {
     private final PipelineFitter fitter;
     /** The train/test split given by the caller, or null to hold out a part as {@code config.split()} says. */
     private final Split fixedSplit;
+    /** The rows' groups when {@code data.group} is set, else null. */
+    private final RowGroups groups;
 
     public TrainingRun(TrainConfig config, LabelledData data) {
         this(TrainPlan.of(config), data);
@@ -131,6 +155,17 @@ public final class TrainingRun {
         this.positiveClass = positiveClass(config.data().positive(), labels);
         requireTextInEveryColumn(data);
         this.fitter = new PipelineFitter(config.tokenizers(), config.features(), config.data().text());
+        this.groups = rowGroups(config.data().group(), data);
+    }
+
+    private static RowGroups rowGroups(String column, LabelledData data) {
+        if (column == null) {
+            return null;
+        }
+        if (!data.hasGroups()) {
+            throw new IllegalArgumentException("data.group is \"" + column + "\", but the data was read without that column");
+        }
+        return RowGroups.of(data.groups(), data.rowNumbers());
     }
 
     private static void requireTextInEveryColumn(LabelledData data) {
@@ -188,27 +223,71 @@ public final class TrainingRun {
     /** Runs everything; progress goes to {@code progress}. */
     public Result run(Progress progress) {
         long seed = config.split().seed();
-        Split split = fixedSplit != null ? fixedSplit : split(seed);
+        List<String> warnings = new ArrayList<>();
+        Split split;
+        Grouping grouping = null;
+        if (fixedSplit != null) {
+            split = fixedSplit;
+            grouping = groups == null ? null : new Grouping(groups.count(), Double.NaN);
+        } else if (groups != null) {
+            GroupedSplit grouped = Resampling.groupedStratifiedSplit(y, groups.ids(), labels.size(),
+                    config.split().testFraction(), seed);
+            split = grouped.split();
+            grouping = new Grouping(groups.count(), grouped.achievedTestFraction());
+            for (OversizedGroup group : grouped.oversized()) {
+                warnings.add(String.format(Locale.ROOT, "split: group \"%s\" has %d rows, more than the test part's %d;"
+                        + " it stays in the training part", groups.name(group.group()), group.rows(), group.limit()));
+            }
+        } else {
+            split = split(seed);
+        }
         int[] trainRows = split.train();
         int[] trainLabels = select(y, trainRows);
         requireEnoughRowsForFolds(trainLabels);
-        List<Fold> folds = Resampling.stratifiedKFold(trainLabels, labels.size(), config.evaluation().folds(),
-                config.evaluation().repeats(), seed);
+        List<Fold> folds = groups == null
+                ? Resampling.stratifiedKFold(trainLabels, labels.size(), config.evaluation().folds(), config.evaluation().repeats(), seed)
+                : groupedFolds(trainRows, trainLabels, seed, warnings);
+        Resampled resampled = new Resampled(split, folds, grouping, warnings);
         if (search != null) {
             SearchRun.Outcome outcome = new SearchRun(this, search, config.evaluation(), trainRows, trainLabels, folds).run(progress);
             TrainConfig chosen = search.configs().get(outcome.summary().chosen());
-            return new TrainingRun(chosen, data).finish(split, trainLabels, outcome.chosenFolds(), progress,
-                    new Searched(outcome.summary(), chosen));
+            return new TrainingRun(TrainPlan.of(chosen), data, fixedSplit).finish(resampled, trainLabels, outcome.chosenFolds(),
+                    progress, new Searched(outcome.summary(), chosen));
         }
-        return finish(split, trainLabels, crossValidate(trainRows, trainLabels, folds, progress), progress, null);
+        return finish(resampled, trainLabels, crossValidate(trainRows, trainLabels, folds, progress), progress, null);
+    }
+
+    /** The split and folds a run made, with what grouping did and the warnings it gave. */
+    private record Resampled(Split split, List<Fold> folds, Grouping grouping, List<String> warnings) {
+    }
+
+    /** Grouped folds over the training part; a label in fewer groups than folds is an error naming it. */
+    private List<Fold> groupedFolds(int[] trainRows, int[] trainLabels, long seed, List<String> warnings) {
+        int folds = config.evaluation().folds();
+        GroupedFolds grouped;
+        try {
+            grouped = Resampling.groupedStratifiedKFold(trainLabels, select(groups.ids(), trainRows), labels.size(), folds,
+                    config.evaluation().repeats(), seed);
+        } catch (TooFewGroupsException e) {
+            throw new PressmarkException(e.code(), "evaluation.folds is " + folds + ", but label \"" + labels.get(e.classIndex())
+                    + "\" has rows in only " + e.groups() + " group" + (e.groups() == 1 ? "" : "s") + " of data.group \""
+                    + config.data().group() + "\" in the training part; lower evaluation.folds (at most "
+                    + Math.max(2, e.groups()) + ") or add groups", e);
+        }
+        for (OversizedGroup group : grouped.oversized()) {
+            warnings.add(String.format(Locale.ROOT, "folds: group \"%s\" has %d rows, more than a fold's share of %d;"
+                    + " its fold is larger than the others", groups.name(group.group()), group.rows(), group.limit()));
+        }
+        return grouped.folds();
     }
 
     /** Platt sigmoids from the folds, the final model on the whole training part, and the test part scored once. */
-    private Result finish(Split split, int[] trainLabels, List<FoldResult> results, Progress progress, Searched searched) {
+    private Result finish(Resampled resampled, int[] trainLabels, List<FoldResult> results, Progress progress, Searched searched) {
         long seed = config.split().seed();
+        Split split = resampled.split();
         int[] trainRows = split.train();
         List<MetricValues> foldMetrics = new ArrayList<>();
-        List<String> warnings = new ArrayList<>();
+        List<String> warnings = new ArrayList<>(resampled.warnings());
         for (FoldResult result : results) {
             foldMetrics.add(result.evaluation.overall());
             result.warning.ifPresent(w -> warnings.add("fold " + (result.fold.index() + 1) + ": " + w));
@@ -230,7 +309,8 @@ public final class TrainingRun {
         progress.finish();
         warnings.forEach(progress::note);
         return new Result(labels, positiveClass, fitted.pipeline(), model, FoldSummary.of(foldMetrics), test,
-                trainRows, split.test(), warnings, searched);
+                trainRows, split.test(), warnings, searched, resampled.grouping(),
+                RowAssignments.foldOfRow(data.rows(), split, resampled.folds()));
     }
 
     private Split split(long seed) {

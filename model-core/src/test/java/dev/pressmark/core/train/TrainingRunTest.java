@@ -197,4 +197,139 @@ class TrainingRunTest {
                 .hasMessageStartingWith("evaluation.folds is 4, but label \"e\" has only ");
     }
 
+
+    /**
+     * The SHA-256 of a group-less bundle's manifest without the fields that name this machine
+     * (provenance java, os, library), as commit b0cf69d wrote it before {@code data.group} existed:
+     * a config without the key must keep giving the same split, folds, metrics and manifest.
+     */
+    private static final String MANIFEST_BEFORE_GROUPS = "f867ce156bc60c3ad7e5a28144f74e5c1d29bbdcf65e69da276866da9be2f86b";
+
+    @Test
+    void a_config_without_group_writes_the_manifest_it_wrote_before_groups_existed() throws IOException {
+        listings(300, 5);
+        TrainConfig config = config();
+        LabelledData data = data(config);
+        byte[] bundle = BundleAssembler.assemble(config, data, new TrainingRun(config, data).run(Progress.NONE), CREATED);
+        com.fasterxml.jackson.databind.node.ObjectNode manifest = Bundle.read(bundle).manifest().deepCopy();
+        ((com.fasterxml.jackson.databind.node.ObjectNode) manifest.get("provenance")).remove(java.util.List.of("java", "os", "library"));
+        byte[] json = new com.fasterxml.jackson.databind.ObjectMapper().writeValueAsBytes(manifest);
+        assertThat(manifest.path("training").has("groups")).isFalse();
+        assertThat(manifest.path("provenance").path("config").path("data").has("group")).isFalse();
+        assertThat(dev.pressmark.core.bundle.Sha256.hex(json)).isEqualTo(MANIFEST_BEFORE_GROUPS);
+    }
+
+    /**
+     * Listings with a seller column: 40 sellers, a few of them large, each selling one department
+     * mostly; a row in every 50 (i % 50 == 7) has an empty seller.
+     */
+    private Path listingsWithSellers(int rows, long seed) throws IOException {
+        String[] labels = {"plumbing", "electrical", "garden"};
+        String[][] words = {{"valve", "pipe", "drain"}, {"switch", "outlet", "breaker"}, {"hose", "rake", "planter"}};
+        SplittableRandom random = new SplittableRandom(seed);
+        StringBuilder csv = new StringBuilder("title,department,seller\n");
+        for (int i = 0; i < rows; i++) {
+            int seller = random.nextInt(4) == 0 ? random.nextInt(4) : random.nextInt(40);
+            int k = random.nextInt(5) == 0 ? random.nextInt(3) : seller % 3;
+            String name = i % 50 == 7 ? "" : "s" + seller;
+            // the product word names the department only half the time, so no fold scores perfectly
+            int shown = random.nextBoolean() ? k : random.nextInt(3);
+            csv.append("brand").append(seller).append(' ').append(words[shown][random.nextInt(3)]).append(',')
+                    .append(labels[k]).append(',').append(name).append('\n');
+        }
+        Path file = dir.resolve("listings.csv");
+        Files.writeString(file, csv);
+        return file;
+    }
+
+    private static LabelledData groupedData(TrainConfig config) {
+        return LabelledData.read(Path.of(config.data().file()), config.data().text(), config.data().label(),
+                config.data().group(), false);
+    }
+
+    @Test
+    void with_a_group_column_no_group_has_rows_in_both_parts_or_in_two_folds() throws IOException {
+        listingsWithSellers(500, 11);
+        TrainConfig config = config("data: {file: listings.csv, text: [title], label: department, group: seller}",
+                "evaluation: {folds: 4, repeats: 2, threads: 2}");
+        LabelledData data = groupedData(config);
+        TrainingRun.Result result = new TrainingRun(config, data).run(Progress.NONE);
+
+        int[] foldOfRow = result.foldOfRow();
+        Map<String, Integer> placeOfGroup = new java.util.HashMap<>();
+        int testRows = 0;
+        for (int i = 0; i < data.rows(); i++) {
+            String group = data.groups().get(i);
+            testRows += foldOfRow[i] == dev.pressmark.core.evaluate.RowAssignments.TEST ? 1 : 0;
+            if (group.isEmpty()) {
+                continue;
+            }
+            Integer before = placeOfGroup.putIfAbsent(group, foldOfRow[i]);
+            assertThat(before == null || before == foldOfRow[i]).as("group %s: fold %s and %s", group, before, foldOfRow[i]).isTrue();
+        }
+        assertThat(testRows).isEqualTo(result.testRows().length).isPositive();
+        // 40 named sellers, and every tenth-and-a-bit row (i % 50 == 7: 10 rows) a group of its own
+        assertThat(result.grouping().groups()).isEqualTo(placeOfGroup.size() + 10);
+        assertThat(result.grouping().testFractionAchieved()).isEqualTo((double) testRows / data.rows());
+
+        com.fasterxml.jackson.databind.JsonNode manifest = Bundle.read(BundleAssembler.assemble(config, data, result, CREATED)).manifest();
+        assertThat(manifest.path("training").path("groups").asInt()).isEqualTo(result.grouping().groups());
+        assertThat(manifest.path("training").path("test_fraction_achieved").asDouble()).isEqualTo(result.grouping().testFractionAchieved());
+        assertThat(manifest.path("provenance").path("config").path("data").path("group").asText()).isEqualTo("seller");
+    }
+
+    @Test
+    void a_group_larger_than_the_test_part_is_named_in_a_warning() throws IOException {
+        listingsWithSellers(300, 3);
+        Files.writeString(dir.resolve("listings.csv"), Files.readString(dir.resolve("listings.csv"))
+                + "brandx valve,plumbing,giant\n".repeat(120));
+        TrainConfig config = config("data: {file: listings.csv, text: [title], label: department, group: seller}");
+        TrainingRun.Result result = new TrainingRun(config, groupedData(config)).run(Progress.NONE);
+        // 420 rows: the test part holds round(0.25 * 420) = 105, a fold of the 315 training rows 79
+        assertThat(result.warnings()).contains(
+                "split: group \"giant\" has 120 rows, more than the test part's 105; it stays in the training part",
+                "folds: group \"giant\" has 120 rows, more than a fold's share of 79; its fold is larger than the others");
+    }
+
+    @Test
+    void a_label_in_fewer_groups_than_folds_is_refused_naming_the_label_and_the_fold_count() throws IOException {
+        StringBuilder csv = new StringBuilder("title,department,seller\n");
+        for (int i = 0; i < 120; i++) {
+            boolean rare = i % 4 == 0;
+            csv.append(rare ? "fern hose " : "volt switch ").append(i).append(',').append(rare ? "garden" : "electrical").append(',')
+                    .append(rare ? "g" + (i % 3) : "e" + (i % 20)).append('\n');
+        }
+        Files.writeString(dir.resolve("listings.csv"), csv);
+        TrainConfig config = config("data: {file: listings.csv, text: [title], label: department, group: seller}",
+                "evaluation: {folds: 5}");
+        TrainingRun run = new TrainingRun(config, groupedData(config));
+        assertThatThrownBy(() -> run.run(Progress.NONE))
+                .hasMessageStartingWith("evaluation.folds is 5, but label \"garden\" has rows in only ")
+                .hasMessageContaining("of data.group \"seller\"");
+    }
+
+    @Test
+    void a_search_with_a_group_column_scores_its_candidates_on_the_grouped_folds() throws IOException {
+        listingsWithSellers(400, 13);
+        TrainConfig config = config("data: {file: listings.csv, text: [title], label: department, group: seller}",
+                "evaluation: {folds: 3, threads: 2}");
+        LabelledData data = groupedData(config);
+        Path yaml = dir.resolve("search.yaml");
+        Files.writeString(yaml, Files.readString(dir.resolve("train.yaml")) + "search: {grid: {classifier.c: [0.1, 1]}}\n");
+        TrainingRun.Result searched = new TrainingRun(TrainPlan.read(yaml), data).run(Progress.NONE);
+        TrainingRun.Result plain = new TrainingRun(searched.search().chosen(), data).run(Progress.NONE);
+        // the search is given the run's grouped folds: the chosen candidate scores per fold as a
+        // run of its config alone does, and the same rows go to the same places
+        assertThat(searched.cv().get(Metric.ACCURACY).perFold()).isEqualTo(plain.cv().get(Metric.ACCURACY).perFold());
+        assertThat(searched.foldOfRow()).isEqualTo(plain.foldOfRow());
+        assertThat(searched.grouping()).isEqualTo(plain.grouping());
+        Map<String, Integer> placeOfGroup = new java.util.HashMap<>();
+        for (int i = 0; i < data.rows(); i++) {
+            String group = data.groups().get(i);
+            if (!group.isEmpty()) {
+                Integer before = placeOfGroup.putIfAbsent(group, searched.foldOfRow()[i]);
+                assertThat(before == null || before == searched.foldOfRow()[i]).as("group %s", group).isTrue();
+            }
+        }
+    }
 }
