@@ -6,6 +6,8 @@ import java.util.regex.Pattern;
 /** Finds the line of a dotted key path ({@code tokenizer.vocab_size}) in YAML text, for messages. */
 final class KeyLines {
 
+    /** A list index longer than this is no entry of a config's lists; it is not looked for. */
+    private static final int MAX_INDEX_DIGITS = 6;
     private static final Pattern LIST_ITEM = Pattern.compile("(?m)^[ \\t]*-[ \\t]");
 
     private KeyLines() {
@@ -19,7 +21,10 @@ final class KeyLines {
         int from = 0;
         int line = -1;
         for (String key : path.split("\\.")) {
-            if (key.chars().allMatch(Character::isDigit)) {
+            if (!key.isEmpty() && key.chars().allMatch(Character::isDigit)) {
+                if (key.length() > MAX_INDEX_DIGITS) {
+                    return line;
+                }
                 // A list index: the start of that entry of a block list ("- ...") after the key before it.
                 Matcher item = LIST_ITEM.matcher(yaml);
                 for (int k = 0; k <= Integer.parseInt(key); k++) {
