@@ -87,7 +87,8 @@ public final class BundleAssembler {
     /** The resolved config as the manifest records it, the data file by name only. */
     static JsonNode configJson(TrainConfig config) {
         ObjectNode node = JSON.valueToTree(config.withData(new DataConfig(fileName(config), config.data().text(),
-                config.data().label(), config.data().positive(), config.data().dropIncomplete(), config.data().group())));
+                config.data().label(), config.data().positive(), config.data().dropIncomplete(), config.data().group(),
+                config.data().weight())));
         ObjectNode features = node.putObject("features");
         FeatureConfig settings = config.features();
         if (settings.maxTokens() == FeatureConfig.ALL) {
