@@ -319,7 +319,7 @@ public final class TrainingRun {
         }
         List<PlattScaling> platt = List.of();
         if (config.classifier().kind() == ClassifierConfig.Kind.LINEAR_SVM && config.classifier().hasProbabilities()) {
-            platt = PlattScaling.fitScores(outOfFold(results, trainLabels.length), trainLabels, labels.size());
+            platt = PlattScaling.fitScores(outOfFold(results, trainLabels.length), trainLabels, weightsOf(trainRows), labels.size());
         }
 
         PipelineFitter.Fitted fitted = fitter.fit(rows(trainRows), progress);
