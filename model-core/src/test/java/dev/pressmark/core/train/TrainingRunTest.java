@@ -271,9 +271,22 @@ class TrainingRunTest {
                 + "fernleaf hose pack,plumbing,1\n"
                 + "aquaflow drain steel,garden,0\n");
         LabelledData test = LabelledData.read(testFile, config.data());
-        TrainingRun.Result result = TrainingRun.withTestData(config, LabelledData.read(Path.of(config.data().file()), config.data()), test)
-                .run(Progress.NONE);
+        TrainingRun run = TrainingRun.withTestData(config, LabelledData.read(Path.of(config.data().file()), config.data()), test);
+        TrainingRun.Result result = run.run(Progress.NONE);
         assertThat(result.test().overall().get(Metric.ACCURACY)).isCloseTo(6.0 / 7.0, within(1e-12));
+        // the manifest keeps the rows of weight > 0 (3) and the weights they sum to (7)
+        com.fasterxml.jackson.databind.JsonNode confusion = Bundle.read(BundleAssembler.assemble(config, run.data(), result, CREATED))
+                .manifest().path("metrics").path("test_confusion");
+        double rows = 0.0;
+        double weight = 0.0;
+        for (int t = 0; t < 3; t++) {
+            for (int p = 0; p < 3; p++) {
+                rows += confusion.path("counts").path(t).path(p).asDouble();
+                weight += confusion.path("weights").path(t).path(p).asDouble();
+            }
+        }
+        assertThat(rows).isEqualTo(3.0);
+        assertThat(weight).isEqualTo(7.0);
     }
 
     @Test
