@@ -53,8 +53,7 @@ final class TrainCommand implements Callable<Integer> {
         TrainPlan plan = TrainPlan.read(config);
         TrainConfig trainConfig = plan.config();
         Path dataFile = Path.of(trainConfig.data().file());
-        LabelledData data = LabelledData.read(dataFile, trainConfig.data().text(), trainConfig.data().label(),
-                trainConfig.data().group(), trainConfig.data().dropIncomplete());
+        LabelledData data = LabelledData.read(dataFile, trainConfig.data());
         System.err.printf(Locale.ROOT, "pressmark: %s: %,d rows%s%n", dataFile, data.rows(),
                 data.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", data.droppedRows()) : "");
         TrainingRun run = testData == null ? new TrainingRun(plan, data) : withTestData(plan, data);
@@ -83,8 +82,9 @@ final class TrainCommand implements Callable<Integer> {
 
     private TrainingRun withTestData(TrainPlan plan, LabelledData data) {
         TrainConfig trainConfig = plan.config();
-        LabelledData test = LabelledData.read(testData, trainConfig.data().text(), trainConfig.data().label(),
-                trainConfig.data().dropIncomplete());
+        // the test file has the text, label and weight columns (its rows' groups do not matter)
+        LabelledData test = LabelledData.read(testData, trainConfig.data().text(), trainConfig.data().label(), null,
+                trainConfig.data().weight(), trainConfig.data().dropIncomplete());
         System.err.printf(Locale.ROOT, "pressmark: %s: %,d test rows%s%n", testData, test.rows(),
                 test.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", test.droppedRows()) : "");
         return TrainingRun.withTestData(plan, data, test);

@@ -45,7 +45,8 @@ public final class LogisticSolver {
      * Solves one binary problem. Fills {@code w} (length {@code x.columns() + 1}, the bias weight
      * last) and {@code alpha} (length {@code x.rows()}), whatever they held before.
      *
-     * @param cost the per-row {@code C_i} (already multiplied by the class weight), each &gt; 0
+     * @param cost the per-row {@code C_i} (already multiplied by the class and case weights), each
+     *     &gt;= 0; a row of cost 0 keeps {@code α_i = 0} and counts nowhere
      */
     static SolverRun solve(SparseMatrix x, boolean[] positive, double[] cost, LogisticConfig config,
             SplittableRandom random, double[] w, double[] alpha) {
@@ -70,20 +71,27 @@ public final class LogisticSolver {
         double[] rest = new double[n];
         Arrays.fill(w, 0.0);
         for (int i = 0; i < n; i++) {
+            if (cost[i] == 0.0) {
+                // the box (0, 0) is empty: the row counts nowhere and is never visited
+                alpha[i] = 0.0;
+                rest[i] = 0.0;
+                continue;
+            }
             double start = Math.min(INITIAL_ALPHA_FRACTION * cost[i], INITIAL_ALPHA_MAX);
             alpha[i] = warmScale > 0.0 ? interior(alpha[i] * warmScale, cost[i], start) : start;
             rest[i] = cost[i] - alpha[i];
             Rows.add(x, i, positive[i] ? alpha[i] : -alpha[i], bias, w);
         }
-        int[] index = Rows.identity(n);
+        int[] index = Rows.costed(cost);
+        int m = index.length;
         double innerTolerance = INITIAL_INNER_TOLERANCE;
         double minInnerTolerance = Math.min(MIN_INNER_TOLERANCE, config.tolerance());
         int iteration = 0;
         while (iteration < config.maxIterations()) {
-            Rows.shuffle(index, n, random);
+            Rows.shuffle(index, m, random);
             double gradientMax = 0.0;
             long newtonSteps = 0;
-            for (int s = 0; s < n; s++) {
+            for (int s = 0; s < m; s++) {
                 int i = index[s];
                 double y = positive[i] ? 1.0 : -1.0;
                 double c = cost[i];
@@ -121,7 +129,7 @@ public final class LogisticSolver {
             if (gradientMax < config.tolerance()) {
                 return new SolverRun(iteration, true);
             }
-            if (newtonSteps <= n / 10) {
+            if (newtonSteps <= m / 10) {
                 innerTolerance = Math.max(minInnerTolerance, 0.1 * innerTolerance);
             }
         }

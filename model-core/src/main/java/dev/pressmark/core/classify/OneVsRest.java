@@ -24,11 +24,30 @@ final class OneVsRest {
         return numClasses == 2 ? new int[] {1} : Rows.identity(numClasses);
     }
 
-    /** The per-row cost {@code c · weight(label)}. */
+    /** The per-row cost {@code c · classWeight(label)}. */
     static double[] costs(int[] labels, double c, double[] classWeights) {
+        return costs(labels, c, classWeights, null);
+    }
+
+    /**
+     * The per-row cost {@code c · classWeight(y_i) · caseWeight_i}: class and case weights compose
+     * by multiplication, so a row of case weight {@code w} costs what {@code w} copies of it would.
+     * A row of case weight 0 costs 0 and counts nowhere.
+     *
+     * @param caseWeights one finite weight {@code >= 0} per row, or {@code null} for all 1
+     */
+    static double[] costs(int[] labels, double c, double[] classWeights, double[] caseWeights) {
+        if (caseWeights != null && caseWeights.length != labels.length) {
+            throw new IllegalArgumentException("caseWeights must have one entry per row (" + labels.length + "), had "
+                    + caseWeights.length);
+        }
         double[] cost = new double[labels.length];
         for (int i = 0; i < labels.length; i++) {
-            cost[i] = c * classWeights[labels[i]];
+            double w = caseWeights == null ? 1.0 : caseWeights[i];
+            if (!(w >= 0.0) || Double.isInfinite(w)) {
+                throw new IllegalArgumentException("caseWeights[" + i + "] must be >= 0 and finite, was " + w);
+            }
+            cost[i] = c * classWeights[labels[i]] * w;
         }
         return cost;
     }

@@ -18,6 +18,10 @@ import java.util.List;
  * term evaluated in a form that cannot overflow. Fit it on decision values the model did not
  * train on (out-of-fold), or it is overconfident.
  *
+ * <p>With case weights {@code w_i}, each term of the sum is multiplied by {@code w_i} and the
+ * counts {@code N+} and {@code N-} in the targets become sums of weights, so that a row of integer
+ * weight {@code w} counts as {@code w} copies of it and a row of weight 0 not at all.
+ *
  * @param a the slope, negative when larger decision values mean more likely positive
  * @param b the offset
  */
@@ -41,6 +45,16 @@ public record PlattScaling(double a, double b) {
 
     /** Fits the sigmoid to decision values and whether each example is positive. */
     public static PlattScaling fit(double[] decisionValues, boolean[] positive) {
+        return fit(decisionValues, positive, null);
+    }
+
+    /**
+     * Fits the sigmoid to decision values and whether each example is positive, each example
+     * counting its case weight (the weighted negative log-likelihood).
+     *
+     * @param weights one finite weight {@code >= 0} per example, or {@code null} for all 1
+     */
+    public static PlattScaling fit(double[] decisionValues, boolean[] positive, double[] weights) {
         double[] f = decisionValues;
         if (f.length != positive.length) {
             throw new IllegalArgumentException("decisionValues and positive must have the same length, had "
@@ -49,18 +63,20 @@ public record PlattScaling(double a, double b) {
         if (f.length == 0) {
             throw new IllegalArgumentException("decisionValues must hold at least one value, was empty");
         }
-        int positives = 0;
+        double[] w = checkedWeights(weights, f.length);
+        double positives = 0.0;
+        double negatives = 0.0;
         for (int i = 0; i < f.length; i++) {
             if (!Double.isFinite(f[i])) {
                 throw new IllegalArgumentException("decisionValues[" + i + "] must be finite, was " + f[i]);
             }
-            positives += positive[i] ? 1 : 0;
+            positives += positive[i] ? w[i] : 0.0;
+            negatives += positive[i] ? 0.0 : w[i];
         }
-        int negatives = f.length - positives;
-        double[] t = targets(positive);
+        double[] t = targets(positive, w);
         double a = 0.0;
         double b = Math.log((negatives + 1.0) / (positives + 1.0));
-        double value = loss(f, t, a, b);
+        double value = loss(f, t, w, a, b);
         for (int iteration = 0; iteration < MAX_ITERATIONS; iteration++) {
             double h11 = HESSIAN_RIDGE;
             double h22 = HESSIAN_RIDGE;
@@ -71,11 +87,11 @@ public record PlattScaling(double a, double b) {
                 double z = f[i] * a + b;
                 double p = Logistic.sigmoid(-z);
                 double q = Logistic.sigmoid(z);
-                double d2 = p * q;
+                double d2 = w[i] * p * q;
                 h11 += f[i] * f[i] * d2;
                 h22 += d2;
                 h21 += f[i] * d2;
-                double d1 = t[i] - p;
+                double d1 = w[i] * (t[i] - p);
                 g1 += f[i] * d1;
                 g2 += d1;
             }
@@ -90,7 +106,7 @@ public record PlattScaling(double a, double b) {
             while (step >= MIN_STEP) {
                 double newA = a + step * da;
                 double newB = b + step * db;
-                double newValue = loss(f, t, newA, newB);
+                double newValue = loss(f, t, w, newA, newB);
                 if (newValue < value + ARMIJO * step * slope) {
                     a = newA;
                     b = newB;
@@ -112,6 +128,15 @@ public record PlattScaling(double a, double b) {
      * score {@code k}'s positive class is {@code k}.
      */
     public static List<PlattScaling> fitScores(double[][] decisionValues, int[] labels, int numClasses) {
+        return fitScores(decisionValues, labels, null, numClasses);
+    }
+
+    /**
+     * As {@link #fitScores(double[][], int[], int)}, each row counting its case weight.
+     *
+     * @param weights one finite weight {@code >= 0} per row, or {@code null} for all 1
+     */
+    public static List<PlattScaling> fitScores(double[][] decisionValues, int[] labels, double[] weights, int numClasses) {
         int[] positiveClasses = OneVsRest.positiveClasses(numClasses);
         if (decisionValues.length != positiveClasses.length) {
             throw new IllegalArgumentException("decisionValues must have " + positiveClasses.length + " scores for "
@@ -123,7 +148,7 @@ public record PlattScaling(double a, double b) {
             for (int i = 0; i < labels.length; i++) {
                 positive[i] = Labels.check(labels[i], numClasses) == positiveClasses[k];
             }
-            scalings.add(fit(decisionValues[k], positive));
+            scalings.add(fit(decisionValues[k], positive, weights));
         }
         return scalings;
     }
@@ -140,12 +165,21 @@ public record PlattScaling(double a, double b) {
 
     /** Platt's smoothed targets. */
     static double[] targets(boolean[] positive) {
-        int positives = 0;
-        for (boolean p : positive) {
-            positives += p ? 1 : 0;
+        double[] ones = new double[positive.length];
+        java.util.Arrays.fill(ones, 1.0);
+        return targets(positive, ones);
+    }
+
+    /** Platt's smoothed targets, {@code N+} and {@code N-} the sums of the weights of each side. */
+    static double[] targets(boolean[] positive, double[] weights) {
+        double positives = 0.0;
+        double negatives = 0.0;
+        for (int i = 0; i < positive.length; i++) {
+            positives += positive[i] ? weights[i] : 0.0;
+            negatives += positive[i] ? 0.0 : weights[i];
         }
         double high = (positives + 1.0) / (positives + 2.0);
-        double low = 1.0 / (positive.length - positives + 2.0);
+        double low = 1.0 / (negatives + 2.0);
         double[] t = new double[positive.length];
         for (int i = 0; i < t.length; i++) {
             t[i] = positive[i] ? high : low;
@@ -155,11 +189,37 @@ public record PlattScaling(double a, double b) {
 
     /** The cross-entropy against targets {@code t}, each term in the branch that cannot overflow. */
     static double loss(double[] f, double[] t, double a, double b) {
+        return loss(f, t, checkedWeights(null, f.length), a, b);
+    }
+
+    /** The cross-entropy against targets {@code t}, term {@code i} weighted by {@code w[i]}. */
+    static double loss(double[] f, double[] t, double[] w, double a, double b) {
         double sum = 0.0;
         for (int i = 0; i < f.length; i++) {
+            if (w[i] == 0.0) {
+                continue;
+            }
             double z = f[i] * a + b;
-            sum += z >= 0.0 ? t[i] * z + Math.log1p(Math.exp(-z)) : (t[i] - 1.0) * z + Math.log1p(Math.exp(z));
+            sum += w[i] * (z >= 0.0 ? t[i] * z + Math.log1p(Math.exp(-z)) : (t[i] - 1.0) * z + Math.log1p(Math.exp(z)));
         }
         return sum;
+    }
+
+    /** {@code weights} checked (one finite value {@code >= 0} per example), or all 1 for {@code null}. */
+    private static double[] checkedWeights(double[] weights, int n) {
+        if (weights == null) {
+            double[] ones = new double[n];
+            java.util.Arrays.fill(ones, 1.0);
+            return ones;
+        }
+        if (weights.length != n) {
+            throw new IllegalArgumentException("weights must have one entry per example (" + n + "), had " + weights.length);
+        }
+        for (int i = 0; i < n; i++) {
+            if (!(weights[i] >= 0.0) || Double.isInfinite(weights[i])) {
+                throw new IllegalArgumentException("weights[" + i + "] must be a finite number >= 0, was " + weights[i]);
+            }
+        }
+        return weights;
     }
 }

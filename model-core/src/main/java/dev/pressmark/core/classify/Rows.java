@@ -50,6 +50,26 @@ final class Rows {
         }
     }
 
+    /**
+     * The rows whose cost is above 0, in order: the only ones a solver visits. A row of cost 0 (case
+     * weight 0) has the dual box {@code [0, 0]}, so its dual variable stays 0 and it adds nothing to
+     * {@code w}.
+     */
+    static int[] costed(double[] cost) {
+        int m = 0;
+        for (double c : cost) {
+            m += c > 0.0 ? 1 : 0;
+        }
+        int[] index = new int[m];
+        int next = 0;
+        for (int i = 0; i < cost.length; i++) {
+            if (cost[i] > 0.0) {
+                index[next++] = i;
+            }
+        }
+        return index;
+    }
+
     static int[] identity(int n) {
         int[] index = new int[n];
         for (int i = 0; i < n; i++) {
@@ -58,7 +78,6 @@ final class Rows {
         return index;
     }
 
-    /** Checks the shapes that every binary solve and objective relies on. */
     /** Checks the arrays of a solve; {@code alpha} is its dual vector, one entry per row. */
     static void checkProblem(SparseMatrix x, boolean[] positive, double[] cost, double[] w, double[] alpha) {
         checkProblem(x, positive, cost, w);
@@ -81,8 +100,8 @@ final class Rows {
                     + " entries (the last is the bias weight), had " + w.length);
         }
         for (int i = 0; i < n; i++) {
-            if (!(cost[i] > 0.0) || Double.isInfinite(cost[i])) {
-                throw new IllegalArgumentException("cost[" + i + "] must be > 0 and finite, was " + cost[i]);
+            if (!(cost[i] >= 0.0) || Double.isInfinite(cost[i])) {
+                throw new IllegalArgumentException("cost[" + i + "] must be >= 0 and finite, was " + cost[i]);
             }
         }
     }

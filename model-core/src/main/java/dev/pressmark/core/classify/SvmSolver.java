@@ -44,7 +44,8 @@ public final class SvmSolver {
      * Solves one binary problem. Fills {@code w} (length {@code x.columns() + 1}, the bias weight
      * last) and {@code alpha} (length {@code x.rows()}), whatever they held before.
      *
-     * @param cost the per-row {@code C_i} (already multiplied by the class weight), each &gt; 0
+     * @param cost the per-row {@code C_i} (already multiplied by the class and case weights), each
+     *     &gt;= 0; a row of cost 0 keeps {@code α_i = 0} and counts nowhere
      */
     static SolverRun solve(SparseMatrix x, boolean[] positive, double[] cost, SvmConfig config,
             SplittableRandom random, double[] w, double[] alpha) {
@@ -74,8 +75,9 @@ public final class SvmSolver {
         double[] upper = new double[n];
         double[] qd = Rows.squaredNorms(x, bias);
         for (int i = 0; i < n; i++) {
-            diagonal[i] = hinge ? 0.0 : 0.5 / cost[i];
-            upper[i] = hinge ? cost[i] : Double.POSITIVE_INFINITY;
+            // a row of cost 0 has the box [0, 0] under either loss: it is never visited
+            diagonal[i] = hinge || cost[i] == 0.0 ? 0.0 : 0.5 / cost[i];
+            upper[i] = hinge || cost[i] == 0.0 ? cost[i] : Double.POSITIVE_INFINITY;
             qd[i] += diagonal[i];
         }
         Arrays.fill(w, 0.0);
@@ -89,21 +91,22 @@ public final class SvmSolver {
         } else {
             Arrays.fill(alpha, 0.0);
         }
-        int[] index = Rows.identity(n);
-        int active = n;
+        int[] index = Rows.costed(cost);
+        int m = index.length;
+        int active = m;
         double shrinkAbove = Double.POSITIVE_INFINITY;
         double shrinkBelow = Double.NEGATIVE_INFINITY;
         int iteration = 0;
         long review = FIRST_REVIEW;
         int sinceFullSet = 0;
         while (iteration < config.maxIterations()) {
-            if (active < n && sinceFullSet >= review) {
-                active = n;
+            if (active < m && sinceFullSet >= review) {
+                active = m;
                 shrinkAbove = Double.POSITIVE_INFINITY;
                 shrinkBelow = Double.NEGATIVE_INFINITY;
                 review *= 2;
             }
-            if (active == n) {
+            if (active == m) {
                 sinceFullSet = 0;
             }
             sinceFullSet++;
@@ -150,10 +153,10 @@ public final class SvmSolver {
             }
             iteration++;
             if (pgMax - pgMin <= config.tolerance()) {
-                if (active == n) {
+                if (active == m) {
                     return new SolverRun(iteration, true);
                 }
-                active = n;
+                active = m;
                 shrinkAbove = Double.POSITIVE_INFINITY;
                 shrinkBelow = Double.NEGATIVE_INFINITY;
                 continue;

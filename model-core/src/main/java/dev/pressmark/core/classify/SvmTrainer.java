@@ -7,7 +7,8 @@ import java.util.Objects;
 
 /**
  * Trains linear SVMs with {@link SvmSolver}: one binary problem for two classes, one versus rest
- * for more, each example's cost {@code c} times its class weight.
+ * for more, each example's cost {@code c} times its class weight times its case weight (1 unless
+ * given).
  */
 public final class SvmTrainer implements Trainer<SvmModel> {
 
@@ -43,10 +44,20 @@ public final class SvmTrainer implements Trainer<SvmModel> {
      * one, and leaving its new solution there for the next fit; {@code null} starts cold.
      */
     public SvmModel train(SparseMatrix x, int[] labels, int numClasses, long seed, WarmStart warm) {
+        return train(x, labels, null, numClasses, seed, warm);
+    }
+
+    /**
+     * Trains as {@link #train(SparseMatrix, int[], int, long, WarmStart)} does, row {@code i}'s cost
+     * {@code c · classWeight(labels[i]) · caseWeights[i]}; a row of case weight 0 counts nowhere.
+     *
+     * @param caseWeights one finite weight {@code >= 0} per row, or {@code null} for all 1
+     */
+    public SvmModel train(SparseMatrix x, int[] labels, double[] caseWeights, int numClasses, long seed, WarmStart warm) {
         Labels.checkTrainingSet(x, labels, numClasses);
         List<SolverRun> runs = new ArrayList<>();
-        double[][] w = solve(x, labels, OneVsRest.positiveClasses(numClasses),
-                OneVsRest.costs(labels, config.c(), classWeights.resolve(labels, numClasses)), seed, runs, warm);
+        double[] cost = OneVsRest.costs(labels, config.c(), classWeights.resolve(labels, numClasses), caseWeights);
+        double[][] w = solve(x, labels, OneVsRest.positiveClasses(numClasses), cost, seed, runs, warm);
         if (warm != null) {
             warm.solvedAt(config.c());
         }

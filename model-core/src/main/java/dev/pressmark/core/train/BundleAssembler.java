@@ -72,7 +72,7 @@ public final class BundleAssembler {
         training.put("vocabulary_size", result.pipeline().vocabularySize());
         ArrayNode warnings = training.putArray("warnings");
         result.warnings().forEach(warnings::add);
-        manifest.set("metrics", metrics(result));
+        manifest.set("metrics", metrics(result, config.data().weight() != null));
         if (result.search() != null) {
             manifest.set(SearchSummary.KEY, result.search().summary().toJson());
         }
@@ -87,7 +87,8 @@ public final class BundleAssembler {
     /** The resolved config as the manifest records it, the data file by name only. */
     static JsonNode configJson(TrainConfig config) {
         ObjectNode node = JSON.valueToTree(config.withData(new DataConfig(fileName(config), config.data().text(),
-                config.data().label(), config.data().positive(), config.data().dropIncomplete(), config.data().group())));
+                config.data().label(), config.data().positive(), config.data().dropIncomplete(), config.data().group(),
+                config.data().weight())));
         ObjectNode features = node.putObject("features");
         FeatureConfig settings = config.features();
         if (settings.maxTokens() == FeatureConfig.ALL) {
@@ -106,7 +107,7 @@ public final class BundleAssembler {
         return node;
     }
 
-    private static ObjectNode metrics(TrainingRun.Result result) {
+    private static ObjectNode metrics(TrainingRun.Result result, boolean weighted) {
         ObjectNode metrics = JSON.createObjectNode();
         ObjectNode cv = metrics.putObject("cv");
         for (MetricSummary summary : result.cv().metrics()) {
@@ -129,6 +130,16 @@ public final class BundleAssembler {
             ArrayNode row = rows.addArray();
             for (int p = 0; p < confusion.classCount(); p++) {
                 row.add(confusion.count(t, p));
+            }
+        }
+        if (weighted) {
+            // with case weights the metrics sum weights; the counts above are rows of weight > 0
+            ArrayNode sums = ((ObjectNode) metrics.get("test_confusion")).putArray("weights");
+            for (int t = 0; t < confusion.classCount(); t++) {
+                ArrayNode row = sums.addArray();
+                for (int p = 0; p < confusion.classCount(); p++) {
+                    row.add(confusion.weight(t, p));
+                }
             }
         }
         return metrics;

@@ -20,15 +20,19 @@ import java.util.Objects;
  * @param group the column whose equal values make rows one group (kept on one side of the split and
  *     in one fold), or null for rows that are independent; a row whose group value is empty is a
  *     group of its own
+ * @param weight the column that holds each row's case weight (a finite number {@code >= 0}), or
+ *     null for every row weighing 1; a row's cost in the solvers is {@code C × class weight × case
+ *     weight}, and every metric sums case weights where it would count rows
  */
-@JsonPropertyOrder({"file", "text", "label", "positive", "drop_incomplete", "group"})
+@JsonPropertyOrder({"file", "text", "label", "positive", "drop_incomplete", "group", "weight"})
 public record DataConfig(
         @JsonProperty("file") String file,
         @JsonProperty("text") List<String> text,
         @JsonProperty("label") String label,
         @JsonProperty("positive") String positive,
         @JsonProperty("drop_incomplete") boolean dropIncomplete,
-        @JsonProperty("group") @JsonInclude(JsonInclude.Include.NON_NULL) String group) {
+        @JsonProperty("group") @JsonInclude(JsonInclude.Include.NON_NULL) String group,
+        @JsonProperty("weight") @JsonInclude(JsonInclude.Include.NON_NULL) String weight) {
 
     public static final String DEFAULT_FILE = "data.csv";
     public static final List<String> DEFAULT_TEXT = List.of("text");
@@ -37,7 +41,12 @@ public record DataConfig(
 
     /** A config whose rows are independent (no {@code group}). */
     public DataConfig(String file, List<String> text, String label, String positive, boolean dropIncomplete) {
-        this(file, text, label, positive, dropIncomplete, null);
+        this(file, text, label, positive, dropIncomplete, null, null);
+    }
+
+    /** A config without case weights ({@code weight} null). */
+    public DataConfig(String file, List<String> text, String label, String positive, boolean dropIncomplete, String group) {
+        this(file, text, label, positive, dropIncomplete, group, null);
     }
 
     public DataConfig {
@@ -67,6 +76,12 @@ public record DataConfig(
         if (label.equals(group)) {
             throw new IllegalArgumentException("data.group \"" + group + "\" must not be the label column");
         }
+        if (weight != null && weight.isBlank()) {
+            throw new IllegalArgumentException("data.weight must name a column, was empty");
+        }
+        if (weight != null && (weight.equals(label) || text.contains(weight))) {
+            throw new IllegalArgumentException("data.weight \"" + weight + "\" must not be the label column or a text column");
+        }
     }
 
     @JsonCreator
@@ -76,14 +91,16 @@ public record DataConfig(
             @JsonProperty("label") String label,
             @JsonProperty("positive") String positive,
             @JsonProperty("drop_incomplete") Boolean dropIncomplete,
-            @JsonProperty("group") String group) {
+            @JsonProperty("group") String group,
+            @JsonProperty("weight") String weight) {
         return new DataConfig(
                 file == null ? DEFAULT_FILE : file,
                 text == null ? DEFAULT_TEXT : text,
                 label == null ? DEFAULT_LABEL : label,
                 positive,
                 dropIncomplete != null && dropIncomplete,
-                group);
+                group,
+                weight);
     }
 
     /** The file as a path, resolved against {@code base} when relative. */
@@ -93,6 +110,6 @@ public record DataConfig(
     }
 
     DataConfig resolvedAgainst(Path base) {
-        return new DataConfig(path(base).toString(), text, label, positive, dropIncomplete, group);
+        return new DataConfig(path(base).toString(), text, label, positive, dropIncomplete, group, weight);
     }
 }

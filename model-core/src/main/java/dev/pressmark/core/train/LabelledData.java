@@ -40,6 +40,8 @@ import java.util.Objects;
  *     read; an empty value means the row is a group of its own
  * @param rowNumbers per row, its 1-based number among the file's data rows (header excluded,
  *     incomplete rows that were left out counted)
+ * @param weights per row, its case weight (finite, {@code >= 0}), or null when no weight column
+ *     was read and every row weighs 1
  */
 public record LabelledData(
         List<String> textColumns,
@@ -50,7 +52,8 @@ public record LabelledData(
         String sha256,
         int droppedRows,
         List<String> groups,
-        int[] rowNumbers) {
+        int[] rowNumbers,
+        double[] weights) {
 
     /**
      * The longest field read: 8 Mi characters, far beyond a short text and below the parser's own
@@ -82,12 +85,22 @@ public record LabelledData(
             throw new IllegalArgumentException("rowNumbers must have one entry per row (" + labels.size() + "), had "
                     + rowNumbers.length);
         }
+        weights = weights == null ? null : weights.clone();
+        if (weights != null && weights.length != labels.size()) {
+            throw new IllegalArgumentException("weights must have one entry per row (" + labels.size() + "), had " + weights.length);
+        }
     }
 
     /** Rows without groups, numbered 1, 2, ... in order. */
     public LabelledData(List<String> textColumns, String labelColumn, List<String[]> texts, List<String> labels, int[] lines,
                         String sha256, int droppedRows) {
-        this(textColumns, labelColumn, texts, labels, lines, sha256, droppedRows, null, null);
+        this(textColumns, labelColumn, texts, labels, lines, sha256, droppedRows, null, null, null);
+    }
+
+    /** Rows with groups (or null) and without case weights. */
+    public LabelledData(List<String> textColumns, String labelColumn, List<String[]> texts, List<String> labels, int[] lines,
+                        String sha256, int droppedRows, List<String> groups, int[] rowNumbers) {
+        this(textColumns, labelColumn, texts, labels, lines, sha256, droppedRows, groups, rowNumbers, null);
     }
 
     private static int[] ordinals(int count) {
@@ -101,6 +114,16 @@ public record LabelledData(
     /** Whether a group column was read. */
     public boolean hasGroups() {
         return groups != null;
+    }
+
+    /** Whether a weight column was read. */
+    public boolean hasWeights() {
+        return weights != null;
+    }
+
+    @Override
+    public double[] weights() {
+        return weights == null ? null : weights.clone();
     }
 
     @Override
@@ -117,7 +140,7 @@ public record LabelledData(
      * to train on one file and test on another. The fingerprint becomes the SHA-256 of the two
      * files' fingerprints (hex, this one's first); the line and row numbers stay those of each
      * file. When these rows have groups and {@code more}'s do not, each of its rows is a group of
-     * its own.
+     * its own; when these rows have case weights and {@code more}'s do not, each of its rows weighs 1.
      */
     public LabelledData followedBy(LabelledData more) {
         if (!textColumns.equals(more.textColumns) || !Objects.equals(labelColumn, more.labelColumn)) {
@@ -139,18 +162,27 @@ public record LabelledData(
         }
         int[] allNumbers = Arrays.copyOf(rowNumbers, rowNumbers.length + more.rowNumbers.length);
         System.arraycopy(more.rowNumbers, 0, allNumbers, rowNumbers.length, more.rowNumbers.length);
+        double[] allWeights = null;
+        if (weights != null) {
+            allWeights = Arrays.copyOf(weights, weights.length + more.rows());
+            if (more.weights != null) {
+                System.arraycopy(more.weights, 0, allWeights, weights.length, more.rows());
+            } else {
+                Arrays.fill(allWeights, weights.length, allWeights.length, 1.0);
+            }
+        }
         return new LabelledData(textColumns, labelColumn, allTexts, allLabels, allLines, fingerprint,
-                droppedRows + more.droppedRows, allGroups, allNumbers);
+                droppedRows + more.droppedRows, allGroups, allNumbers, allWeights);
     }
 
     /** Reads the text columns of {@code file} without labels, for prediction; every row is kept. */
     public static LabelledData readTexts(Path file, List<String> textColumns) {
-        return read(file, textColumns, null, null, false);
+        return read(file, textColumns, null, null, null, false);
     }
 
     /** Reads {@code file} without a group column; errors name the file, and the line where one is at fault. */
     public static LabelledData read(Path file, List<String> textColumns, String labelColumn, boolean dropIncomplete) {
-        return read(file, textColumns, labelColumn, null, dropIncomplete);
+        return read(file, textColumns, labelColumn, null, null, dropIncomplete);
     }
 
     /**
@@ -159,6 +191,25 @@ public record LabelledData(
      */
     public static LabelledData read(Path file, List<String> textColumns, String labelColumn, String groupColumn,
                                     boolean dropIncomplete) {
+        return read(file, textColumns, labelColumn, groupColumn, null, dropIncomplete);
+    }
+
+    /**
+     * Reads {@code file} as {@code data} describes it: its text, label, group (when set) and weight
+     * (when set) columns. The file is {@code file}, not {@code data.file()}, so that a test file
+     * can be read with the same columns.
+     */
+    public static LabelledData read(Path file, DataConfig data) {
+        return read(file, data.text(), data.label(), data.group(), data.weight(), data.dropIncomplete());
+    }
+
+    /**
+     * Reads {@code file}, and the values of {@code groupColumn} and {@code weightColumn} (each unless
+     * null) in every row; errors name the file, and the line where one is at fault. A case weight
+     * must be a finite decimal number {@code >= 0}.
+     */
+    public static LabelledData read(Path file, List<String> textColumns, String labelColumn, String groupColumn,
+                                    String weightColumn, boolean dropIncomplete) {
         byte[] bytes;
         try {
             bytes = Files.readAllBytes(file);
@@ -170,7 +221,7 @@ public record LabelledData(
         String text = StrictUtf8.decode(bytes, file.toString());
         FieldStart start = new FieldStart(text);
         try (JsonParser parser = CSV.createParser(new StringReader(text))) {
-            return parse(parser, start, file, new Columns(textColumns, labelColumn, groupColumn), dropIncomplete, Sha256.hex(bytes));
+            return parse(parser, start, file, new Columns(textColumns, labelColumn, groupColumn, weightColumn), dropIncomplete, Sha256.hex(bytes));
         } catch (StreamConstraintsException e) {
             throw new PressmarkException("invalid-csv", String.format("%s: line %d: a field longer than %,d characters, the limit on one field"
                     + " (an unclosed quote makes the rest of the file one field)", file, start.line(), MAX_FIELD_CHARS), e);
@@ -183,8 +234,8 @@ public record LabelledData(
         }
     }
 
-    /** The columns to read: text columns, and the label and group columns (each null when not read). */
-    private record Columns(List<String> text, String label, String group) {
+    /** The columns to read: text columns, and the label, group and weight columns (each null when not read). */
+    private record Columns(List<String> text, String label, String group, String weight) {
     }
 
     private static LabelledData parse(JsonParser parser, FieldStart start, Path file, Columns columns,
@@ -204,6 +255,8 @@ public record LabelledData(
         int labelIndex = labelColumn == null ? -1 : column(header, labelColumn, file);
         int groupIndex = columns.group() == null ? -1 : column(header, columns.group(), file);
         List<String> groups = groupIndex < 0 ? null : new ArrayList<>();
+        int weightIndex = columns.weight() == null ? -1 : column(header, columns.weight(), file);
+        double[] weights = weightIndex < 0 ? null : new double[64];
         int[] rowNumbers = new int[64];
         int rowNumber = 0;
 
@@ -236,6 +289,10 @@ public record LabelledData(
             if (labels.size() == lines.length) {
                 lines = Arrays.copyOf(lines, lines.length * 2);
                 rowNumbers = Arrays.copyOf(rowNumbers, rowNumbers.length * 2);
+                weights = weights == null ? null : Arrays.copyOf(weights, weights.length * 2);
+            }
+            if (weights != null) {
+                weights[labels.size()] = weight(fields.get(weightIndex), columns.weight(), file, line);
             }
             lines[labels.size()] = line;
             rowNumbers[labels.size()] = rowNumber;
@@ -250,8 +307,30 @@ public record LabelledData(
                     + (dropped > 0 ? " (" + dropped + " incomplete rows left out)" : ""));
         }
         return new LabelledData(textColumns, labelColumn, texts, labels, Arrays.copyOf(lines, labels.size()), sha256, dropped,
-                groups, Arrays.copyOf(rowNumbers, labels.size()));
+                groups, Arrays.copyOf(rowNumbers, labels.size()), weights == null ? null : Arrays.copyOf(weights, labels.size()));
     }
+
+    /** A case weight: a finite decimal number {@code >= 0}; anything else is an error naming the line and value. */
+    private static double weight(String field, String column, Path file, int line) {
+        String value = field.strip();
+        double weight;
+        try {
+            weight = Double.parseDouble(value);
+        } catch (NumberFormatException e) {
+            weight = Double.NaN;
+        }
+        // parseDouble also takes "NaN", "Infinity" and hex forms with a trailing type letter ("1d"):
+        // only plain decimal numbers are case weights
+        if (!(weight >= 0.0) || Double.isInfinite(weight) || !PLAIN_NUMBER.matcher(value).matches()) {
+            throw new PressmarkException("invalid-weight", file + ": line " + line + ": case weight in column \"" + column
+                    + "\" must be a finite number >= 0, was \"" + field + "\"");
+        }
+        return weight == 0.0 ? 0.0 : weight; // -0 weighs 0
+    }
+
+    /** A plain decimal number with an optional sign and exponent. */
+    private static final java.util.regex.Pattern PLAIN_NUMBER =
+            java.util.regex.Pattern.compile("[+-]?(\\d+\\.?\\d*|\\.\\d+)([eE][+-]?\\d+)?");
 
     /** Reads the next row into {@code fields}; returns the line it starts on, or -1 at the end. */
     private static int nextRow(JsonParser parser, FieldStart start, List<String> fields) throws IOException {

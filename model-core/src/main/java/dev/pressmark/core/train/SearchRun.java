@@ -121,6 +121,8 @@ final class SearchRun {
         PipelineFitter.Fitted firstFit = fitter.fit(trainTexts, Progress.NONE);
         int[] yTrain = TrainingRun.select(trainLabels, fold.train());
         int[] truth = TrainingRun.select(trainLabels, fold.test());
+        double[] trainWeights = run.weightsOf(foldTrain);
+        double[] testWeights = run.weightsOf(foldTest);
         long seed = run.foldSeed(fold);
         for (FeatureSetting setting : group.settings) {
             // the first fit's tokenizers, trained once, serve every other feature setting
@@ -133,10 +135,10 @@ final class SearchRun {
                 WarmStart warm = search.settings().warmStart() ? new WarmStart() : null;
                 for (int candidate : chain) {
                     ClassifierConfig classifier = search.configs().get(candidate).classifier();
-                    TrainingRun.Trained trained = run.train(classifier, x, yTrain, seed, warm);
+                    TrainingRun.Trained trained = run.train(classifier, x, yTrain, trainWeights, seed, warm);
                     boolean keepValues = fold.repeat() == 0 && classifier.kind() == ClassifierConfig.Kind.LINEAR_SVM
                             && classifier.hasProbabilities();
-                    results[candidate][f] = run.foldResult(fold, trained, xTest, truth, keepValues);
+                    results[candidate][f] = run.foldResult(fold, trained, xTest, truth, testWeights, keepValues);
                     features[candidate][f] = space.featureCount();
                     tick.run();
                 }

@@ -112,6 +112,8 @@ public final class TrainingRun {
     private final Split fixedSplit;
     /** The rows' groups when {@code data.group} is set, else null. */
     private final RowGroups groups;
+    /** Each data row's case weight when {@code data.weight} is set, else null (every row weighs 1). */
+    private final double[] caseWeights;
 
     public TrainingRun(TrainConfig config, LabelledData data) {
         this(TrainPlan.of(config), data);
@@ -156,6 +158,29 @@ public final class TrainingRun {
         requireTextInEveryColumn(data);
         this.fitter = new PipelineFitter(config.tokenizers(), config.features(), config.data().text());
         this.groups = rowGroups(config.data().group(), data);
+        this.caseWeights = caseWeights(config.data().weight(), data);
+    }
+
+    private static double[] caseWeights(String column, LabelledData data) {
+        if (column == null) {
+            return null;
+        }
+        if (!data.hasWeights()) {
+            throw new IllegalArgumentException("data.weight is \"" + column + "\", but the data was read without that column");
+        }
+        return data.weights();
+    }
+
+    /** The case weights of {@code rows} (indices into the data), or null when rows are unweighted. */
+    double[] weightsOf(int[] rows) {
+        if (caseWeights == null) {
+            return null;
+        }
+        double[] out = new double[rows.length];
+        for (int i = 0; i < rows.length; i++) {
+            out[i] = caseWeights[rows[i]];
+        }
+        return out;
     }
 
     private static RowGroups rowGroups(String column, LabelledData data) {
@@ -294,17 +319,18 @@ public final class TrainingRun {
         }
         List<PlattScaling> platt = List.of();
         if (config.classifier().kind() == ClassifierConfig.Kind.LINEAR_SVM && config.classifier().hasProbabilities()) {
-            platt = PlattScaling.fitScores(outOfFold(results, trainLabels.length), trainLabels, labels.size());
+            platt = PlattScaling.fitScores(outOfFold(results, trainLabels.length), trainLabels, weightsOf(trainRows), labels.size());
         }
 
         PipelineFitter.Fitted fitted = fitter.fit(rows(trainRows), progress);
         progress.start("final model", 3);
         progress.advance(1);
-        Trained trained = train(config.classifier(), fitted.x(), trainLabels, seed, null);
+        Trained trained = train(config.classifier(), fitted.x(), trainLabels, weightsOf(trainRows), seed, null);
         trained.warning.ifPresent(w -> warnings.add("final model: " + w));
         ModelWeights model = new ModelWeights(kindKey(), trained.model.weights(), platt);
         progress.advance(2);
-        Evaluation test = evaluate(model.classifier(), fitted.pipeline().transform(rows(split.test())), select(y, split.test()));
+        Evaluation test = evaluate(model.classifier(), fitted.pipeline().transform(rows(split.test())), select(y, split.test()),
+                weightsOf(split.test()), "the test part");
         progress.advance(3);
         progress.finish();
         warnings.forEach(progress::note);
@@ -371,14 +397,19 @@ public final class TrainingRun {
         int[] foldTrain = select(trainRows, fold.train());
         int[] foldTest = select(trainRows, fold.test());
         PipelineFitter.Fitted fitted = fitter.fit(rows(foldTrain), Progress.NONE);
-        Trained trained = train(config.classifier(), fitted.x(), select(trainLabels, fold.train()), foldSeed(fold), null);
+        Trained trained = train(config.classifier(), fitted.x(), select(trainLabels, fold.train()), weightsOf(foldTrain),
+                foldSeed(fold), null);
         SparseMatrix xTest = fitted.pipeline().transform(rows(foldTest));
-        return foldResult(fold, trained, xTest, select(trainLabels, fold.test()), true);
+        return foldResult(fold, trained, xTest, select(trainLabels, fold.test()), weightsOf(foldTest), true);
     }
 
-    /** The result of {@code trained} on a fold's held-out rows, with their decision values when {@code keepValues}. */
-    FoldResult foldResult(Fold fold, Trained trained, SparseMatrix xTest, int[] truth, boolean keepValues) {
-        Evaluation evaluation = evaluate(trained.model, xTest, truth);
+    /**
+     * The result of {@code trained} on a fold's held-out rows (of case weights {@code weights}, or
+     * null for all 1), with their decision values when {@code keepValues}.
+     */
+    FoldResult foldResult(Fold fold, Trained trained, SparseMatrix xTest, int[] truth, double[] weights, boolean keepValues) {
+        Evaluation evaluation = evaluate(trained.model, xTest, truth, weights,
+                "fold " + (fold.index() + 1) + (fold.repeat() > 0 ? " of repeat " + (fold.repeat() + 1) : ""));
         double[][] values = null;
         if (keepValues) {
             values = new double[trained.model.weights().numScores()][];
@@ -414,18 +445,24 @@ public final class TrainingRun {
         return values;
     }
 
-    /** Trains {@code classifier} on {@code x}; {@code warm}, when not null, carries the previous C's solution. */
-    Trained train(ClassifierConfig classifier, SparseMatrix x, int[] labels, long seed, WarmStart warm) {
+    /**
+     * Trains {@code classifier} on {@code x}, whose rows have the case weights {@code rowWeights}
+     * (null for all 1); {@code warm}, when not null, carries the previous C's solution.
+     */
+    Trained train(ClassifierConfig classifier, SparseMatrix x, int[] labels, double[] rowWeights, long seed, WarmStart warm) {
         ClassWeights weights = classifier.classWeight().resolve(this.labels);
+        int k = this.labels.size();
         if (classifier.kind() == ClassifierConfig.Kind.LOGISTIC_REGRESSION) {
-            var model = new LogisticTrainer(classifier.logisticConfig(), weights).train(x, labels, this.labels.size(), seed, warm);
+            var model = new LogisticTrainer(classifier.logisticConfig(), weights).train(x, labels, rowWeights, k, seed, warm);
             return new Trained(model, model.warning());
         }
-        var model = new SvmTrainer(classifier.svmConfig(), weights).train(x, labels, this.labels.size(), seed, warm);
+        var model = new SvmTrainer(classifier.svmConfig(), weights).train(x, labels, rowWeights, k, seed, warm);
         return new Trained(model, model.warning());
     }
 
-    private Evaluation evaluate(LinearClassifier model, SparseMatrix x, int[] truth) {
+    /** Scores {@code model} on {@code x}, each row counting its case weight (all 1 when {@code weights} is null). */
+    private Evaluation evaluate(LinearClassifier model, SparseMatrix x, int[] truth, double[] weights, String part) {
+        requireSomeWeight(weights, part);
         int[] predicted = model.predict(x);
         if (labels.size() == 2) {
             double[] scores = model.decisionColumn(x, 0);
@@ -434,7 +471,7 @@ public final class TrainingRun {
                     scores[i] = -scores[i];
                 }
             }
-            return Evaluation.binary(truth, predicted, scores, positiveClass);
+            return Evaluation.binary(truth, predicted, scores, weights, positiveClass);
         }
         int k = labels.size();
         double[] scores = new double[x.rows() * k];
@@ -443,7 +480,20 @@ public final class TrainingRun {
             model.weights().decisionValues(x, i, row);
             System.arraycopy(row, 0, scores, i * k, k);
         }
-        return Evaluation.multiClass(truth, predicted, scores, k);
+        return Evaluation.multiClass(truth, predicted, scores, weights, k);
+    }
+
+    private void requireSomeWeight(double[] weights, String part) {
+        if (weights == null) {
+            return;
+        }
+        for (double w : weights) {
+            if (w > 0.0) {
+                return;
+            }
+        }
+        throw new PressmarkException("zero-weight", part + ": every one of its " + weights.length + " rows has case weight 0"
+                + " in column \"" + config.data().weight() + "\", so nothing there can be scored; give some of them weight");
     }
 
     private String kindKey() {

@@ -68,7 +68,7 @@ class SearchRunTest {
     }
 
     private static LabelledData data(TrainConfig config) {
-        return LabelledData.read(Path.of(config.data().file()), config.data().text(), config.data().label(), false);
+        return LabelledData.read(Path.of(config.data().file()), config.data());
     }
 
     private static final String[] GRID_WITHOUT_WARM_START = {
@@ -85,6 +85,25 @@ class SearchRunTest {
     void every_candidates_cross_validated_score_equals_a_plain_run_with_its_settings() throws IOException {
         writeCsv(listings(500, 3));
         assertEveryCandidateEqualsItsPlainRun(plan(GRID_WITHOUT_WARM_START), 12);
+    }
+
+    @Test
+    void with_case_weights_every_candidate_equals_a_plain_weighted_run() throws IOException {
+        // the search's folds must train and score with the same case weights as a plain run's folds
+        List<String[]> rows = listings(500, 3);
+        SplittableRandom random = new SplittableRandom(9);
+        String[] weights = {"0", "0.5", "1", "2", "3"};
+        StringBuilder csv = new StringBuilder("title,department,w\n");
+        for (String[] row : rows) {
+            csv.append(row[0]).append(',').append(row[1]).append(',').append(weights[random.nextInt(weights.length)]).append('\n');
+        }
+        Files.writeString(dir.resolve("listings.csv"), csv);
+        TrainPlan plan = plan(GRID_WITHOUT_WARM_START);
+        Path file = dir.resolve("train.yaml");
+        Files.writeString(file, Files.readString(file).replace("label: department}", "label: department, weight: w}"));
+        TrainPlan weighted = TrainPlan.read(file);
+        assertThat(weighted.config().data().weight()).isEqualTo("w");
+        assertEveryCandidateEqualsItsPlainRun(weighted, 12);
     }
 
     @Test

@@ -242,6 +242,82 @@ class TrainingRunTest {
         return file;
     }
 
+    /** The listings with a weight column {@code w}: 1 on every row, then {@code poison} rows labelled against their words, of weight 0. */
+    private TrainConfig weightedListings(int rows, int poison) throws IOException {
+        Path file = listings(rows, 1);
+        StringBuilder csv = new StringBuilder();
+        String[] lines = Files.readString(file).split("\n");
+        csv.append(lines[0]).append(",w\n");
+        for (int i = 1; i < lines.length; i++) {
+            csv.append(lines[i]).append(",1\n");
+        }
+        for (int i = 0; i < poison; i++) {
+            csv.append("aquaflow valve pipe ").append(i).append(",electrical,0\n");
+        }
+        Files.writeString(file, csv);
+        return config("data: {file: listings.csv, text: [title], label: department, weight: w}",
+                "evaluation: {folds: 4, threads: 2}");
+    }
+
+    @Test
+    void the_test_part_is_scored_with_its_case_weights() throws IOException {
+        TrainConfig config = weightedListings(600, 0);
+        // Hand-worked: the two rows the model gets right weigh 3 each, the two it gets wrong 1 and 0,
+        // so the weighted accuracy is (3 + 3) / (3 + 3 + 1 + 0) = 6/7 where the unweighted one is 1/2.
+        Path testFile = dir.resolve("held-out.csv");
+        Files.writeString(testFile, "title,department,w\n"
+                + "aquaflow valve pro,plumbing,3\n"
+                + "voltamp switch kit,electrical,3\n"
+                + "fernleaf hose pack,plumbing,1\n"
+                + "aquaflow drain steel,garden,0\n");
+        LabelledData test = LabelledData.read(testFile, config.data());
+        TrainingRun run = TrainingRun.withTestData(config, LabelledData.read(Path.of(config.data().file()), config.data()), test);
+        TrainingRun.Result result = run.run(Progress.NONE);
+        assertThat(result.test().overall().get(Metric.ACCURACY)).isCloseTo(6.0 / 7.0, within(1e-12));
+        // the manifest keeps the rows of weight > 0 (3) and the weights they sum to (7)
+        com.fasterxml.jackson.databind.JsonNode confusion = Bundle.read(BundleAssembler.assemble(config, run.data(), result, CREATED))
+                .manifest().path("metrics").path("test_confusion");
+        double rows = 0.0;
+        double weight = 0.0;
+        for (int t = 0; t < 3; t++) {
+            for (int p = 0; p < 3; p++) {
+                rows += confusion.path("counts").path(t).path(p).asDouble();
+                weight += confusion.path("weights").path(t).path(p).asDouble();
+            }
+        }
+        assertThat(rows).isEqualTo(3.0);
+        assertThat(weight).isEqualTo(7.0);
+    }
+
+    @Test
+    void rows_of_case_weight_0_count_in_no_fold_and_in_no_metric() throws IOException {
+        // 60 of 660 rows are labelled against their words; at weight 0 they neither train nor count,
+        // so every fold scores as on clean data. Counted as rows, they alone would cost each fold
+        // about 60 / 660 = 9 % of its accuracy.
+        TrainConfig config = weightedListings(600, 60);
+        LabelledData data = LabelledData.read(Path.of(config.data().file()), config.data());
+        TrainingRun.Result result = new TrainingRun(config, data).run(Progress.NONE);
+        double[] perFold = result.cv().get(Metric.ACCURACY).perFold();
+        assertThat(perFold).hasSize(4);
+        for (double accuracy : perFold) {
+            assertThat(accuracy).isGreaterThan(0.95);
+        }
+        assertThat(result.test().overall().get(Metric.ACCURACY)).isGreaterThan(0.95);
+        com.fasterxml.jackson.databind.JsonNode manifest = Bundle.read(BundleAssembler.assemble(config, data, result, CREATED)).manifest();
+        assertThat(manifest.path("provenance").path("config").path("data").path("weight").asText()).isEqualTo("w");
+    }
+
+    @Test
+    void a_part_whose_rows_all_weigh_0_is_refused_naming_it() throws IOException {
+        TrainConfig config = weightedListings(600, 0);
+        Path testFile = dir.resolve("held-out.csv");
+        Files.writeString(testFile, "title,department,w\naquaflow valve pro,plumbing,0\nvoltamp switch kit,electrical,0\n");
+        TrainingRun run = TrainingRun.withTestData(config, LabelledData.read(Path.of(config.data().file()), config.data()),
+                LabelledData.read(testFile, config.data()));
+        assertThatThrownBy(() -> run.run(Progress.NONE)).hasMessageContaining("the test part")
+                .hasMessageContaining("case weight 0").hasMessageContaining("\"w\"");
+    }
+
     private static LabelledData groupedData(TrainConfig config) {
         return LabelledData.read(Path.of(config.data().file()), config.data().text(), config.data().label(),
                 config.data().group(), false);
