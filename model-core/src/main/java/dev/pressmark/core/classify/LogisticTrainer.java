@@ -73,13 +73,8 @@ public final class LogisticTrainer implements Trainer<LogisticModel> {
 
     private double[][] solve(SparseMatrix x, int[] labels, int[] positiveClasses, double[] cost, long seed,
             List<SolverRun> runs, WarmStart warm) {
-        double[] shared = warm == null ? new double[x.rows()] : null;
-        int[] problem = {0};
-        return OneVsRest.solve(x, labels, positiveClasses, cost, seed, (positive, costs, random, w) -> {
-            int k = problem[0]++;
-            double scale = warm != null && warm.has(k, x.rows()) ? warm.scaleTo(config.c()) : 0.0;
-            double[] alpha = warm == null ? shared : warm.alpha(k, x.rows());
-            return LogisticSolver.solve(x, positive, costs, config, random, w, alpha, scale);
-        }, runs);
+        return OneVsRest.solve(x, labels, positiveClasses, cost, seed, runs, warm, config.c(),
+                (positive, costs, random, w, alpha, scale) ->
+                        LogisticSolver.solve(x, positive, costs, config, random, w, alpha, scale));
     }
 }

@@ -16,7 +16,31 @@ final class OneVsRest {
         SolverRun solve(boolean[] positive, double[] cost, SplittableRandom random, double[] w);
     }
 
+    /** One binary solve that may start from given duals: {@link BinarySolver} plus the start and its scale. */
+    @FunctionalInterface
+    interface StartingSolver {
+        SolverRun solve(boolean[] positive, double[] cost, SplittableRandom random, double[] w, double[] alpha,
+                double scale);
+    }
+
     private OneVsRest() {
+    }
+
+    /**
+     * {@link #solve} with each binary problem started from {@code warm}'s duals for it, scaled to
+     * {@code c}, when {@code warm} has them; without {@code warm}, every problem starts from zero
+     * duals in one shared array.
+     */
+    static double[][] solve(SparseMatrix x, int[] labels, int[] positiveClasses, double[] cost, long seed,
+            List<SolverRun> runs, WarmStart warm, double c, StartingSolver solver) {
+        double[] shared = warm == null ? new double[x.rows()] : null;
+        int[] problem = {0};
+        return solve(x, labels, positiveClasses, cost, seed, (positive, costs, random, w) -> {
+            int k = problem[0]++;
+            double scale = warm != null && warm.has(k, x.rows()) ? warm.scaleTo(c) : 0.0;
+            double[] alpha = warm == null ? shared : warm.alpha(k, x.rows());
+            return solver.solve(positive, costs, random, w, alpha, scale);
+        }, runs);
     }
 
     /** The classes that are the positive side of each binary problem, in score order. */
