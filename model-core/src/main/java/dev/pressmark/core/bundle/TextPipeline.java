@@ -186,8 +186,9 @@ public final class TextPipeline {
                 int view = tagged == null ? 0 : tagged.viewOf(token);
                 boolean known;
                 if (view >= 0 && views.get(view).isWordPiece()) {
-                    known = !token.endsWith(WordPieceVocabulary.UNK)
-                            || token.length() != WordPieceVocabulary.UNK.length() + prefixLength(tagged, view);
+                    int from = prefixLength(tagged, view);
+                    known = !(token.length() - from == WordPieceVocabulary.UNK.length()
+                            && token.startsWith(WordPieceVocabulary.UNK, from));
                 } else {
                     known = features.indexOf(features.columns().get(c), token) >= 0;
                 }

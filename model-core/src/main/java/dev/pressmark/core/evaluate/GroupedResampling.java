@@ -55,7 +55,7 @@ final class GroupedResampling {
                     + (smallest > testTarget ? "the smallest group has " + smallest
                             : "every group that fits holds the only rows of a class"));
         }
-        return new GroupedSplit(toSplit(held, testRows), (double) testRows / table.rowCount, largestFirst(oversized));
+        return new GroupedSplit(Split.ofHeld(held, testRows), (double) testRows / table.rowCount, largestFirst(oversized));
     }
 
     static GroupedFolds kFold(int[] labels, int[] groups, int classCount, int folds, int repeats, long seed) {
@@ -179,21 +179,6 @@ final class GroupedResampling {
             }
         }
         return 0;
-    }
-
-    private static Split toSplit(boolean[] held, int testRows) {
-        int[] train = new int[held.length - testRows];
-        int[] test = new int[testRows];
-        int nTrain = 0;
-        int nTest = 0;
-        for (int row = 0; row < held.length; row++) {
-            if (held[row]) {
-                test[nTest++] = row;
-            } else {
-                train[nTrain++] = row;
-            }
-        }
-        return new Split(train, test);
     }
 
     private static List<OversizedGroup> largestFirst(List<OversizedGroup> groups) {

@@ -118,18 +118,7 @@ public final class Resampling {
             }
             testSize += take;
         }
-        int[] train = new int[labels.length - testSize];
-        int[] test = new int[testSize];
-        int nTrain = 0;
-        int nTest = 0;
-        for (int row = 0; row < held.length; row++) {
-            if (held[row]) {
-                test[nTest++] = row;
-            } else {
-                train[nTrain++] = row;
-            }
-        }
-        return new Split(train, test);
+        return Split.ofHeld(held, testSize);
     }
 
     /** The documented rounding of {@link #stratifiedSplit}: half up, capped at {@code n − 1}. */

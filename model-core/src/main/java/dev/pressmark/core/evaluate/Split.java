@@ -14,6 +14,22 @@ public record Split(int[] train, int[] test) {
         RowIndices.requireDisjoint(train, test);
     }
 
+    /** The split that holds out the rows marked in {@code held}, {@code testRows} of them. */
+    static Split ofHeld(boolean[] held, int testRows) {
+        int[] train = new int[held.length - testRows];
+        int[] test = new int[testRows];
+        int nTrain = 0;
+        int nTest = 0;
+        for (int row = 0; row < held.length; row++) {
+            if (held[row]) {
+                test[nTest++] = row;
+            } else {
+                train[nTrain++] = row;
+            }
+        }
+        return new Split(train, test);
+    }
+
     @Override
     public int[] train() {
         return train.clone();
