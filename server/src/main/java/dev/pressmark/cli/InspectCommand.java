@@ -42,10 +42,10 @@ final class InspectCommand implements Callable<Integer> {
             System.out.println(new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValueAsString(copy));
             return Main.EXIT_OK;
         }
-        System.out.printf(Locale.ROOT, "name      %s%ncreated   %s%nlabels    %s%nfields    %s%nclassifier %s%n",
+        System.out.printf(Locale.ROOT, "name       %s%ncreated    %s%nlabels     %s%nfields     %s%nclassifier %s%n",
                 loaded.name(), manifest.path("created").asText(), String.join(", ", loaded.labels()),
                 String.join(", ", loaded.inputFields()), manifest.path("classifier").path("kind").asText());
-        System.out.printf(Locale.ROOT, "data      %s (sha256 %s)%n", manifest.path("provenance").path("data_file").asText(),
+        System.out.printf(Locale.ROOT, "data       %s (sha256 %s)%n", manifest.path("provenance").path("data_file").asText(),
                 manifest.path("provenance").path("data_sha256").asText());
         System.out.printf(Locale.ROOT, "%nmetric             cross-validation       test%n");
         for (Map.Entry<String, JsonNode> metric : manifest.path("metrics").path("cv").properties()) {

@@ -25,12 +25,13 @@ import picocli.CommandLine.Option;
         name = "train",
         mixinStandardHelpOptions = true,
         description = {
-            "Train a classifier from a labelled CSV as train.yaml says: cross-validate on the training part,",
-            "test once on the held-out part, and write the bundle FILE and its report FILE.html.",
-            "The bundle's created time is SOURCE_DATE_EPOCH when set, else the data file's modification time,",
-            "so the same config on the same data gives the same bytes.",
-            "With a search section, the grid's candidates are cross-validated on the training part;",
-            "the chosen one is trained on the whole training part and tested once."
+            // each entry is one paragraph, and the first is the summary the command list shows: whole sentences
+            "Train a classifier from a labelled CSV as train.yaml says and write the bundle FILE and its report FILE.html.",
+            "The classifier is cross-validated on the training part and tested once on the held-out part.",
+            "The bundle's created time is SOURCE_DATE_EPOCH when set, else the data file's modification time,"
+                    + " so the same config on the same data gives the same bytes.",
+            "With a search section, the grid's candidates are cross-validated on the training part;"
+                    + " the chosen one is trained on the whole training part and tested once."
         })
 final class TrainCommand implements Callable<Integer> {
 

@@ -149,6 +149,7 @@ public final class PressmarkServer implements AutoCloseable {
         readable(app, "/models/{name}/shadow", routes::shadow);
         app.delete("/models/{name}/shadow", admission.bounded(routes::stopShadow));
         app.post("/models/{name}/rollback", admission.bounded(routes::rollback));
+        app.post("/models/{name}/versions/{tag}/retire", admission.bounded(routes::retire));
         readable(app, "/metrics", ctx -> {
             // per-label prediction counts and the served versions are for readers, unless opened to a scraper
             if (!config.openMetrics()) {

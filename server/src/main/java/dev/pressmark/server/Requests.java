@@ -139,6 +139,15 @@ final class Requests {
         return new ActivateBody(tag, forced, why);
     }
 
+    /**
+     * {@code {"reason": "..."}}, the body of {@code POST /models/{name}/versions/{tag}/retire}: the
+     * reason as given; the store decides whether it is one ({@link dev.pressmark.store.Names#requiredReason}).
+     */
+    static String retireReason(JsonNode body) {
+        onlyMembers(body, Set.of("reason"));
+        return requiredString(body, "reason");
+    }
+
     /** {@code {"tag": "...", "fraction": 0.2}}; the fraction is in (0, 1] and defaults to {@link Shadow#DEFAULT_FRACTION}. */
     static ShadowBody shadowBody(JsonNode body) {
         onlyMembers(body, Set.of("tag", "fraction"));
