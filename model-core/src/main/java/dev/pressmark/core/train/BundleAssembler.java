@@ -8,6 +8,7 @@ import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.Manifest;
 import dev.pressmark.core.bundle.TextPipeline;
 import dev.pressmark.core.drift.DriftProfile;
+import dev.pressmark.core.drift.LengthSummary;
 import dev.pressmark.core.evaluate.ConfusionMatrix;
 import dev.pressmark.core.evaluate.Metric;
 import dev.pressmark.core.evaluate.MetricSummary;
@@ -16,13 +17,13 @@ import dev.pressmark.core.feature.FeatureConfig;
 import dev.pressmark.core.feature.FeatureSpace;
 import java.time.Instant;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.HashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
 import java.util.OptionalDouble;
 import java.util.OptionalInt;
+import java.util.OptionalLong;
 import java.util.SortedMap;
 import java.util.TreeMap;
 
@@ -53,7 +54,7 @@ public final class BundleAssembler {
     /** {@link #assemble}, with the bundle its bytes hold. */
     static Bundle.Built build(TrainConfig config, LabelledData data, TrainingRun.Result result, Instant created) {
         return Bundle.build(manifest(config, data, result, created), result.labels(), result.pipeline(), result.model(),
-                profile(result, data));
+                profile(result, data).toJson());
     }
 
     /** The manifest's parts that training records; {@link Bundle#build} adds the model's own. */
@@ -150,7 +151,7 @@ public final class BundleAssembler {
     }
 
     /** What the training rows looked like, so that live traffic can be compared with it later. */
-    static ObjectNode profile(TrainingRun.Result result, LabelledData data) {
+    static DriftProfile profile(TrainingRun.Result result, LabelledData data) {
         TextPipeline pipeline = result.pipeline();
         int[] trainRows = result.trainRows();
         long tokens = 0;
@@ -168,34 +169,15 @@ public final class BundleAssembler {
             tokens += lengths[i];
             unknown += pipeline.unknownTokens(row);
         }
-        ObjectNode profile = JSON.createObjectNode();
-        profile.put("rows", trainRows.length);
-        profile.put("tokens", tokens);
-        profile.put("unknown_rate", tokens == 0 ? 0.0 : (double) unknown / tokens);
+        FeatureSpace features = pipeline.features();
+        List<DriftProfile.TopFeature> top = new ArrayList<>();
+        for (int j = 0; j < Math.min(PROFILE_TOKENS, features.featureCount()); j++) {
+            top.add(new DriftProfile.TopFeature(features.featureName(j), features.documentFrequency(j)));
+        }
         // Every distinct (field, token) of every row counted once: the document frequencies of all tokens, features or
         // not, summed. The drift index needs it for the share of tokens outside the top features.
-        profile.put(DriftProfile.DOCUMENT_FREQUENCY_TOTAL, documentFrequencyTotal);
-        Arrays.sort(lengths);
-        ObjectNode length = profile.putObject("tokens_per_row");
-        length.put("mean", lengths.length == 0 ? 0.0 : (double) tokens / lengths.length);
-        length.put("p10", quantile(lengths, 0.10));
-        length.put("p50", quantile(lengths, 0.50));
-        length.put("p90", quantile(lengths, 0.90));
-        FeatureSpace features = pipeline.features();
-        ArrayNode top = profile.putArray("top_features");
-        for (int j = 0; j < Math.min(PROFILE_TOKENS, features.featureCount()); j++) {
-            top.addObject().put("feature", features.featureName(j)).put("document_frequency", features.documentFrequency(j));
-        }
-        return profile;
-    }
-
-    /** The nearest-rank quantile of sorted values. */
-    private static int quantile(int[] sorted, double q) {
-        if (sorted.length == 0) {
-            return 0;
-        }
-        int rank = (int) Math.ceil(q * sorted.length);
-        return sorted[Math.max(0, Math.min(sorted.length - 1, rank - 1))];
+        return new DriftProfile(trainRows.length, tokens, tokens == 0 ? 0.0 : (double) unknown / tokens, LengthSummary.of(lengths), top,
+                OptionalLong.of(documentFrequencyTotal));
     }
 
     private static String libraryVersion() {

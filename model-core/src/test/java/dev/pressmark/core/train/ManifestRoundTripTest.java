@@ -2,10 +2,13 @@ package dev.pressmark.core.train;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.core.Progress;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.bundle.Manifest;
+import dev.pressmark.core.drift.DriftProfile;
 import java.io.ByteArrayInputStream;
 import java.io.IOException;
 import java.io.InputStream;
@@ -22,7 +25,7 @@ import org.junit.jupiter.api.io.TempDir;
 /**
  * Every kind of manifest the project writes (the frozen format-1 bundle, and training's with one
  * view and several, a search, groups, a test file and case weights) read into {@link Manifest}
- * and written again gives back its {@code manifest.json} byte for byte.
+ * and written again gives back its {@code manifest.json} byte for byte; likewise each profile.
  */
 class ManifestRoundTripTest {
 
@@ -51,6 +54,16 @@ class ManifestRoundTripTest {
             byte[] stored = manifestBytes(bundle.getValue());
             Manifest manifest = Manifest.parse(new String(stored, StandardCharsets.UTF_8));
             assertThat(manifest.toBytes()).as(bundle.getKey()).isEqualTo(stored);
+        }
+    }
+
+    @Test
+    void every_training_profile_written_again_from_its_record_is_the_same_tree() throws IOException {
+        ObjectMapper json = new ObjectMapper();
+        for (Map.Entry<String, byte[]> bundle : BUNDLES.entrySet()) {
+            JsonNode stored = json.readTree(BundleArchive.read(bundle.getValue()).entry(BundleArchive.PROFILE));
+            JsonNode again = json.readTree(json.writeValueAsString(DriftProfile.read(stored, bundle.getKey()).toJson()));
+            assertThat(again).as(bundle.getKey()).isEqualTo(stored);
         }
     }
 
