@@ -52,8 +52,7 @@ final class ManifestFixtures {
 
     private static byte[] train(Path dir, int labels, String section) throws IOException {
         TrainPlan plan = plan(dir, labels, section);
-        LabelledData data = LabelledData.read(Path.of(plan.config().data().file()), plan.config().data());
-        return BundleAssembler.assemble(plan.config(), data, new TrainingRun(plan, data).run(Progress.NONE), CREATED);
+        return BundleTrainer.train(plan, CREATED, Progress.NONE).bytes();
     }
 
     private static byte[] trainWithTestFile(Path dir) throws IOException {
@@ -62,8 +61,7 @@ final class ManifestFixtures {
         LabelledData data = LabelledData.read(Path.of(config.data().file()), config.data());
         Files.writeString(dir.resolve("test.csv"), listings(90, 7, 3));
         LabelledData test = LabelledData.read(dir.resolve("test.csv"), config.data().text(), config.data().label(), null, null, false);
-        TrainingRun run = TrainingRun.withTestData(plan, data, test);
-        return BundleAssembler.assemble(config, run.data(), run.run(Progress.NONE), CREATED);
+        return BundleTrainer.train(plan, data, test, CREATED, Progress.NONE).bytes();
     }
 
     /** Writes {@code listings.csv} into {@code dir}: 300 titles of {@code labels} departments. */

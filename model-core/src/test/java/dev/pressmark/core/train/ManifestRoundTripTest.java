@@ -7,6 +7,7 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.pressmark.core.Progress;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.BundleArchive;
+import dev.pressmark.core.bundle.HtmlReport;
 import dev.pressmark.core.bundle.Manifest;
 import dev.pressmark.core.drift.DriftProfile;
 import java.io.ByteArrayInputStream;
@@ -89,7 +90,7 @@ class ManifestRoundTripTest {
     }
 
     @Test
-    void a_bundle_built_in_memory_is_the_bundle_its_bytes_read_back_as(@TempDir Path dir) throws IOException {
+    void the_bundle_training_returns_is_the_bundle_its_bytes_read_back_as(@TempDir Path dir) throws IOException {
         TrainPlan plan = TrainPlan.parse("""
                 name: routing
                 data: {file: %s, text: [title], label: department}
@@ -99,14 +100,13 @@ class ManifestRoundTripTest {
                 evaluation: {folds: 3, threads: 1}
                 """.formatted(dir.resolve("listings.csv").toString().replace("\\", "/")), "test");
         ManifestFixtures.writeListings(dir, 3);
-        LabelledData data = LabelledData.read(Path.of(plan.config().data().file()), plan.config().data());
-        Bundle.Built built = BundleAssembler.build(plan.config(), data, new TrainingRun(plan, data).run(Progress.NONE),
-                ManifestFixtures.CREATED);
+        BundleTrainer.Trained built = BundleTrainer.train(plan, ManifestFixtures.CREATED, Progress.NONE);
         Bundle again = Bundle.read(built.bytes());
         assertThat(built.bundle().typedManifest()).isEqualTo(again.typedManifest());
         assertThat(built.bundle().manifest()).isEqualTo(again.manifest());
         assertThat(built.bundle().profile()).isEqualTo(again.profile());
         assertThat(built.bundle().predict(Map.of("title", "aquaflow valve kit")))
                 .isEqualTo(again.predict(Map.of("title", "aquaflow valve kit")));
+        assertThat(HtmlReport.render(built.bundle())).isEqualTo(HtmlReport.render(again));
     }
 }
