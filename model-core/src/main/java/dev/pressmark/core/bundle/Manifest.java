@@ -17,6 +17,7 @@ import java.util.OptionalDouble;
 import java.util.OptionalInt;
 import java.util.SortedMap;
 import java.util.TreeMap;
+import java.util.function.Function;
 
 /**
  * A bundle's {@code manifest.json}: what the bundle is (name, labels, input fields, classifier),
@@ -26,7 +27,12 @@ import java.util.TreeMap;
  *
  * <p>Only a bundle made by training has every part. An archive that is not a model (a test's, a
  * damaged one) may lack any of them, so each part a trained bundle adds is optional: absent parts
- * read as empty and are not written.
+ * read as empty and are not written. An optional top-level object with a type of its own (one that
+ * reads and writes itself, as {@link SearchSummary} does) is a {@link Section}: adding one is one
+ * constant, listed in {@link #SECTIONS}; the reader and writer need no other change.
+ *
+ * <p>The manifest's version is the bundle format's ({@code format_version}, in {@link #listing});
+ * the reader rejects one it does not know, naming it and the ones it reads.
  *
  * @param name the model's name ({@code ""} when the manifest has none)
  * @param created when it was trained, ISO-8601, as written (empty when not recorded)
@@ -37,7 +43,8 @@ import java.util.TreeMap;
  * @param provenance how the bundle was made (empty when not trained by this program)
  * @param training the training figures (empty likewise)
  * @param metrics cross-validated and test metrics (empty likewise)
- * @param search what a model search found; empty when the config had no search
+ * @param sections the optional top-level objects that have a type of their own ({@link #SEARCH}),
+ *     each present only when training recorded it
  * @param listing the format version and the entries' checksums, which the archive writer adds;
  *     empty before the bundle is written
  */
@@ -51,7 +58,7 @@ public record Manifest(
         Optional<Provenance> provenance,
         Optional<Training> training,
         Optional<Metrics> metrics,
-        Optional<SearchSummary> search,
+        Sections sections,
         Optional<Listing> listing) {
 
     /** The manifest format this reader and writer know: the bundle format's version. */
@@ -69,14 +76,14 @@ public record Manifest(
         Objects.requireNonNull(provenance, "provenance");
         Objects.requireNonNull(training, "training");
         Objects.requireNonNull(metrics, "metrics");
-        Objects.requireNonNull(search, "search");
+        Objects.requireNonNull(sections, "sections");
         Objects.requireNonNull(listing, "listing");
     }
 
     /** A manifest with a name and nothing else, for an archive made by hand. */
     public static Manifest named(String name) {
         return new Manifest(name, Optional.empty(), Optional.empty(), List.of(), List.of(), Optional.empty(), Optional.empty(),
-                Optional.empty(), Optional.empty(), Optional.empty(), Optional.empty());
+                Optional.empty(), Optional.empty(), Sections.NONE, Optional.empty());
     }
 
     /**
@@ -84,20 +91,20 @@ public record Manifest(
      * the archive's listing are added.
      */
     public static Manifest trained(String name, String created, Optional<String> positiveLabel, Provenance provenance, Training training,
-            Metrics metrics, Optional<SearchSummary> search) {
+            Metrics metrics, Sections sections) {
         return new Manifest(name, Optional.of(created), positiveLabel, List.of(), List.of(), Optional.empty(), Optional.of(provenance),
-                Optional.of(training), Optional.of(metrics), search, Optional.empty());
+                Optional.of(training), Optional.of(metrics), sections, Optional.empty());
     }
 
     /** This manifest with the model's labels, input fields and classifier. */
     public Manifest withModel(List<String> labels, List<String> inputFields, Classifier classifier) {
         return new Manifest(name, created, positiveLabel, labels, inputFields, Optional.of(classifier), provenance, training, metrics,
-                search, listing);
+                sections, listing);
     }
 
     /** This manifest with {@code listing} in place of its own. */
     public Manifest withListing(Optional<Listing> listing) {
-        return new Manifest(name, created, positiveLabel, labels, inputFields, classifier, provenance, training, metrics, search,
+        return new Manifest(name, created, positiveLabel, labels, inputFields, classifier, provenance, training, metrics, sections,
                 listing);
     }
 
@@ -116,7 +123,7 @@ public record Manifest(
                 object(node, "provenance").map(Provenance::read),
                 object(node, "training").map(Training::read),
                 object(node, "metrics").map(Metrics::read),
-                object(node, "search").map(SearchSummary::fromJson),
+                Sections.read(node),
                 Listing.read(node));
     }
 
@@ -145,14 +152,93 @@ public record Manifest(
         provenance.ifPresent(value -> node.set("provenance", value.toJson()));
         training.ifPresent(value -> node.set("training", value.toJson()));
         metrics.ifPresent(value -> node.set("metrics", value.toJson()));
-        search.ifPresent(value -> node.set("search", value.toJson()));
+        sections.writeInto(node);
         listing.ifPresent(value -> value.writeInto(node));
         return (ObjectNode) CanonicalJson.sorted(node);
     }
 
+    /** What a model search found; empty when the config had no search. */
+    public Optional<SearchSummary> search() {
+        return sections.get(SEARCH);
+    }
+
     /** The search part as JSON with its keys sorted, as the manifest holds it; empty without a search. */
     public Optional<ObjectNode> searchJson() {
-        return search.map(value -> (ObjectNode) CanonicalJson.sorted(value.toJson()));
+        return search().map(value -> (ObjectNode) CanonicalJson.sorted(value.toJson()));
+    }
+
+    /**
+     * An optional top-level object of the manifest with a type of its own, which reads and writes
+     * itself.
+     *
+     * @param key its key in the manifest
+     * @param reader reads it from its JSON object
+     * @param writer writes it as a JSON object
+     */
+    public record Section<T>(String key, Function<JsonNode, T> reader, Function<T, ? extends JsonNode> writer) {
+
+        public Section {
+            Objects.requireNonNull(key, "key");
+            Objects.requireNonNull(reader, "reader");
+            Objects.requireNonNull(writer, "writer");
+        }
+    }
+
+    /** What a model search found: every candidate's score and the chosen one. */
+    public static final Section<SearchSummary> SEARCH = new Section<>(SearchSummary.KEY, SearchSummary::fromJson, SearchSummary::toJson);
+
+    /** Every section a manifest may hold. A new optional object is one constant above, named here. */
+    static final List<Section<?>> SECTIONS = List.of(SEARCH);
+
+    /**
+     * The sections a manifest holds, by key; each value is of its {@link Section}'s type.
+     *
+     * @param values section key to value; a key absent is a section not recorded
+     */
+    public record Sections(Map<String, Object> values) {
+
+        /** No section at all. */
+        public static final Sections NONE = new Sections(Map.of());
+
+        public Sections {
+            values = Collections.unmodifiableMap(new TreeMap<>(values));
+        }
+
+        /** These sections with {@code section} set to {@code value}, or removed when {@code value} is empty. */
+        public <T> Sections with(Section<T> section, Optional<T> value) {
+            Map<String, Object> copy = new TreeMap<>(values);
+            value.ifPresentOrElse(v -> copy.put(section.key(), v), () -> copy.remove(section.key()));
+            return new Sections(copy);
+        }
+
+        /** The value of {@code section}; empty when not recorded. */
+        public <T> Optional<T> get(Section<T> section) {
+            @SuppressWarnings("unchecked") // with() and read() store only a section's own type under its key
+            T value = (T) values.get(section.key());
+            return Optional.ofNullable(value);
+        }
+
+        static Sections read(JsonNode manifest) {
+            Sections sections = NONE;
+            for (Section<?> section : SECTIONS) {
+                sections = sections.readOne(manifest, section);
+            }
+            return sections;
+        }
+
+        private <T> Sections readOne(JsonNode manifest, Section<T> section) {
+            return with(section, object(manifest, section.key()).map(section.reader()));
+        }
+
+        void writeInto(ObjectNode manifest) {
+            for (Section<?> section : SECTIONS) {
+                writeOne(manifest, section);
+            }
+        }
+
+        private <T> void writeOne(ObjectNode manifest, Section<T> section) {
+            get(section).ifPresent(value -> manifest.set(section.key(), section.writer().apply(value)));
+        }
     }
 
     /** {@link #toJson()} in the canonical form: the bytes of {@code manifest.json}. */
@@ -461,10 +547,15 @@ public record Manifest(
             if (!manifest.has(BundleArchive.FORMAT_VERSION_FIELD)) {
                 return Optional.empty();
             }
+            int version = manifest.path(BundleArchive.FORMAT_VERSION_FIELD).asInt();
+            if (version != BundleArchive.FORMAT_VERSION_1 && version != BundleArchive.FORMAT_VERSION) {
+                throw new IllegalArgumentException("manifest format_version " + manifest.path(BundleArchive.FORMAT_VERSION_FIELD)
+                        + " is not one this reader knows; it reads " + BundleArchive.FORMAT_VERSION_1 + " and " + BundleArchive.FORMAT_VERSION);
+            }
             SortedMap<String, Listed> entries = new TreeMap<>();
             manifest.path(BundleArchive.ENTRIES_FIELD).properties().forEach(field -> entries.put(field.getKey(),
                     new Listed(field.getValue().path("sha256").asText(), field.getValue().path("size").asLong())));
-            return Optional.of(new Listing(manifest.path(BundleArchive.FORMAT_VERSION_FIELD).asInt(), entries));
+            return Optional.of(new Listing(version, entries));
         }
 
         void writeInto(ObjectNode manifest) {

@@ -76,7 +76,8 @@ public final class BundleAssembler {
                 result.pipeline().features().featureCount(), result.pipeline().vocabularySize(), result.warnings());
         return Manifest.trained(config.name(), created.toString(), positive, provenance, training,
                 metrics(result, config.data().weight() != null),
-                result.search() == null ? Optional.empty() : Optional.of(result.search().summary()));
+                Manifest.Sections.NONE.with(Manifest.SEARCH,
+                        result.search() == null ? Optional.empty() : Optional.of(result.search().summary())));
     }
 
     private static String fileName(TrainConfig config) {

@@ -1,6 +1,7 @@
 package dev.pressmark.core.bundle;
 
 import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
 import com.fasterxml.jackson.databind.node.ObjectNode;
@@ -19,6 +20,7 @@ import java.util.TreeMap;
 import net.jqwik.api.Arbitraries;
 import net.jqwik.api.Arbitrary;
 import net.jqwik.api.Combinators;
+import net.jqwik.api.Example;
 import net.jqwik.api.ForAll;
 import net.jqwik.api.Property;
 import net.jqwik.api.Provide;
@@ -32,6 +34,23 @@ class ManifestPropertiesTest {
         Manifest read = Manifest.parse(new String(written, StandardCharsets.UTF_8));
         assertThat(read).isEqualTo(manifest);
         assertThat(read.toBytes()).isEqualTo(written);
+    }
+
+    @Example
+    void a_format_version_the_reader_does_not_know_is_refused_naming_it() {
+        assertThatThrownBy(() -> Manifest.parse("{\"name\":\"routing\",\"format_version\":3,\"entries\":{}}"))
+                .isInstanceOf(IllegalArgumentException.class)
+                .hasMessage("manifest format_version 3 is not one this reader knows; it reads 1 and 2");
+    }
+
+    @Example
+    void a_manifest_of_an_archive_that_is_not_a_model_reads_with_its_parts_empty() {
+        Manifest manifest = Manifest.parse("{\"name\":\"routing\"}");
+        assertThat(manifest).isEqualTo(Manifest.named("routing"));
+        assertThat(manifest.labels()).isEmpty();
+        assertThat(manifest.metrics()).isEmpty();
+        assertThat(manifest.search()).isEmpty();
+        assertThat(new String(manifest.toBytes(), StandardCharsets.UTF_8)).isEqualTo("{\"name\":\"routing\"}\n");
     }
 
     @Provide
@@ -83,7 +102,7 @@ class ManifestPropertiesTest {
                     : Optional.empty();
             List<PlattScaling> platt = has(1) ? labels.stream().map(l -> new PlattScaling(Double.isFinite(value) ? -value : -1.0, 0.5)).toList() : List.of();
             Manifest manifest = Manifest.trained(name, "2026-01-01T00:00:00Z", k == 2 ? Optional.of(labels.get(1)) : Optional.empty(),
-                    provenance, training, metrics, search)
+                    provenance, training, metrics, Manifest.Sections.NONE.with(Manifest.SEARCH, search))
                     .withModel(labels, List.of("title", name + "_body"), new Manifest.Classifier(ModelWeights.LINEAR_SVM, !platt.isEmpty(), platt));
             return has(0) ? manifest.withListing(Optional.of(new Manifest.Listing(2, new TreeMap<>(Map.of(BundleArchive.WEIGHTS,
                     new Manifest.Listing.Listed("cd".repeat(32), count)))))) : manifest;
