@@ -1,11 +1,10 @@
 package dev.pressmark.cli;
 
 import dev.pressmark.core.PressmarkException;
-import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.HtmlReport;
 import dev.pressmark.core.evaluate.MetricSummary;
 import dev.pressmark.core.io.AtomicFiles;
-import dev.pressmark.core.train.BundleAssembler;
+import dev.pressmark.core.train.BundleTrainer;
 import dev.pressmark.core.train.LabelledData;
 import dev.pressmark.core.train.TrainConfig;
 import dev.pressmark.core.train.TrainPlan;
@@ -57,15 +56,15 @@ final class TrainCommand implements Callable<Integer> {
         LabelledData data = LabelledData.read(dataFile, trainConfig.data());
         System.err.printf(Locale.ROOT, "pressmark: %s: %,d rows%s%n", dataFile, data.rows(),
                 data.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", data.droppedRows()) : "");
-        TrainingRun run = testData == null ? new TrainingRun(plan, data) : withTestData(plan, data);
-        if (run.positiveClass() >= 0) {
-            System.err.println("pressmark: positive class for binary metrics: " + run.labels().get(run.positiveClass()));
-        }
-        TrainingRun.Result result = run.run(new ConsoleProgress(System.err));
-        byte[] bundle = BundleAssembler.assemble(trainConfig, run.data(), result, created(dataFile));
+        Instant created = created(dataFile);
+        ConsoleProgress progress = new ConsoleProgress(System.err);
+        BundleTrainer.Trained trained = testData == null ? BundleTrainer.train(plan, data, created, progress)
+                : BundleTrainer.train(plan, data, testData(trainConfig), created, progress);
+        TrainingRun.Result result = trained.result();
+        byte[] bundle = trained.bytes();
         Path target = out != null ? out : config.toAbsolutePath().getParent().resolve(trainConfig.name() + ".pmb");
         Path report = target.resolveSibling(target.getFileName() + ".html");
-        String html = HtmlReport.render(Bundle.read(bundle));
+        String html = HtmlReport.render(trained.bundle());
         AtomicFiles.write(target, stream -> stream.write(bundle));
         AtomicFiles.write(report, stream -> stream.write(html.getBytes(StandardCharsets.UTF_8)));
         if (assignments != null) {
@@ -81,14 +80,13 @@ final class TrainCommand implements Callable<Integer> {
         return Main.EXIT_OK;
     }
 
-    private TrainingRun withTestData(TrainPlan plan, LabelledData data) {
-        TrainConfig trainConfig = plan.config();
+    private LabelledData testData(TrainConfig trainConfig) {
         // the test file has the text, label and weight columns (its rows' groups do not matter)
         LabelledData test = LabelledData.read(testData, trainConfig.data().text(), trainConfig.data().label(), null,
                 trainConfig.data().weight(), trainConfig.data().dropIncomplete());
         System.err.printf(Locale.ROOT, "pressmark: %s: %,d test rows%s%n", testData, test.rows(),
                 test.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", test.droppedRows()) : "");
-        return TrainingRun.withTestData(plan, data, test);
+        return test;
     }
 
     private static Instant created(Path dataFile) throws IOException {

@@ -42,11 +42,11 @@ final class Requests {
     Requests(ObjectMapper json, ServerConfig config, Bodies bodies) {
         this.json = json;
         this.bodies = bodies;
-        this.items = new ItemsReader(json.getFactory(), config.maxItems(),
-                (int) Math.min(Integer.MAX_VALUE, (long) config.maxTokensPerField() * CHARS_PER_SCORED_TOKEN));
-        this.maxJsonBytes = config.maxJsonBytes();
-        this.maxBundleBytes = config.maxBundleBytes();
-        this.maxTokensPerField = config.maxTokensPerField();
+        this.items = new ItemsReader(json.getFactory(), config.limits().maxItems(),
+                (int) Math.min(Integer.MAX_VALUE, (long) config.limits().maxTokensPerField() * CHARS_PER_SCORED_TOKEN));
+        this.maxJsonBytes = config.limits().maxJsonBytes();
+        this.maxBundleBytes = config.limits().maxBundleBytes();
+        this.maxTokensPerField = config.limits().maxTokensPerField();
     }
 
     /** How many tokens of each text field are scored. */
