@@ -30,6 +30,7 @@ import java.util.Arrays;
 import java.util.List;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -38,6 +39,7 @@ import org.junit.jupiter.api.io.TempDir;
  * from a live server's /openapi.json during this build calls another live server through its
  * typed API. If the document described the answers wrongly, deserialising them would fail.
  */
+@Tag("slow") // needs the client generated from a live document during the build
 class GeneratedClientTest {
 
     /** Platt probabilities are rounded doubles: their sum is 1 to within a few ulps. */

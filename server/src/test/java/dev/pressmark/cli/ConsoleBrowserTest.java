@@ -17,6 +17,7 @@ import java.util.Map;
 import java.util.logging.Level;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.openqa.selenium.By;
@@ -39,6 +40,7 @@ import org.openqa.selenium.support.ui.WebDriverWait;
  * into the label probabilities, largest first, and colours its subwords, and a roll-back with the admin token makes v1 the active version. Screenshots go to
  * {@code target/console-*.png} for a person to look at.
  */
+@Tag("slow") // drives Chromium
 class ConsoleBrowserTest {
 
     private static final Path CHROMEDRIVER = Path.of("/usr/bin/chromedriver");

@@ -109,7 +109,7 @@ class ContainerFilesTest {
 
         HttpClient client = HttpClient.newBuilder().connectTimeout(Duration.ofSeconds(5)).build();
         try (BundleStore store = JdbcStores.open("sqlite:" + dir.resolve("store.db"));
-                PressmarkServer server = PressmarkServer.start(store, ServerConfig.defaults().withPort(0))) {
+                PressmarkServer server = PressmarkServer.start(store, ServerConfig.defaults().withPort(0).withAccessLog(false))) {
             for (String path : paths) {
                 HttpResponse<String> response = client.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + server.port() + path))
                         .timeout(Duration.ofSeconds(5)).build(), HttpResponse.BodyHandlers.ofString());

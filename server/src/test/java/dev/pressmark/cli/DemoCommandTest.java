@@ -22,6 +22,7 @@ import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.TimeUnit;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -38,6 +39,7 @@ class DemoCommandTest {
     Path dir;
 
     @Test
+    @Tag("slow") // trains two versions in a child JVM, over 10 s
     void is_ready_within_a_minute_with_the_subword_version_ahead_and_removes_its_store_when_stopped() throws Exception {
         long started = System.nanoTime();
         Process process = new ProcessBuilder(Path.of(System.getProperty("java.home"), "bin", "java").toString(),

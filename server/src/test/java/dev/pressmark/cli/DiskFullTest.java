@@ -12,6 +12,7 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.Optional;
 import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -24,6 +25,7 @@ import org.junit.jupiter.api.io.TempDir;
  * was: verify passes, every earlier version loads, the failed tag is absent, the active version
  * unchanged.
  */
+@Tag("slow") // a child JVM on a full file system (unshare)
 class DiskFullTest {
 
     /** Far larger than the room left on the file system, and incompressible (random), so the write must hit the limit. */

@@ -24,6 +24,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.SplittableRandom;
 import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import picocli.CommandLine;
@@ -148,6 +149,7 @@ class PredictBatchTest {
     }
 
     @Test
+    @Tag("slow") // a child JVM
     void skip_bad_rows_leaves_them_out_counts_them_and_names_their_lines() throws IOException {
         Files.write(dir.resolve("m.pmb"), LoadableBundles.of(5, FIELDS, LABELS, 40, true));
         Files.writeString(dir.resolve("bad.csv"), "brand,id,title\nA,1,w1\nA,2\nA,3,w3\n\"B\nC\",4\nA,5,w5,extra\nA,6,w6\n");

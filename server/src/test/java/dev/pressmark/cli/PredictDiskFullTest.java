@@ -7,6 +7,7 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -16,6 +17,7 @@ import org.junit.jupiter.api.io.TempDir;
  * {@link DiskFullTest} does for the store. The command must fail with exit 1 and one line naming
  * the file and the cause, and leave nothing behind: no output file and no temporary file.
  */
+@Tag("slow") // a child JVM on a full file system (unshare)
 class PredictDiskFullTest {
 
     /** Room on the tmpfs: far less than the output of {@link #ROWS} rows with probabilities. */

@@ -6,6 +6,7 @@ import java.io.RandomAccessFile;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Map;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -13,6 +14,7 @@ import org.junit.jupiter.api.io.TempDir;
  * {@code pressmark publish} of inputs that are no bundle file, at a heap smaller than them: each is
  * one line and exit 1, never an OutOfMemoryError. Child JVMs with {@code -Xmx256m}.
  */
+@Tag("slow") // a child JVM per case
 class PublishInputTest {
 
     private static final String HEAP = "-Xmx256m";

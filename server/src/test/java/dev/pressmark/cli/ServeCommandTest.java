@@ -14,10 +14,12 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.Map;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 /** {@code pressmark serve} in a child JVM, as an operator starts it. */
+@Tag("slow") // serve child processes; over 10 s
 class ServeCommandTest {
 
     private static final Duration TIMEOUT = Duration.ofSeconds(60);

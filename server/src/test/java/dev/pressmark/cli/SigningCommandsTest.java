@@ -15,10 +15,12 @@ import java.security.Signature;
 import java.util.Base64;
 import java.util.HexFormat;
 import java.util.List;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 /** keygen, sign, trust and publish as a user runs them: child JVMs in one directory with the default store. */
+@Tag("slow") // a child JVM per command; over 10 s
 class SigningCommandsTest {
 
     @TempDir

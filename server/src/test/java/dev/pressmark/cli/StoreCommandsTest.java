@@ -15,10 +15,12 @@ import java.sql.DriverManager;
 import java.sql.PreparedStatement;
 import java.util.HexFormat;
 import java.util.Map;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 /** The store commands as a user runs them: a child JVM in an empty directory, the default store. */
+@Tag("slow") // a child JVM per command; over 10 s
 class StoreCommandsTest {
 
     @TempDir

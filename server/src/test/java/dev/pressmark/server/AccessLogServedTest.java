@@ -49,7 +49,7 @@ class AccessLogServedTest {
 
     @Test
     void each_request_gives_one_line_with_its_fields_and_no_secret() throws InterruptedException {
-        ServerConfig config = Served.config()
+        ServerConfig config = Served.config().withAccessLog(true)
                 .withReaderToken(Optional.of(BearerToken.of(Served.READER)));
         String[] asReader = {"Authorization", "Bearer " + Served.READER, "X-Api-Key", HEADER_SECRET};
         try (Served s = Served.on(dir, config)) {

@@ -140,7 +140,7 @@ class DriftEndpointTest {
 
     @Test
     void reading_the_window_needs_the_reader_token_when_one_is_set() {
-        try (Served s = Served.on(dir, ServerConfig.defaults().withPort(0).withReaderToken(Optional.of(BearerToken.of(Served.READER))))
+        try (Served s = Served.on(dir, ServerConfig.defaults().withPort(0).withAccessLog(false).withReaderToken(Optional.of(BearerToken.of(Served.READER))))
                 .serving(first)) {
             assertThat(s.http.get("/models/routing/drift").status()).isEqualTo(401);
             assertThat(s.http.get("/models/routing/drift", "Authorization", "Bearer " + Served.READER).status()).isEqualTo(200);

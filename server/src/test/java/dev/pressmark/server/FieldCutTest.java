@@ -64,7 +64,7 @@ class FieldCutTest {
         Bundle bundle = Bundle.read(bytes);
         String title = "aqua valve flow pipe drain ".repeat(120_000); // 3.2 MB, 600,000 words
         Prediction whole = bundle.predict(List.of(Map.of("title", title)), ServerConfig.DEFAULT_MAX_TOKENS_PER_FIELD).get(0);
-        try (Served s = Served.on(dir, ServerConfig.defaults().withPort(0)).serving(bytes)) {
+        try (Served s = Served.on(dir, ServerConfig.defaults().withPort(0).withAccessLog(false)).serving(bytes)) {
             Http.Answer answer = s.http.postJson("/models/routing/predict", "{\"items\":[{\"title\":\"" + title + "\"}]}");
             assertThat(answer.status()).isEqualTo(200);
             var result = answer.json().path("results").get(0);

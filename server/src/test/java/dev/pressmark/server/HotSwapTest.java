@@ -20,6 +20,7 @@ import java.util.concurrent.Future;
 import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.concurrent.atomic.AtomicLong;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -108,6 +109,7 @@ class HotSwapTest {
     }
 
     @Test
+    @Tag("slow") // soak-like: 10.5 s of flips
     void clients_predicting_while_the_active_version_flips_every_200_ms_see_no_failure() throws Exception {
         // four clients per core and about 50 activations, so that requests are in flight whenever a swap lands
         int clients = 8;

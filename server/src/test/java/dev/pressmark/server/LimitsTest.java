@@ -39,7 +39,7 @@ class LimitsTest {
 
     @Test
     void beyond_the_concurrency_bound_a_model_request_is_a_503_with_retry_after_and_health_still_answers() throws Exception {
-        try (Served s = served(ServerConfig.defaults().withPort(0).withMaxConcurrent(1));
+        try (Served s = served(ServerConfig.defaults().withPort(0).withAccessLog(false).withMaxConcurrent(1));
                 Socket held = new Socket(InetAddress.getLoopbackAddress(), s.server.port())) {
             held.setSoTimeout(30_000);
             byte[] body = GOOD.getBytes(StandardCharsets.UTF_8);
@@ -80,7 +80,7 @@ class LimitsTest {
 
     @Test
     void an_over_long_field_is_cut_to_the_configured_tokens_and_the_answer_says_by_how_much() throws Exception {
-        try (Served s = served(ServerConfig.defaults().withPort(0).withMaxTokensPerField(4))) {
+        try (Served s = served(ServerConfig.defaults().withPort(0).withAccessLog(false).withMaxTokensPerField(4))) {
             String title = "aqua valve flow pipe drain volt amp switch";
             Http.Answer answer = s.http.postJson(PREDICT, "{\"items\":[{\"title\":\"" + title + "\"},{\"title\":\"aqua\"}]}");
             assertThat(answer.status()).isEqualTo(200);
@@ -94,7 +94,7 @@ class LimitsTest {
             Http.Answer explained = s.http.postJson("/models/routing/explain?k=3", "{\"items\":[{\"title\":\"" + title + "\"}]}");
             assertThat(explained.json().path("results").get(0).path("truncated_tokens").asInt()).isEqualTo(expected.truncatedTokens());
         }
-        try (Served s = served(ServerConfig.defaults().withPort(0))) {
+        try (Served s = served(ServerConfig.defaults().withPort(0).withAccessLog(false))) {
             String huge = "valve ".repeat(500_000);
             Http.Answer answer = s.http.postJson(PREDICT, "{\"items\":[{\"title\":\"" + huge + "\"}]}");
             assertThat(answer.status()).isEqualTo(200);
@@ -114,10 +114,10 @@ class LimitsTest {
     @Test
     void cors_is_off_by_default_and_answers_only_the_named_origins_when_on() throws IOException {
         String allowed = "http://console.example.test:8443";
-        try (Served s = served(ServerConfig.defaults().withPort(0))) {
+        try (Served s = served(ServerConfig.defaults().withPort(0).withAccessLog(false))) {
             assertThat(allowOrigin(s, "GET", "http://elsewhere.example.test")).isEmpty();
         }
-        try (Served s = served(ServerConfig.defaults().withPort(0).withCorsOrigins(List.of(allowed)))) {
+        try (Served s = served(ServerConfig.defaults().withPort(0).withAccessLog(false).withCorsOrigins(List.of(allowed)))) {
             assertThat(allowOrigin(s, "GET", allowed)).contains(allowed);
             assertThat(allowOrigin(s, "GET", "http://elsewhere.example.test")).isEmpty();
             assertThat(allowOrigin(s, "OPTIONS", allowed)).contains(allowed);

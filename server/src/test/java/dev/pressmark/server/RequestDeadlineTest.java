@@ -6,6 +6,7 @@ import static org.assertj.core.api.Assertions.assertThatThrownBy;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -63,8 +64,9 @@ class RequestDeadlineTest {
     }
 
     @Test
+    @Tag("slow") // scores a large batch, 5 to 10 s
     void the_same_batch_under_the_default_deadline_is_answered_in_full() throws Exception {
-        try (Served s = served("default", ServerConfig.defaults().withPort(0))) {
+        try (Served s = served("default", ServerConfig.defaults().withPort(0).withAccessLog(false))) {
             Http.Answer answer = s.http.postJson("/models/routing/predict", hugeBatch);
             assertThat(answer.status()).as(answer.body().substring(0, Math.min(300, answer.body().length()))).isEqualTo(200);
             assertThat(answer.json().get("results").size()).isEqualTo(ITEMS);

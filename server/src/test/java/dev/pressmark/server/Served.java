@@ -29,9 +29,12 @@ final class Served implements AutoCloseable {
         this.http = new Http(server.port());
     }
 
-    /** The config {@link #on(Path)} serves with: a free loopback port, the admin token, no reader token. */
+    /**
+     * The config {@link #on(Path)} serves with: a free loopback port, the admin token, no reader token, and
+     * no access log (the tests that check it turn it on), so that thousands of requests leave no line each.
+     */
     static ServerConfig config() {
-        return ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(ADMIN)));
+        return ServerConfig.defaults().withPort(0).withAdminToken(Optional.of(BearerToken.of(ADMIN))).withAccessLog(false);
     }
 
     /** With the admin token and no reader token. */

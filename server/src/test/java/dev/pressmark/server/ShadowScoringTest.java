@@ -21,6 +21,7 @@ import java.util.TreeMap;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
 import java.util.function.Predicate;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -195,6 +196,7 @@ class ShadowScoringTest {
     }
 
     @Test
+    @Tag("slow") // waits on the store's change feed, about 4 s
     void a_shadow_started_through_another_store_handle_is_picked_up_within_two_seconds_and_its_report_reaches_the_store() throws Exception {
         try (Served s = servingTwo(dir, Served.config()); var cli = JdbcStores.open(s.storeUrl)) {
             assertThat(s.http.get("/models/routing/shadow").status()).isEqualTo(404);

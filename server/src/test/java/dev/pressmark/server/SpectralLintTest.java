@@ -12,6 +12,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Optional;
 import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -21,6 +22,7 @@ import org.junit.jupiter.api.io.TempDir;
  * {@code pressmark.spectral}; .ci/run installs it, so CI always runs this check. Without the
  * binary the test is skipped and says how to install it.
  */
+@Tag("slow") // runs the Spectral linter (Node) on a live document
 class SpectralLintTest {
 
     /** Spectral's severities in its JSON output. */

@@ -20,6 +20,7 @@ import java.sql.Statement;
 import java.time.Duration;
 import java.util.Map;
 import java.util.function.Predicate;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -34,6 +35,7 @@ import org.junit.jupiter.api.io.TempDir;
  * same port over the same data directory. As root it runs through {@code unshare -U}, as the
  * other PostgreSQL tests do.
  */
+@Tag("slow") // outages of an embedded PostgreSQL under a serve process
 class StoreOutageTest {
 
     /** A bound on each wait for the service to notice a change; it retries at most every 5 s and a pool timeout is 10 s. */

@@ -1,6 +1,7 @@
 package dev.pressmark.core.classify;
 
 import de.bwaldvogel.liblinear.SolverType;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 
 /**
@@ -9,6 +10,7 @@ import org.junit.jupiter.api.Test;
  * ham and easy ham / hard ham / spam, featurised as {@link SpamCorpus} describes. Fails, rather
  * than skips, when the corpus has not been fetched.
  */
+@Tag("slow") // the mail corpus
 class LiblinearSpamAssassinTest {
 
     /** Tight enough on both sides that the objectives agree to far better than 0.1 %. */

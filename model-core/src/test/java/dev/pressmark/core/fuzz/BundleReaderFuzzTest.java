@@ -19,6 +19,7 @@ import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import org.junit.jupiter.api.Tag;
 
 /**
  * Hostile bundle files. A bundle comes from a user's disk or an upload, so reading one must either
@@ -36,6 +37,7 @@ import java.util.Map;
  * good checksums, weights whose header sizes overflow, NaN weights, bad feature statistics, bad
  * vocabularies, labels that do not match the weights.
  */
+@Tag("slow") // Jazzer's agent instruments every class loaded after it (over 10 s); scripts/fuzz.sh fuzzes these
 final class BundleReaderFuzzTest {
 
     private static final ObjectMapper JSON = new ObjectMapper();

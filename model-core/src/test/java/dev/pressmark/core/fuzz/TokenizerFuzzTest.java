@@ -11,6 +11,7 @@ import dev.pressmark.core.tokenize.WordPieceEncoder;
 import dev.pressmark.core.tokenize.WordPieceVocabulary;
 import java.util.ArrayList;
 import java.util.List;
+import org.junit.jupiter.api.Tag;
 
 /**
  * Arbitrary text through the normaliser, the pre-tokenizer and the WordPiece encoder. Nothing may
@@ -23,6 +24,7 @@ import java.util.List;
  * the text. The seeds under {@code TokenizerFuzzTestInputs} hold accented Latin, a dotted capital
  * I, CJK ideographs, emoji (surrogate pairs), lone surrogates, control and format characters.
  */
+@Tag("slow") // Jazzer's agent instruments every class loaded after it (over 10 s); scripts/fuzz.sh fuzzes these
 final class TokenizerFuzzTest {
 
     /**

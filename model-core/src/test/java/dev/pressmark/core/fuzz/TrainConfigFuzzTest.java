@@ -6,6 +6,7 @@ import com.code_intelligence.jazzer.api.FuzzedDataProvider;
 import com.code_intelligence.jazzer.junit.FuzzTest;
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.train.TrainConfig;
+import org.junit.jupiter.api.Tag;
 
 /**
  * Arbitrary text as {@code train.yaml}. The parser either returns a config whose values passed
@@ -15,6 +16,7 @@ import dev.pressmark.core.train.TrainConfig;
  * <p>Seeds: the example config of the design note, and configs with an unknown key, wrong types,
  * nulls in a list, anchors and aliases, flow and block styles mixed, and deep nesting.
  */
+@Tag("slow") // Jazzer's agent instruments every class loaded after it (over 10 s); scripts/fuzz.sh fuzzes these
 final class TrainConfigFuzzTest {
 
     private static final String SOURCE = "train.yaml";

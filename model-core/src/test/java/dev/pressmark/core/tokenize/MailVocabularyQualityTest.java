@@ -7,6 +7,7 @@ import dev.pressmark.core.reference.MailCorpus;
 import dev.pressmark.core.text.TextNormalizer;
 import java.util.List;
 import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.TestInstance;
 
@@ -17,6 +18,7 @@ import org.junit.jupiter.api.TestInstance;
  * more tokens for the common words.
  */
 @TestInstance(TestInstance.Lifecycle.PER_CLASS)
+@Tag("slow") // trains vocabularies on the mail corpus
 class MailVocabularyQualityTest {
 
     /*

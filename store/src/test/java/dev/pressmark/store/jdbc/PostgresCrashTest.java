@@ -2,6 +2,7 @@ package dev.pressmark.store.jdbc;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 
 /**
@@ -11,6 +12,7 @@ import org.junit.jupiter.api.Test;
  * tutorial section 3.4). The server runs with {@code fsync=off}: the server does not crash here,
  * only its client, so durability across power loss is not under test.
  */
+@Tag("slow") // crash trials on an embedded PostgreSQL
 class PostgresCrashTest {
 
     static final long SEED = 20_261_203L;

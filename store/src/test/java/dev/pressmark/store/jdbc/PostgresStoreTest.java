@@ -14,8 +14,10 @@ import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
 import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 
+@Tag("slow") // the contract suite on an embedded PostgreSQL, over 10 s
 class PostgresStoreTest extends BundleStoreContract {
 
     private final String[] schema = new String[1];

@@ -7,6 +7,7 @@ import java.sql.Connection;
 import java.sql.DriverManager;
 import java.sql.ResultSet;
 import java.sql.Statement;
+import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -16,6 +17,7 @@ import org.junit.jupiter.api.io.TempDir;
  * one stays (sqlite.org, "Atomic Commit In SQLite"; in WAL mode, sqlite.org, "Write-Ahead
  * Logging"). At the end {@code PRAGMA integrity_check} must also say ok.
  */
+@Tag("slow") // crash trials: SIGKILLed child processes
 class SqliteCrashTest {
 
     static final long SEED = 20_261_202L;
