@@ -68,11 +68,13 @@ client_cmd() { if [ -n "$client_cpu" ]; then taskset -c "$client_cpu" "$@"; else
 work="$(mktemp -d)"
 server_pid=""
 sampler=""
+# $1: how many tenths of a second to wait for a clean exit before SIGKILL (default 100).
 stop_server() {
+  local tenths="${1:-100}"
   if [ -n "$server_pid" ] && kill -0 "$server_pid" 2>/dev/null; then
     kill "$server_pid" 2>/dev/null || true
     local i
-    for i in $(seq 100); do kill -0 "$server_pid" 2>/dev/null || break; sleep 0.1; done
+    for i in $(seq "$tenths"); do kill -0 "$server_pid" 2>/dev/null || break; sleep 0.1; done
     kill -0 "$server_pid" 2>/dev/null && kill -9 "$server_pid" 2>/dev/null
     wait "$server_pid" 2>/dev/null || true
   fi
@@ -151,7 +153,9 @@ for i in $(seq 1 "$VERSIONS"); do
 done
 curl -sf -o /dev/null -X PUT -H "Authorization: Bearer $token" -H "Content-Type: application/json" \
   --data '{"tag":"v'"$VERSIONS"'"}' "http://127.0.0.1:$port/models/routing/active" || die "activating v$VERSIONS failed"
-stop_server
+# The JVM writes the class-data archive as it exits, which takes many seconds on a loaded machine:
+# give it a minute rather than killing it half-way and measuring without an archive.
+stop_server 600
 
 # --- (a) cold start ------------------------------------------------------------------------
 echo "bench-http: (a) cold start" >&2
