@@ -8,6 +8,7 @@ import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.TextPipeline;
 import dev.pressmark.core.drift.DriftProfile;
 import dev.pressmark.core.evaluate.ConfusionMatrix;
+import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.core.evaluate.Evaluation;
 import dev.pressmark.core.evaluate.Metric;
 import dev.pressmark.core.evaluate.MetricSummary;
@@ -72,6 +73,7 @@ public final class BundleAssembler {
         training.put("vocabulary_size", result.pipeline().vocabularySize());
         ArrayNode warnings = training.putArray("warnings");
         result.warnings().forEach(warnings::add);
+        manifest.set(DuplicateCounts.KEY, result.duplicates().toJson());
         manifest.set("metrics", metrics(result, config.data().weight() != null));
         if (result.search() != null) {
             manifest.set(SearchSummary.KEY, result.search().summary().toJson());
@@ -88,7 +90,7 @@ public final class BundleAssembler {
     static JsonNode configJson(TrainConfig config) {
         ObjectNode node = JSON.valueToTree(config.withData(new DataConfig(fileName(config), config.data().text(),
                 config.data().label(), config.data().positive(), config.data().dropIncomplete(), config.data().group(),
-                config.data().weight())));
+                config.data().weight(), config.data().duplicates())));
         ObjectNode features = node.putObject("features");
         FeatureConfig settings = config.features();
         if (settings.maxTokens() == FeatureConfig.ALL) {

@@ -43,6 +43,72 @@ final class RowGroups {
         return new RowGroups(ids, List.copyOf(names));
     }
 
+    /**
+     * Groups in which rows that share a group of {@code groups} (null for none) or a text id of
+     * {@code textIds} are together: the connected components of both relations (union-find). A
+     * group is named by its first row's group value, or, without {@code groups}, by its first
+     * row's text.
+     *
+     * @param texts per row, its texts, for the names
+     */
+    static RowGroups joined(RowGroups groups, int[] textIds, List<String[]> texts) {
+        int rows = textIds.length;
+        int[] parent = new int[rows];
+        for (int i = 0; i < rows; i++) {
+            parent[i] = i;
+        }
+        int[] firstOfText = new int[TextKeys.count(textIds)];
+        java.util.Arrays.fill(firstOfText, -1);
+        int[] firstOfGroup = new int[groups == null ? 0 : groups.count()];
+        java.util.Arrays.fill(firstOfGroup, -1);
+        for (int i = 0; i < rows; i++) {
+            firstOfText[textIds[i]] = union(parent, firstOfText[textIds[i]], i);
+            if (groups != null) {
+                firstOfGroup[groups.ids[i]] = union(parent, firstOfGroup[groups.ids[i]], i);
+            }
+        }
+        int[] ids = new int[rows];
+        int[] idOfRoot = new int[rows];
+        java.util.Arrays.fill(idOfRoot, -1);
+        List<String> names = new ArrayList<>();
+        for (int i = 0; i < rows; i++) {
+            int root = find(parent, i);
+            if (idOfRoot[root] < 0) {
+                idOfRoot[root] = names.size();
+                names.add(groups != null ? groups.name(groups.ids[i]) : "text: " + shortened(String.join(" | ", texts.get(i))));
+            }
+            ids[i] = idOfRoot[root];
+        }
+        return new RowGroups(ids, List.copyOf(names));
+    }
+
+    /** Joins row {@code i} to the set of row {@code first} (none when -1); returns the set's first row. */
+    private static int union(int[] parent, int first, int i) {
+        if (first < 0) {
+            return i;
+        }
+        int a = find(parent, first);
+        int b = find(parent, i);
+        if (a != b) {
+            // the smaller index as root keeps roots stable and the trees shallow enough with path halving
+            parent[Math.max(a, b)] = Math.min(a, b);
+        }
+        return first;
+    }
+
+    private static int find(int[] parent, int i) {
+        while (parent[i] != i) {
+            parent[i] = parent[parent[i]];
+            i = parent[i];
+        }
+        return i;
+    }
+
+    private static String shortened(String text) {
+        String line = text.strip().replaceAll("\\s+", " ");
+        return line.length() <= 40 ? line : line.substring(0, 39) + "…";
+    }
+
     /** Per row, its group's id. */
     int[] ids() {
         return ids;
