@@ -6,6 +6,7 @@ import com.fasterxml.jackson.databind.SerializationFeature;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.classify.LinearWeights;
+import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.core.feature.FeatureSpace;
 import dev.pressmark.core.search.SearchSummary;
 import java.io.IOException;
@@ -47,6 +48,7 @@ final class InspectCommand implements Callable<Integer> {
                 String.join(", ", loaded.inputFields()), manifest.path("classifier").path("kind").asText());
         System.out.printf(Locale.ROOT, "data      %s (sha256 %s)%n", manifest.path("provenance").path("data_file").asText(),
                 manifest.path("provenance").path("data_sha256").asText());
+        printRows(manifest);
         System.out.printf(Locale.ROOT, "%nmetric             cross-validation       test%n");
         for (Map.Entry<String, JsonNode> metric : manifest.path("metrics").path("cv").properties()) {
             System.out.printf(Locale.ROOT, "%-18s %.3f ± %-14.3f %.3f%n", metric.getKey(), metric.getValue().path("mean").asDouble(),
@@ -68,5 +70,23 @@ final class InspectCommand implements Callable<Integer> {
             }
         }
         return Main.EXIT_OK;
+    }
+
+    /** The rows of each part, the groups when there were any, and the duplicate texts when recorded. */
+    private static void printRows(JsonNode manifest) {
+        JsonNode training = manifest.path("training");
+        String groups = "";
+        if (training.has("groups")) {
+            groups = String.format(Locale.ROOT, "; %,d groups", training.path("groups").asInt())
+                    + (training.has("test_fraction_achieved")
+                            ? String.format(Locale.ROOT, ", test fraction achieved %.4f", training.path("test_fraction_achieved").asDouble())
+                            : "");
+        }
+        System.out.printf(Locale.ROOT, "rows      %,d training, %,d test%s%n", training.path("train_rows").asInt(),
+                training.path("test_rows").asInt(), groups);
+        DuplicateCounts duplicates = DuplicateCounts.fromManifest(manifest);
+        if (duplicates != null) {
+            System.out.printf(Locale.ROOT, "duplicates %s%n", duplicates.summary());
+        }
     }
 }

@@ -3,6 +3,7 @@ package dev.pressmark.cli;
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.HtmlReport;
+import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.core.evaluate.MetricSummary;
 import dev.pressmark.core.io.AtomicFiles;
 import dev.pressmark.core.train.BundleAssembler;
@@ -15,6 +16,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Instant;
+import java.util.Arrays;
 import java.util.Locale;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
@@ -61,6 +63,10 @@ final class TrainCommand implements Callable<Integer> {
             System.err.println("pressmark: positive class for binary metrics: " + run.labels().get(run.positiveClass()));
         }
         TrainingRun.Result result = run.run(new ConsoleProgress(System.err));
+        if (result.duplicates().droppedRows() > 0) {
+            System.err.printf(Locale.ROOT, "pressmark: data.duplicates: drop left out %,d rows that repeat an earlier row's text and"
+                    + " label%n", result.duplicates().droppedRows());
+        }
         byte[] bundle = BundleAssembler.assemble(trainConfig, run.data(), result, created(dataFile));
         Path target = out != null ? out : config.toAbsolutePath().getParent().resolve(trainConfig.name() + ".pmb");
         Path report = target.resolveSibling(target.getFileName() + ".html");
@@ -68,13 +74,17 @@ final class TrainCommand implements Callable<Integer> {
         AtomicFiles.write(target, stream -> stream.write(bundle));
         AtomicFiles.write(report, stream -> stream.write(html.getBytes(StandardCharsets.UTF_8)));
         if (assignments != null) {
-            AtomicFiles.write(assignments, stream -> stream.write(
-                    AssignmentsCsv.render(data.rowNumbers(), result.foldOfRow()).getBytes(StandardCharsets.UTF_8)));
+            // the run's rows: the data file's rows it kept (data.duplicates: drop leaves repeats out), then any test file's
+            int[] rowNumbers = run.data().rowNumbers();
+            int dataRows = testData == null ? rowNumbers.length : rowNumbers.length - result.testRows().length;
+            AtomicFiles.write(assignments, stream -> stream.write(AssignmentsCsv.render(Arrays.copyOf(rowNumbers, dataRows),
+                    result.foldOfRow()).getBytes(StandardCharsets.UTF_8)));
         }
         if (result.search() != null) {
             System.out.print(SearchTable.render(result.search().summary()));
             System.out.println();
         }
+        warnAboutLeakage(result.duplicates(), testData != null);
         printSummary(result);
         System.err.println("pressmark: wrote " + target + " and " + report + (assignments == null ? "" : " and " + assignments));
         return Main.EXIT_OK;
@@ -88,6 +98,18 @@ final class TrainCommand implements Callable<Integer> {
         System.err.printf(Locale.ROOT, "pressmark: %s: %,d test rows%s%n", testData, test.rows(),
                 test.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", test.droppedRows()) : "");
         return TrainingRun.withTestData(plan, data, test);
+    }
+
+    /** One line on stderr when test rows repeat training texts, with what to do about it. */
+    static void warnAboutLeakage(DuplicateCounts duplicates, boolean testFile) {
+        if (duplicates.acrossSplit().texts() == 0) {
+            return;
+        }
+        System.err.printf(Locale.ROOT, "pressmark: warning: %,d texts are on both sides of the split (%,d test rows repeat a"
+                + " training text, so the test figures flatter the model); %s%n", duplicates.acrossSplit().texts(),
+                duplicates.acrossSplit().rows(), testFile
+                        ? "they come from --test-data, which no setting moves: remove them from one of the files"
+                        : "set data.duplicates: group to keep identical texts on one side");
     }
 
     private static Instant created(Path dataFile) throws IOException {

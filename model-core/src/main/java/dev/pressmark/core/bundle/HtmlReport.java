@@ -4,6 +4,7 @@ import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import dev.pressmark.core.classify.LinearWeights;
+import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.core.feature.FeatureSpace;
 import java.util.ArrayList;
 import java.util.List;
@@ -39,6 +40,7 @@ public final class HtmlReport {
                 .append(manifest.path("training").path("test_rows").asInt()).append(" test rows · ")
                 .append(escape(manifest.path("classifier").path("kind").asText())).append("</p>\n");
         metricsTable(html, manifest.path("metrics"));
+        rowsTable(html, manifest);
         SearchReport.append(html, manifest);
         confusion(html, bundle.labels(), manifest.path("metrics").path("test_confusion").path("counts"));
         foldSpread(html, manifest.path("metrics").path("cv"));
@@ -57,6 +59,38 @@ public final class HtmlReport {
                     .append(format(metrics.path("test").path(metric.getKey()).asDouble(Double.NaN))).append("</td></tr>\n");
         }
         html.append("</tbody></table>\n");
+    }
+
+    /** The rows of each part, the groups (with data.group or grouped duplicates), and the duplicate texts. */
+    private static void rowsTable(StringBuilder html, JsonNode manifest) {
+        JsonNode training = manifest.path("training");
+        html.append("<h2>Rows, groups and duplicate texts</h2>\n<table class=\"metrics rows\"><tbody>\n");
+        row(html, "training rows", Integer.toString(training.path("train_rows").asInt()));
+        row(html, "test rows", Integer.toString(training.path("test_rows").asInt()));
+        if (training.has("groups")) {
+            row(html, "groups", Integer.toString(training.path("groups").asInt()));
+        }
+        if (training.has("test_fraction_achieved")) {
+            row(html, "test fraction achieved", String.format(Locale.ROOT, "%.4f", training.path("test_fraction_achieved").asDouble()));
+        }
+        DuplicateCounts duplicates = DuplicateCounts.fromManifest(manifest);
+        if (duplicates != null) {
+            row(html, "duplicates setting", duplicates.setting());
+            row(html, "rows dropped as repeats", Integer.toString(duplicates.droppedRows()));
+            row(html, "texts repeated in training", tally(duplicates.withinTrain(), "rows"));
+            row(html, "texts repeated in test", tally(duplicates.withinTest(), "rows"));
+            row(html, "texts on both sides of the split", tally(duplicates.acrossSplit(), "test rows"));
+            row(html, "texts with conflicting labels", tally(duplicates.conflictingLabels(), "rows"));
+        }
+        html.append("</tbody></table>\n");
+    }
+
+    private static String tally(DuplicateCounts.Tally tally, String rows) {
+        return tally.texts() + " (" + tally.rows() + " " + rows + ")";
+    }
+
+    private static void row(StringBuilder html, String name, String value) {
+        html.append("<tr><td>").append(escape(name)).append("</td><td>").append(escape(value)).append("</td></tr>\n");
     }
 
     private static void confusion(StringBuilder html, List<String> labels, JsonNode counts) {

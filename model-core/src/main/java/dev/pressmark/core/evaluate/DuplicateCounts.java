@@ -109,6 +109,19 @@ public record DuplicateCounts(String setting, int droppedRows, Tally withinTrain
         }
     }
 
+    /**
+     * One line for people: the setting, then each count, for example {@code keep: 3 texts repeated
+     * in training (8 rows), 1 in test (2 rows), 2 across the split (3 test rows), 1 with
+     * conflicting labels (4 rows)}.
+     */
+    public String summary() {
+        return String.format(java.util.Locale.ROOT, "%s: %s%,d texts repeated in training (%,d rows), %,d in test (%,d rows),"
+                        + " %,d across the split (%,d test rows), %,d with conflicting labels (%,d rows)", setting,
+                droppedRows > 0 ? String.format(java.util.Locale.ROOT, "%,d rows dropped; ", droppedRows) : "",
+                withinTrain.texts, withinTrain.rows, withinTest.texts, withinTest.rows, acrossSplit.texts, acrossSplit.rows,
+                conflictingLabels.texts, conflictingLabels.rows);
+    }
+
     /** The object as the manifest holds it. */
     public ObjectNode toJson() {
         ObjectNode node = JsonNodeFactory.instance.objectNode();
