@@ -105,9 +105,11 @@ final class TrainCommand implements Callable<Integer> {
         if (duplicates.acrossSplit().texts() == 0) {
             return;
         }
-        System.err.printf(Locale.ROOT, "pressmark: warning: %,d texts are on both sides of the split (%,d test rows repeat a"
-                + " training text, so the test figures flatter the model); %s%n", duplicates.acrossSplit().texts(),
-                duplicates.acrossSplit().rows(), testFile
+        int texts = duplicates.acrossSplit().texts();
+        int rows = duplicates.acrossSplit().rows();
+        System.err.printf(Locale.ROOT, "pressmark: warning: %,d text%s on both sides of the split (%,d test row%s a"
+                + " training text, so the test figures flatter the model); %s%n", texts, texts == 1 ? " is" : "s are",
+                rows, rows == 1 ? " repeats" : "s repeat", testFile
                         ? "they come from --test-data, which no setting moves: remove them from one of the files"
                         : "set data.duplicates: group to keep identical texts on one side");
     }

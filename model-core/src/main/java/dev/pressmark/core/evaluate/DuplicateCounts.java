@@ -75,27 +75,34 @@ public record DuplicateCounts(String setting, int droppedRows, Tally withinTrain
         boolean[] conflicting = new boolean[texts];
         conflicts(textIds, labels, split.train(), firstLabel, conflicting);
         conflicts(textIds, labels, split.test(), firstLabel, conflicting);
-        int[] tallies = new int[8];
+        Counter train = new Counter();
+        Counter test = new Counter();
+        Counter across = new Counter();
+        Counter conflict = new Counter();
         for (int t = 0; t < texts; t++) {
-            if (inTrain[t] > 1) {
-                tallies[0]++;
-                tallies[1] += inTrain[t];
-            }
-            if (inTest[t] > 1) {
-                tallies[2]++;
-                tallies[3] += inTest[t];
-            }
-            if (inTrain[t] > 0 && inTest[t] > 0) {
-                tallies[4]++;
-                tallies[5] += inTest[t];
-            }
-            if (conflicting[t]) {
-                tallies[6]++;
-                tallies[7] += inTrain[t] + inTest[t];
+            train.addIf(inTrain[t] > 1, inTrain[t]);
+            test.addIf(inTest[t] > 1, inTest[t]);
+            across.addIf(inTrain[t] > 0 && inTest[t] > 0, inTest[t]);
+            conflict.addIf(conflicting[t], inTrain[t] + inTest[t]);
+        }
+        return new DuplicateCounts(setting, droppedRows, train.tally(), test.tally(), across.tally(), conflict.tally());
+    }
+
+    /** Texts and rows, counted up. */
+    private static final class Counter {
+        private int texts;
+        private int rows;
+
+        void addIf(boolean counted, int rowsOfText) {
+            if (counted) {
+                texts++;
+                rows += rowsOfText;
             }
         }
-        return new DuplicateCounts(setting, droppedRows, new Tally(tallies[0], tallies[1]), new Tally(tallies[2], tallies[3]),
-                new Tally(tallies[4], tallies[5]), new Tally(tallies[6], tallies[7]));
+
+        Tally tally() {
+            return new Tally(texts, rows);
+        }
     }
 
     private static void conflicts(int[] textIds, int[] labels, int[] rows, int[] firstLabel, boolean[] conflicting) {

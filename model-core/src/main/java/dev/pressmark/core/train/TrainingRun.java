@@ -38,7 +38,9 @@ import java.util.concurrent.atomic.AtomicInteger;
  * One training run, from labelled rows to a fitted model with honest estimates of its quality:
  *
  * <ol>
- *   <li>hold out the test part (stratified by default; with {@code data.group}, whole groups, as
+ *   <li>find identical normalised texts ({@code data.duplicates}): count them, group them, or drop
+ *       later repeats of a (text, label) pair;
+ *   <li>hold out the test part (stratified by default; with {@code data.group} or {@code duplicates: group}, whole groups, as
  *       {@link Resampling#groupedStratifiedSplit} places them);
  *   <li>cross-validate on the training part only (in grouped folds with {@code data.group}): in every fold the whole preprocessing and the
  *       classifier are fitted on the fold's training rows and scored on its held-out rows;
