@@ -40,8 +40,9 @@ import java.util.concurrent.atomic.AtomicInteger;
  * <ol>
  *   <li>find identical normalised texts ({@code data.duplicates}): count them, group them, or drop
  *       later repeats of a (text, label) pair;
- *   <li>hold out the test part (stratified by default; with {@code data.group} or {@code duplicates: group}, whole groups, as
- *       {@link Resampling#groupedStratifiedSplit} places them);
+ *   <li>hold out the test part (stratified by default; with {@code data.group} or
+ *       {@code duplicates: group}, whole groups, as {@link Resampling#groupedStratifiedSplit}
+ *       places them);
  *   <li>cross-validate on the training part only (in grouped folds with {@code data.group}): in every fold the whole preprocessing and the
  *       classifier are fitted on the fold's training rows and scored on its held-out rows;
  *   <li>fit Platt sigmoids, when asked, on the out-of-fold decision values of the first repeat;
@@ -67,7 +68,8 @@ public final class TrainingRun {
      * @param warnings solver warnings, for example an iteration cap that was hit, and groups too
      *     large for the part they went to
      * @param search what the search found, or null when the config has no search
-     * @param grouping the groups' figures when {@code data.group} is set, else null
+     * @param grouping the groups' figures when {@code data.group} is set or {@code data.duplicates}
+     *     is {@code group}, else null
      * @param foldOfRow per data row, the fold (from 0) of the first repeat that held it out, or
      *     {@link RowAssignments#TEST} for a test row
      * @param duplicates how often the rows of each part repeat a normalised text

@@ -214,4 +214,22 @@ class DuplicateTextsTest {
             assertThat(result.foldOfRow()[row]).isEqualTo(RowAssignments.TEST);
         }
     }
+
+    @Test
+    void a_label_whose_rows_have_fewer_texts_than_folds_is_named_with_the_texts_as_the_reason() {
+        List<String[]> texts = new ArrayList<>();
+        List<String> labels = new ArrayList<>();
+        for (int i = 0; i < 60; i++) {
+            // label "rare" has 12 rows but only two texts once normalised
+            boolean rare = i % 5 == 0;
+            texts.add(new String[] {rare ? (i % 2 == 0 ? "Rare  Thing" : "rare other") : "common " + i});
+            labels.add(rare ? "rare" : "common");
+        }
+        int[] lines = new int[60];
+        LabelledData data = new LabelledData(List.of("title"), "label", texts, labels, lines, "0".repeat(64), 0);
+        assertThatThrownBy(() -> new TrainingRun(config("{text: [title], duplicates: group}"), data).run(Progress.NONE))
+                .isInstanceOf(PressmarkException.class)
+                .hasMessageContaining("label \"rare\" has rows in only ")
+                .hasMessageContaining("the groups of identical texts (data.duplicates: group)");
+    }
 }
