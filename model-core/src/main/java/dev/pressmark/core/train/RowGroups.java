@@ -1,9 +1,12 @@
 package dev.pressmark.core.train;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.function.IntFunction;
+import java.util.regex.Pattern;
 
 /**
  * The group of every row, as ids for {@code Resampling}: rows with equal values of the group
@@ -12,12 +15,17 @@ import java.util.Map;
  */
 final class RowGroups {
 
-    private final int[] ids;
-    private final List<String> names;
+    private static final Pattern WHITE_SPACE = Pattern.compile("\\s+");
 
-    private RowGroups(int[] ids, List<String> names) {
+    private final int[] ids;
+    private final int count;
+    /** Names a group for messages; made on demand, since only a warning about a large group needs one. */
+    private final IntFunction<String> namer;
+
+    private RowGroups(int[] ids, int count, IntFunction<String> namer) {
         this.ids = ids;
-        this.names = names;
+        this.count = count;
+        this.namer = namer;
     }
 
     /** The groups of {@code values}, one per row; {@code rowNumbers} name the rows whose value is empty. */
@@ -40,7 +48,8 @@ final class RowGroups {
             }
             ids[i] = id;
         }
-        return new RowGroups(ids, List.copyOf(names));
+        List<String> frozen = List.copyOf(names);
+        return new RowGroups(ids, frozen.size(), frozen::get);
     }
 
     /**
@@ -58,9 +67,9 @@ final class RowGroups {
             parent[i] = i;
         }
         int[] firstOfText = new int[TextKeys.count(textIds)];
-        java.util.Arrays.fill(firstOfText, -1);
+        Arrays.fill(firstOfText, -1);
         int[] firstOfGroup = new int[groups == null ? 0 : groups.count()];
-        java.util.Arrays.fill(firstOfGroup, -1);
+        Arrays.fill(firstOfGroup, -1);
         for (int i = 0; i < rows; i++) {
             firstOfText[textIds[i]] = union(parent, firstOfText[textIds[i]], i);
             if (groups != null) {
@@ -69,17 +78,19 @@ final class RowGroups {
         }
         int[] ids = new int[rows];
         int[] idOfRoot = new int[rows];
-        java.util.Arrays.fill(idOfRoot, -1);
-        List<String> names = new ArrayList<>();
+        Arrays.fill(idOfRoot, -1);
+        int[] firstRow = new int[rows];
+        int count = 0;
         for (int i = 0; i < rows; i++) {
             int root = find(parent, i);
             if (idOfRoot[root] < 0) {
-                idOfRoot[root] = names.size();
-                names.add(groups != null ? groups.name(groups.ids[i]) : "text: " + shortened(String.join(" | ", texts.get(i))));
+                firstRow[count] = i;
+                idOfRoot[root] = count++;
             }
             ids[i] = idOfRoot[root];
         }
-        return new RowGroups(ids, List.copyOf(names));
+        return new RowGroups(ids, count, id -> groups != null ? groups.name(groups.ids[firstRow[id]])
+                : "text: " + shortened(String.join(" | ", texts.get(firstRow[id]))));
     }
 
     /** Joins row {@code i} to the set of row {@code first} (none when -1); returns the set's first row. */
@@ -90,7 +101,7 @@ final class RowGroups {
         int a = find(parent, first);
         int b = find(parent, i);
         if (a != b) {
-            // the smaller index as root keeps roots stable and the trees shallow enough with path halving
+            // the smaller index as root keeps roots stable; path halving in find keeps the trees shallow
             parent[Math.max(a, b)] = Math.min(a, b);
         }
         return first;
@@ -105,7 +116,7 @@ final class RowGroups {
     }
 
     private static String shortened(String text) {
-        String line = text.strip().replaceAll("\\s+", " ");
+        String line = WHITE_SPACE.matcher(text.strip()).replaceAll(" ");
         return line.length() <= 40 ? line : line.substring(0, 39) + "…";
     }
 
@@ -115,11 +126,11 @@ final class RowGroups {
     }
 
     int count() {
-        return names.size();
+        return count;
     }
 
-    /** The group column's value for group {@code id}, or a description of an empty value's row. */
+    /** The group column's value for group {@code id}, a description of an empty value's row, or a text. */
     String name(int id) {
-        return names.get(id);
+        return namer.apply(id);
     }
 }

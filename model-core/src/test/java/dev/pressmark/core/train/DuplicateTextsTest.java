@@ -232,4 +232,21 @@ class DuplicateTextsTest {
                 .hasMessageContaining("label \"rare\" has rows in only ")
                 .hasMessageContaining("the groups of identical texts (data.duplicates: group)");
     }
+
+    @Test
+    void a_text_too_large_for_the_test_part_is_named_by_its_first_row_in_the_warning() {
+        List<String[]> texts = new ArrayList<>();
+        List<String> labels = new ArrayList<>();
+        for (int i = 0; i < 80; i++) {
+            boolean same = i < 24;
+            texts.add(new String[] {same ? (i == 0 ? "Brass  Hinge\tSet" : "brass hinge set") : WORDS[i % WORDS.length] + " " + i});
+            labels.add(same || i % 2 == 0 ? "hardware" : "decor");
+        }
+        LabelledData data = new LabelledData(List.of("title"), "label", texts, labels, new int[80], "0".repeat(64), 0);
+        TrainingRun.Result result = new TrainingRun(config("{text: [title], duplicates: group}"), data).run(Progress.NONE);
+        assertThat(result.warnings()).anyMatch(w -> w.startsWith("split: group \"text: Brass Hinge Set\" has 24 rows, more than"));
+        for (int row = 0; row < 24; row++) {
+            assertThat(result.foldOfRow()[row]).isNotEqualTo(RowAssignments.TEST).isEqualTo(result.foldOfRow()[0]);
+        }
+    }
 }
