@@ -208,7 +208,7 @@
     $('model-view').hidden = false;
     $('model-name').textContent = name;
     await loadVersions();
-    if (changed) buildTryFields();
+    if (changed) buildScoreFields();
     explainSoon(0);
   }
 
@@ -437,18 +437,18 @@
     }
   }
 
-  // ---- try it ------------------------------------------------------------------------------
-  function buildTryFields() {
-    const fields = $('try-fields');
+  // ---- score a text ------------------------------------------------------------------------
+  function buildScoreFields() {
+    const fields = $('score-fields');
     fields.replaceChildren();
     const names = (state.detail && state.detail.input_fields) || [];
     for (const name of names) {
-      const id = 'try-' + name.replace(/[^A-Za-z0-9_-]/g, '_');
+      const id = 'score-' + name.replace(/[^A-Za-z0-9_-]/g, '_');
       fields.append(el('label', { for: id, text: name }),
-        el('input', { id, type: 'text', class: 'try-input', 'data-field': name, spellcheck: 'false', placeholder: 'e.g. Quorubwick service kit 3/4in',
+        el('input', { id, type: 'text', class: 'score-input', 'data-field': name, spellcheck: 'false', placeholder: 'e.g. Quorubwick service kit 3/4in',
           oninput: () => explainSoon(EXPLAIN_DELAY_MS) }));
     }
-    $('try-result').replaceChildren();
+    $('score-result').replaceChildren();
   }
 
   let explainTimer = null;
@@ -459,14 +459,14 @@
   }
 
   async function explain() {
-    const inputs = [...document.querySelectorAll('.try-input')];
+    const inputs = [...document.querySelectorAll('.score-input')];
     const item = {};
     let any = false;
     for (const input of inputs) {
       item[input.dataset.field] = input.value;
       any = any || input.value.trim() !== '';
     }
-    const out = $('try-result');
+    const out = $('score-result');
     if (!any || !state.model) {
       out.replaceChildren();
       return;
@@ -482,29 +482,37 @@
     }
   }
 
-  function renderExplanation(body, prefix) {
-    const result = body.results[0];
-    const out = $('try-result');
-    const parts = [el('p', { class: 'prediction' },
-      el('span', { class: 'muted', text: 'label ' }),
-      el('strong', { id: 'try-label', class: 'label', text: result.label }),
-      el('span', { class: 'muted', text: ' by ' + body.model + ' ' + body.version }))];
+  /** Shades of the accent colour for the stacked bar, largest share first; the rest share the palest. */
+  const SHADES = 6;
 
-    if (result.probabilities) {
-      const list = el('ul', { class: 'probabilities', 'aria-label': 'probabilities' });
-      const entries = Object.entries(result.probabilities).sort((a, b) => b[1] - a[1]);
-      for (const [label, p] of entries) {
-        const fill = el('span', { class: 'fill' + (label === result.label ? ' top' : '') });
-        fill.style.width = (100 * p).toFixed(1) + '%';
-        list.append(el('li', {},
-          el('span', { class: 'prob-label', text: label }),
-          el('span', { class: 'track', 'aria-hidden': 'true' }, fill),
-          el('span', { class: 'num', text: (100 * p).toFixed(1) + ' %' })));
-      }
-      parts.push(list);
-    }
+  function percent(p) {
+    return (100 * p).toFixed(1) + ' %';
+  }
 
-    const chips = el('ul', { id: 'try-subwords', class: 'subwords', 'aria-label': 'subwords that moved the score' });
+  /**
+   * The label probabilities as one stacked bar, largest share first, and a legend in the same order:
+   * each label's shade, name and probability.
+   */
+  function shares(result) {
+    const entries = Object.entries(result.probabilities).sort((a, b) => b[1] - a[1] || a[0].localeCompare(b[0]));
+    const bar = el('div', { id: 'score-bar', class: 'score-bar', role: 'img',
+      'aria-label': 'label shares: ' + entries.map(([label, p]) => label + ' ' + percent(p)).join(', ') });
+    const legend = el('ol', { id: 'score-legend', class: 'score-legend', 'aria-label': 'probability of each label, largest first' });
+    entries.forEach(([label, p], i) => {
+      const shade = 'shade-' + Math.min(i, SHADES - 1);
+      const segment = el('span', { class: 'segment ' + shade, title: label + ' ' + percent(p), 'data-label': label });
+      segment.style.flexGrow = String(p);
+      bar.append(segment);
+      legend.append(el('li', { class: label === result.label ? 'chosen' : '', 'data-label': label },
+        el('span', { class: 'swatch ' + shade, 'aria-hidden': 'true' }),
+        el('span', { class: 'legend-label', text: label }),
+        el('span', { class: 'num', text: percent(p) })));
+    });
+    return { bar, legend };
+  }
+
+  function pushes(result, prefix) {
+    const chips = el('ul', { id: 'score-subwords', class: 'subwords', 'aria-label': 'subwords that moved the score' });
     for (const c of result.contributions) {
       const positive = c.contribution >= 0;
       const token = prefix && c.feature.startsWith(prefix) ? c.feature.slice(prefix.length) : c.feature;
@@ -516,14 +524,31 @@
       el('code', { text: token }),
       el('span', { class: 'num', text: fixed(Math.abs(c.contribution), 2) })));
     }
-    parts.push(el('h3', { class: 'small-heading', text: 'What pushed it' }));
-    parts.push(el('p', { class: 'muted small', text: '+ pushed towards ' + result.label + ', ' + MINUS + ' away from it; the number is how far it moved the score.' }));
-    parts.push(result.contributions.length ? chips : el('p', { class: 'muted', text: 'No known subword in this text.' }));
+    const part = [el('h3', { class: 'small-heading', text: 'What pushed it' }),
+      el('p', { class: 'muted small', text: '+ towards ' + result.label + ', ' + MINUS + ' away from it, by how much.' }),
+      result.contributions.length ? chips : el('p', { class: 'muted', text: 'No known subword in this text.' })];
     if (result.unknown_tokens > 0) {
       const n = result.unknown_tokens;
-      parts.push(el('p', { class: 'muted small', text: n + (n === 1 ? ' token' : ' tokens') + ' the vocabulary could not cover.' }));
+      part.push(el('p', { class: 'muted small', text: n + (n === 1 ? ' token' : ' tokens') + ' the vocabulary could not cover.' }));
     }
-    out.replaceChildren(...parts);
+    return part;
+  }
+
+  function renderExplanation(body, prefix) {
+    const result = body.results[0];
+    const parts = [el('p', { class: 'prediction' },
+      el('span', { class: 'muted', text: 'Scored as ' }),
+      el('strong', { id: 'score-label', class: 'label', text: result.label }),
+      el('span', { class: 'muted', text: ' by ' + body.model + ' ' + body.version }))];
+    const grid = el('div', { class: 'score-grid' });
+    if (result.probabilities) {
+      const { bar, legend } = shares(result);
+      parts.push(bar);
+      grid.append(el('div', { class: 'score-part' }, el('h3', { class: 'small-heading', text: 'Label shares' }), legend));
+    }
+    grid.append(el('div', { class: 'score-part' }, ...pushes(result, prefix)));
+    parts.push(grid);
+    $('score-result').replaceChildren(...parts);
   }
 
   // ---- start -------------------------------------------------------------------------------
@@ -536,7 +561,7 @@
     });
     $('rollback').addEventListener('click', rollback);
     $('drift-refresh').addEventListener('click', () => { if (state.model) loadDrift(); });
-    $('try-form').addEventListener('submit', (event) => { event.preventDefault(); explainSoon(0); });
+    $('score-form').addEventListener('submit', (event) => { event.preventDefault(); explainSoon(0); });
     loadHealth();
     loadModels().catch(failed);
   }

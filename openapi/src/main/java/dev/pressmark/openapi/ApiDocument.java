@@ -129,7 +129,7 @@ public final class ApiDocument {
         tags.add(tag(ServicePaths.HEALTH, "Liveness and readiness."));
         tags.add(tag(ServicePaths.MODELS, "Models and their versions."));
         tags.add(tag(ServicePaths.PREDICT, "Predict and explain with any model; the model-NAME tags type each served model's fields and labels."));
-        tags.add(tag(ServicePaths.ADMIN, "Publish, activate and roll back; needs the admin token."));
+        tags.add(tag(ServicePaths.ADMIN, "Publish, activate, roll back and retire; needs the admin token."));
         tags.add(tag(ServicePaths.DOCS, "This document and its browsable rendering."));
         tags.add(tag(ServicePaths.METRICS, "Service metrics."));
         for (ModelDescriptor model : models) {

@@ -30,7 +30,8 @@ final class Ops {
             Map.entry(401, new String[] {"Unauthorized", "The bearer token is missing or wrong."}),
             Map.entry(403, new String[] {"Forbidden", "The admin endpoints are disabled: the server has no admin token."}),
             Map.entry(404, new String[] {"NotFound", "No such model, version, active version or shadow."}),
-            Map.entry(409, new String[] {"Conflict", "The change conflicts with the version history (tag exists, retired, nothing to roll back to,"
+            Map.entry(409, new String[] {"Conflict", "The change conflicts with the version history (tag exists, version retired or retired"
+                    + " already, retiring the active version, nothing to roll back to,"
                     + " shadow of the active version), breaks the active version's contract without allow_breaking,"
                     + " or the promotion check refused it (checks says why)."}),
             Map.entry(413, new String[] {"TooLarge", "The body is over the server's limit."}),

@@ -215,6 +215,16 @@ final class ServicePaths {
         rollback.getResponses().addApiResponse("200", json("Rolled back.", ref(Shapes.ACTIVATION)));
         problems(rollback, 400, 404, 409, 500, 503);
         paths.addPathItem("/models/{name}/rollback", new PathItem().post(rollback).parameters(new ArrayList<>(List.of(name()))));
+
+        Operation retire = admin(operation("retireVersion", ADMIN, "Retire a version",
+                "Marks a version retired with a reason, which goes into the events: it stays listed, readable and loadable by tag, but can"
+                        + " no longer be activated, rolled back to or shadowed (409 version-retired); a shadow of it stops. The active version"
+                        + " is refused (409 version-active), and so is a version retired already (409 already-retired)."));
+        retire.setRequestBody(jsonBody(Shapes.RETIRE_REQUEST));
+        retire.getResponses().addApiResponse("200", json("Retired; the version as it is now.", ref(Shapes.VERSION_DETAIL)));
+        problems(retire, 400, 404, 409, 415, 500, 503);
+        paths.addPathItem("/models/{name}/versions/{tag}/retire", new PathItem().post(retire)
+                .parameters(new ArrayList<>(List.of(name(), tag()))));
     }
 
     private void addShadow(Paths paths) {

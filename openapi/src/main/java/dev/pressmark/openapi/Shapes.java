@@ -36,6 +36,7 @@ final class Shapes {
     static final String CONTRACT = "Contract";
     static final String ACTIVATE_REQUEST = "ActivateRequest";
     static final String ACTIVATION = "Activation";
+    static final String RETIRE_REQUEST = "RetireRequest";
     static final String PROMOTION_CHECK = "PromotionCheck";
     static final String PROMOTION_REFUSAL = "PromotionRefusal";
     static final String SHADOW_REQUEST = "ShadowRequest";
@@ -118,6 +119,11 @@ final class Shapes {
                 "tag", pattern(string("A published tag of the model."), TAG_PATTERN),
                 "force", bool("Activate even when the promotion check refuses; needs a reason. Default false."),
                 "reason", string("Why, for the events; required with force.")), false));
+        JsonSchema retireReason = string("Why the version is retired, for the events: not blank, at most 1000 characters.");
+        retireReason.setMinLength(1);
+        retireReason.setMaxLength(1_000);
+        components.addSchemas(RETIRE_REQUEST, additionalProperties(object("Why a version is retired.", List.of("reason"),
+                "reason", retireReason), false));
         addRollout(components);
         components.addSchemas(CONTRIBUTION, object("How much one feature moved the predicted label's score.", List.of("feature", "contribution"),
                 "feature", string("column:subword."),

@@ -106,6 +106,7 @@ class ApiDocumentTest {
                 Map.entry("/models/{name}/explain", List.of(PathItem.HttpMethod.POST)),
                 Map.entry("/models/{name}/active", List.of(PathItem.HttpMethod.PUT)),
                 Map.entry("/models/{name}/rollback", List.of(PathItem.HttpMethod.POST)),
+                Map.entry("/models/{name}/versions/{tag}/retire", List.of(PathItem.HttpMethod.POST)),
                 Map.entry("/models/{name}/shadow", List.of(PathItem.HttpMethod.GET, PathItem.HttpMethod.PUT, PathItem.HttpMethod.DELETE)),
                 Map.entry("/openapi.json", List.of(PathItem.HttpMethod.GET)),
                 Map.entry("/openapi.yaml", List.of(PathItem.HttpMethod.GET)),
@@ -160,7 +161,8 @@ class ApiDocumentTest {
             assertThat(parsed.getComponents().getSecuritySchemes().get("bearer").getScheme()).isEqualTo("bearer");
             assertThat(parsed.getComponents().getSecuritySchemes().get("bearer").getType().toString()).isEqualTo("http");
             List<Operation> admin = List.of(parsed.getPaths().get("/models/{name}/versions/{tag}").getPut(),
-                    parsed.getPaths().get("/models/{name}/active").getPut(), parsed.getPaths().get("/models/{name}/rollback").getPost());
+                    parsed.getPaths().get("/models/{name}/active").getPut(), parsed.getPaths().get("/models/{name}/rollback").getPost(),
+                    parsed.getPaths().get("/models/{name}/versions/{tag}/retire").getPost());
             admin.forEach(op -> {
                 assertThat(op.getSecurity()).as(op.getOperationId()).hasSize(1);
                 assertThat(op.getSecurity().get(0)).containsOnlyKeys("bearer");
@@ -171,6 +173,7 @@ class ApiDocumentTest {
             reading.forEach(op -> assertThat(op.getSecurity() != null && !op.getSecurity().isEmpty())
                     .as(op.getOperationId() + " with reader token " + readerToken).isEqualTo(readerToken));
             assertThat(parsed.getPaths().get("/health").getGet().getSecurity()).isNull();
+            assertThat(schema(parsed, "RetireRequest").getRequired()).containsExactly("reason");
         }
     }
 

@@ -3,11 +3,10 @@ package dev.pressmark.cli;
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.Progress;
 import dev.pressmark.core.evaluate.Metric;
-import dev.pressmark.core.train.BundleAssembler;
+import dev.pressmark.core.train.BundleTrainer;
 import dev.pressmark.core.train.LabelledData;
 import dev.pressmark.core.train.TrainConfig;
 import dev.pressmark.core.train.TrainPlan;
-import dev.pressmark.core.train.TrainingRun;
 import dev.pressmark.demo.ListingTitles;
 import dev.pressmark.server.BearerToken;
 import dev.pressmark.server.PressmarkServer;
@@ -135,10 +134,10 @@ final class Demo implements AutoCloseable {
         TrainConfig config = plan.config();
         LabelledData rows = LabelledData.read(data, config.data().text(), config.data().label(), false);
         log.println("pressmark demo: training " + what);
-        TrainingRun.Result result = new TrainingRun(plan, rows).run(progress);
+        BundleTrainer.Trained trained = BundleTrainer.train(plan, rows, Instant.now().truncatedTo(ChronoUnit.SECONDS), progress);
         log.printf(Locale.ROOT, "pressmark demo: %s: test accuracy %.3f%n", what,
-                result.test().overall().get(Metric.ACCURACY));
-        return BundleAssembler.assemble(config, rows, result, Instant.now().truncatedTo(ChronoUnit.SECONDS));
+                trained.result().test().overall().get(Metric.ACCURACY));
+        return trained.bytes();
     }
 
     /** 32 random bytes, base64url without padding: 256 bits, safe in a header and a shell. */

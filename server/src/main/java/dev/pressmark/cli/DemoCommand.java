@@ -13,8 +13,9 @@ import picocli.CommandLine.Option;
 
 /** {@code pressmark demo}: the whole job on invented listings, in a temporary store, then serve it. */
 @Command(name = "demo", mixinStandardHelpOptions = true, description = {
-    "Generate invented listing titles, train a whole-word version (v1) and a WordPiece version (v2),",
-    "publish both into a store of their own, activate v2 and serve it with a one-off admin token.",
+    // each entry is one paragraph, and the first is the summary the command list shows: whole sentences
+    "Run the whole job on invented listing titles: train two versions, publish them into a store of their own and serve one.",
+    "It trains a whole-word version (v1) and a WordPiece version (v2), activates v2 and serves it with a one-off admin token.",
     "Ctrl-C stops the server and removes the temporary store (unless --keep)."})
 final class DemoCommand implements Callable<Integer> {
 

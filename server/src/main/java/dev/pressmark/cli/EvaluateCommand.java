@@ -38,7 +38,7 @@ final class EvaluateCommand implements Callable<Integer> {
     @Override
     public Integer call() throws IOException {
         Bundle model = Bundle.read(bundle);
-        String labelColumn = model.manifest().path("provenance").path("config").path("data").path("label").asText("label");
+        String labelColumn = model.typedManifest().provenance().map(p -> p.labelColumn("label")).orElse("label");
         LabelledData rows = LabelledData.read(data, model.inputFields(), labelColumn, false);
         List<Map<String, String>> items = new ArrayList<>();
         for (String[] row : rows.texts()) {
@@ -64,7 +64,7 @@ final class EvaluateCommand implements Callable<Integer> {
         }
         Evaluation evaluation;
         if (labels.size() == 2) {
-            int positive = labels.indexOf(model.manifest().path("positive_label").asText(labels.get(1)));
+            int positive = labels.indexOf(model.typedManifest().positiveLabel().orElse(labels.get(1)));
             double[] scores = new double[truth.length];
             for (int i = 0; i < truth.length; i++) {
                 scores[i] = predicted[i] == positive ? predictions.get(i).score() : -predictions.get(i).score();

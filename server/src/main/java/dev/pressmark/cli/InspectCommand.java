@@ -1,19 +1,17 @@
 package dev.pressmark.cli;
 
-import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Bundle;
+import dev.pressmark.core.bundle.Manifest;
 import dev.pressmark.core.classify.LinearWeights;
-import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.core.feature.FeatureSpace;
-import dev.pressmark.core.search.SearchSummary;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import java.util.Optional;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
@@ -36,28 +34,27 @@ final class InspectCommand implements Callable<Integer> {
     @Override
     public Integer call() throws IOException {
         Bundle loaded = Bundle.read(bundle);
-        JsonNode manifest = loaded.manifest();
+        Manifest manifest = loaded.typedManifest();
         if (json) {
-            ObjectNode copy = manifest.deepCopy();
-            copy.remove("entries");
-            System.out.println(new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValueAsString(copy));
+            Manifest shown = manifest.withListing(manifest.listing().map(Manifest.Listing::withoutEntries));
+            System.out.println(new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValueAsString(shown.toJson()));
             return Main.EXIT_OK;
         }
-        System.out.printf(Locale.ROOT, "name      %s%ncreated   %s%nlabels    %s%nfields    %s%nclassifier %s%n",
-                loaded.name(), manifest.path("created").asText(), String.join(", ", loaded.labels()),
-                String.join(", ", loaded.inputFields()), manifest.path("classifier").path("kind").asText());
-        System.out.printf(Locale.ROOT, "data      %s (sha256 %s)%n", manifest.path("provenance").path("data_file").asText(),
-                manifest.path("provenance").path("data_sha256").asText());
+        System.out.printf(Locale.ROOT, "name       %s%ncreated    %s%nlabels     %s%nfields     %s%nclassifier %s%n",
+                loaded.name(), manifest.created().orElse(""), String.join(", ", loaded.labels()),
+                String.join(", ", loaded.inputFields()), manifest.classifier().map(Manifest.Classifier::kind).orElse(""));
+        Optional<Manifest.Provenance> provenance = manifest.provenance();
+        System.out.printf(Locale.ROOT, "data       %s (sha256 %s)%n", provenance.map(Manifest.Provenance::dataFile).orElse(""),
+                provenance.map(Manifest.Provenance::dataSha256).orElse(""));
         printRows(manifest);
         System.out.printf(Locale.ROOT, "%nmetric             cross-validation       test%n");
-        for (Map.Entry<String, JsonNode> metric : manifest.path("metrics").path("cv").properties()) {
-            System.out.printf(Locale.ROOT, "%-18s %.3f ± %-14.3f %.3f%n", metric.getKey(), metric.getValue().path("mean").asDouble(),
-                    metric.getValue().path("std_err").asDouble(), manifest.path("metrics").path("test").path(metric.getKey()).asDouble(Double.NaN));
+        Manifest.Metrics metrics = manifest.metrics().orElse(Manifest.Metrics.NONE);
+        for (Map.Entry<String, Manifest.CvScore> metric : metrics.cv().entrySet()) {
+            Double test = metrics.test().get(metric.getKey());
+            System.out.printf(Locale.ROOT, "%-18s %.3f ± %-14.3f %.3f%n", metric.getKey(), metric.getValue().mean(),
+                    metric.getValue().standardError(), test == null ? Double.NaN : test);
         }
-        SearchSummary search = SearchSummary.fromManifest(manifest);
-        if (search != null) {
-            System.out.printf(Locale.ROOT, "%n%s", SearchTable.render(search));
-        }
+        manifest.search().ifPresent(search -> System.out.printf(Locale.ROOT, "%n%s", SearchTable.render(search)));
         LinearWeights weights = loaded.model().weights();
         FeatureSpace space = loaded.pipeline().features();
         for (int score = 0; score < weights.numScores(); score++) {
@@ -73,20 +70,21 @@ final class InspectCommand implements Callable<Integer> {
     }
 
     /** The rows of each part, the groups when there were any, and the duplicate texts when recorded. */
-    private static void printRows(JsonNode manifest) {
-        JsonNode training = manifest.path("training");
-        String groups = "";
-        if (training.has("groups")) {
-            groups = String.format(Locale.ROOT, "; %,d groups", training.path("groups").asInt())
-                    + (training.has("test_fraction_achieved")
-                            ? String.format(Locale.ROOT, ", test fraction achieved %.4f", training.path("test_fraction_achieved").asDouble())
-                            : "");
+    private static void printRows(Manifest manifest) {
+        Optional<Manifest.Training> training = manifest.training();
+        String groups = training.map(InspectCommand::groupsNote).orElse("");
+        System.out.printf(Locale.ROOT, "rows       %,d training, %,d test%s%n", training.map(Manifest.Training::trainRows).orElse(0),
+                training.map(Manifest.Training::testRows).orElse(0), groups);
+        manifest.duplicates().ifPresent(duplicates -> System.out.printf(Locale.ROOT, "duplicates %s%n", duplicates.summary()));
+    }
+
+    /** "; N groups, test fraction achieved F" when the run had groups, else "". */
+    private static String groupsNote(Manifest.Training training) {
+        if (training.groups().isEmpty()) {
+            return "";
         }
-        System.out.printf(Locale.ROOT, "rows      %,d training, %,d test%s%n", training.path("train_rows").asInt(),
-                training.path("test_rows").asInt(), groups);
-        DuplicateCounts duplicates = DuplicateCounts.fromManifest(manifest);
-        if (duplicates != null) {
-            System.out.printf(Locale.ROOT, "duplicates %s%n", duplicates.summary());
-        }
+        String fraction = training.testFractionAchieved().isPresent()
+                ? String.format(Locale.ROOT, ", test fraction achieved %.4f", training.testFractionAchieved().getAsDouble()) : "";
+        return String.format(Locale.ROOT, "; %,d groups", training.groups().getAsInt()) + fraction;
     }
 }

@@ -34,6 +34,7 @@ public final class Main {
             VersionsCommand.class,
             ActivateCommand.class,
             RollbackCommand.class,
+            RetireCommand.class,
             ShadowCommand.class,
             ShadowReportCommand.class,
             VerifyCommand.class,

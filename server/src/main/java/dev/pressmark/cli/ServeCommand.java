@@ -98,11 +98,11 @@ final class ServeCommand implements Callable<Integer> {
         Optional<BearerToken> admin = adminTokenFile != null ? Optional.of(token(adminTokenFile))
                 : Optional.ofNullable(System.getenv(ADMIN_TOKEN_ENV)).filter(t -> !t.isBlank()).map(BearerToken::of);
         Optional<BearerToken> reader = readerTokenFile == null ? Optional.empty() : Optional.of(token(readerTokenFile));
-        ServerConfig config = new ServerConfig(host, port, maxItems, ServerConfig.DEFAULT_MAX_JSON_BYTES, ServerConfig.DEFAULT_MAX_BUNDLE_BYTES, admin,
-                reader, ServerConfig.DEFAULT_MAX_THREADS, accessLog, maxConcurrent, corsOrigins,
-                maxTokensPerField, requestTimeoutMs,
-                new PromotionPolicy(promotionMetric, promotionMaxDrop, promotionMinAgreement, promotionMinSamples),
-                ServerConfig.DEFAULT_TAP_CAPACITY, driftSample, ServerConfig.defaultBodyBudgetBytes(), openMetrics);
+        ServerConfig config = ServerConfig.defaults().withHost(host).withPort(port).withMaxItems(maxItems)
+                .withMaxTokensPerField(maxTokensPerField).withMaxConcurrent(maxConcurrent).withRequestTimeoutMs(requestTimeoutMs)
+                .withSecurity(new ServerConfig.Security(admin, reader, corsOrigins, openMetrics))
+                .withAccessLog(accessLog).withDriftSample(driftSample)
+                .withPromotion(new PromotionPolicy(promotionMetric, promotionMaxDrop, promotionMinAgreement, promotionMinSamples));
         // A PostgreSQL store that is down does not stop the service: it starts not ready and connects when it can.
         BundleStore opened = JdbcStores.openReconnecting(store.url);
         PressmarkServer server;

@@ -1,12 +1,11 @@
 package dev.pressmark.cli;
 
 import dev.pressmark.core.PressmarkException;
-import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.HtmlReport;
 import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.core.evaluate.MetricSummary;
 import dev.pressmark.core.io.AtomicFiles;
-import dev.pressmark.core.train.BundleAssembler;
+import dev.pressmark.core.train.BundleTrainer;
 import dev.pressmark.core.train.LabelledData;
 import dev.pressmark.core.train.TrainConfig;
 import dev.pressmark.core.train.TrainPlan;
@@ -27,12 +26,13 @@ import picocli.CommandLine.Option;
         name = "train",
         mixinStandardHelpOptions = true,
         description = {
-            "Train a classifier from a labelled CSV as train.yaml says: cross-validate on the training part,",
-            "test once on the held-out part, and write the bundle FILE and its report FILE.html.",
-            "The bundle's created time is SOURCE_DATE_EPOCH when set, else the data file's modification time,",
-            "so the same config on the same data gives the same bytes.",
-            "With a search section, the grid's candidates are cross-validated on the training part;",
-            "the chosen one is trained on the whole training part and tested once."
+            // each entry is one paragraph, and the first is the summary the command list shows: whole sentences
+            "Train a classifier from a labelled CSV as train.yaml says and write the bundle FILE and its report FILE.html.",
+            "The classifier is cross-validated on the training part and tested once on the held-out part.",
+            "The bundle's created time is SOURCE_DATE_EPOCH when set, else the data file's modification time,"
+                    + " so the same config on the same data gives the same bytes.",
+            "With a search section, the grid's candidates are cross-validated on the training part;"
+                    + " the chosen one is trained on the whole training part and tested once."
         })
 final class TrainCommand implements Callable<Integer> {
 
@@ -58,24 +58,24 @@ final class TrainCommand implements Callable<Integer> {
         LabelledData data = LabelledData.read(dataFile, trainConfig.data());
         System.err.printf(Locale.ROOT, "pressmark: %s: %,d rows%s%n", dataFile, data.rows(),
                 data.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", data.droppedRows()) : "");
-        TrainingRun run = testData == null ? new TrainingRun(plan, data) : withTestData(plan, data);
-        if (run.positiveClass() >= 0) {
-            System.err.println("pressmark: positive class for binary metrics: " + run.labels().get(run.positiveClass()));
-        }
-        TrainingRun.Result result = run.run(new ConsoleProgress(System.err));
+        Instant created = created(dataFile);
+        ConsoleProgress progress = new ConsoleProgress(System.err);
+        BundleTrainer.Trained trained = testData == null ? BundleTrainer.train(plan, data, created, progress)
+                : BundleTrainer.train(plan, data, testData(trainConfig), created, progress);
+        TrainingRun.Result result = trained.result();
         if (result.duplicates().droppedRows() > 0) {
             System.err.printf(Locale.ROOT, "pressmark: data.duplicates: drop left out %,d rows that repeat an earlier row's text and"
                     + " label%n", result.duplicates().droppedRows());
         }
-        byte[] bundle = BundleAssembler.assemble(trainConfig, run.data(), result, created(dataFile));
+        byte[] bundle = trained.bytes();
         Path target = out != null ? out : config.toAbsolutePath().getParent().resolve(trainConfig.name() + ".pmb");
         Path report = target.resolveSibling(target.getFileName() + ".html");
-        String html = HtmlReport.render(Bundle.read(bundle));
+        String html = HtmlReport.render(trained.bundle());
         AtomicFiles.write(target, stream -> stream.write(bundle));
         AtomicFiles.write(report, stream -> stream.write(html.getBytes(StandardCharsets.UTF_8)));
         if (assignments != null) {
             // the run's rows: the data file's rows it kept (data.duplicates: drop leaves repeats out), then any test file's
-            int[] rowNumbers = run.data().rowNumbers();
+            int[] rowNumbers = trained.data().rowNumbers();
             int dataRows = testData == null ? rowNumbers.length : rowNumbers.length - result.testRows().length;
             AtomicFiles.write(assignments, stream -> stream.write(AssignmentsCsv.render(Arrays.copyOf(rowNumbers, dataRows),
                     result.foldOfRow()).getBytes(StandardCharsets.UTF_8)));
@@ -90,14 +90,13 @@ final class TrainCommand implements Callable<Integer> {
         return Main.EXIT_OK;
     }
 
-    private TrainingRun withTestData(TrainPlan plan, LabelledData data) {
-        TrainConfig trainConfig = plan.config();
+    private LabelledData testData(TrainConfig trainConfig) {
         // the test file has the text, label and weight columns (its rows' groups do not matter)
         LabelledData test = LabelledData.read(testData, trainConfig.data().text(), trainConfig.data().label(), null,
                 trainConfig.data().weight(), trainConfig.data().dropIncomplete());
         System.err.printf(Locale.ROOT, "pressmark: %s: %,d test rows%s%n", testData, test.rows(),
                 test.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", test.droppedRows()) : "");
-        return TrainingRun.withTestData(plan, data, test);
+        return test;
     }
 
     /** One line on stderr when test rows repeat training texts, with what to do about it. */

@@ -47,7 +47,7 @@ final class ApiDocs {
     ApiDocs(LiveModels live, ServerConfig config, Access access) {
         this.live = live;
         this.access = access;
-        this.service = new ServiceInfo(programVersion(), config.readerToken().isPresent());
+        this.service = new ServiceInfo(programVersion(), config.security().readerToken().isPresent());
         this.rendererDirectory = "/META-INF/resources/webjars/swagger-ui/" + rendererVersion() + "/";
     }
 

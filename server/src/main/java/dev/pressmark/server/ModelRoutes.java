@@ -289,6 +289,19 @@ final class ModelRoutes {
         ctx.json(answer);
     }
 
+    /**
+     * Retires a version through the store's one rule for it: 409 {@code version-active} for the
+     * active version, {@code already-retired} for a retired one; the reason goes into the events.
+     */
+    void retire(Context ctx) throws IOException {
+        access.requireAdmin(ctx);
+        String reason = Requests.retireReason(requests.jsonBody(ctx));
+        Version retired = store.retire(ctx.pathParam("name"), ctx.pathParam("tag"), ACTOR, reason);
+        // a shadow of the version has stopped in the store; this server stops scoring it now rather than on its next look
+        shadows.sync();
+        ctx.json(views.versionDetail(retired));
+    }
+
     /** Loads the newly active version now rather than waiting for the change feed, and says which version serves. */
     private ObjectNode answerActivation(String name, Activation activation) {
         live.refresh(name);

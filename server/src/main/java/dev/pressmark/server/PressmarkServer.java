@@ -80,22 +80,22 @@ public final class PressmarkServer implements AutoCloseable {
         // A request that comes in between loads the model it names itself, and /health/ready says 503 until then.
         Supervisor supervisor = new Supervisor(metrics);
         LiveModels live = LiveModels.start(store, metrics, supervisor);
-        Access access = new Access(config.adminToken(), config.readerToken());
-        TrafficTap tap = new TrafficTap(config.tapCapacity(), metrics, supervisor);
-        ShadowScoring shadows = new ShadowScoring(store, live, metrics, config.maxTokensPerField(), supervisor);
+        Access access = new Access(config.security().adminToken(), config.security().readerToken());
+        TrafficTap tap = new TrafficTap(config.observability().tapCapacity(), metrics, supervisor);
+        ShadowScoring shadows = new ShadowScoring(store, live, metrics, config.limits().maxTokensPerField(), supervisor);
         tap.register(shadows);
-        DriftWatch drift = new DriftWatch(live, metrics, config.driftSample(), DriftWindow.DEFAULT_CAPACITY);
-        if (config.driftSample() > 0.0) {
+        DriftWatch drift = new DriftWatch(live, metrics, config.observability().driftSample(), DriftWindow.DEFAULT_CAPACITY);
+        if (config.observability().driftSample() > 0.0) {
             tap.register(drift);
         }
-        Bodies bodies = new Bodies(new BodyBudget(config.bodyBudgetBytes()));
+        Bodies bodies = new Bodies(new BodyBudget(config.limits().bodyBudgetBytes()));
         ModelRoutes routes = new ModelRoutes(store, live, new Requests(json, config, bodies), new Views(json), access, metrics,
-                config.requestTimeoutMs(), tap, shadows, config.promotion(), drift, supervisor);
-        RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.accessLog());
+                config.admission().requestTimeoutMs(), tap, shadows, config.promotion(), drift, supervisor);
+        RequestRecorder recorder = new RequestRecorder(metrics, model -> live.active(model).isPresent(), config.observability().accessLog());
         Problems problems = new Problems(json);
-        Admission admission = new Admission(config.maxConcurrent(), bodies);
+        Admission admission = new Admission(config.admission().maxConcurrent(), bodies);
         ApiDocs docs = new ApiDocs(live, config, access);
-        QueuedThreadPool pool = new QueuedThreadPool(config.maxThreads(), Math.min(MIN_THREADS, config.maxThreads()), IDLE_TIMEOUT_MS);
+        QueuedThreadPool pool = new QueuedThreadPool(config.listen().maxThreads(), Math.min(MIN_THREADS, config.listen().maxThreads()), IDLE_TIMEOUT_MS);
         pool.setName("pressmark-http");
         // Reserved threads wait for the connector's own work and take nothing from the queue, where health checks wait.
         pool.setReservedThreads(0);
@@ -104,24 +104,24 @@ public final class PressmarkServer implements AutoCloseable {
             c.useVirtualThreads = false;
             c.jsonMapper(new JavalinJackson(json, false));
             // Bodies are read and bounded by Requests; this only keeps the framework's own reads in line.
-            c.http.maxRequestSize = Math.max(config.maxJsonBytes(), config.maxBundleBytes());
+            c.http.maxRequestSize = Math.max(config.limits().maxJsonBytes(), config.limits().maxBundleBytes());
             c.jetty.threadPool = pool;
             c.router.ignoreTrailingSlashes = true;
             // A known path with the wrong method is a 405 naming the allowed methods, not a 404.
             c.http.prefer405over404 = true;
             c.jetty.modifyServer(server -> server.setErrorHandler(new JettyProblems(json)));
             // Off unless origins are named: a browser page elsewhere may not call the service.
-            if (!config.corsOrigins().isEmpty()) {
+            if (!config.security().corsOrigins().isEmpty()) {
                 c.bundledPlugins.enableCors(cors -> cors.addRule(rule -> {
-                    rule.allowHost(config.corsOrigins().get(0), config.corsOrigins().subList(1, config.corsOrigins().size()).toArray(String[]::new));
+                    rule.allowHost(config.security().corsOrigins().get(0), config.security().corsOrigins().subList(1, config.security().corsOrigins().size()).toArray(String[]::new));
                     rule.exposeHeader("Retry-After");
                 }));
             }
             c.requestLogger.http(recorder);
         });
-        if (!config.corsOrigins().isEmpty()) {
+        if (!config.security().corsOrigins().isEmpty()) {
             // after the CORS plugin's own before-handler, which marks a foreign origin but lets the endpoint run
-            app.before(new Origins(config.corsOrigins())::check);
+            app.before(new Origins(config.security().corsOrigins())::check);
         }
         app.exception(Exception.class, problems::handle);
         // The framework's own refusals (405 among them) go to its plain-text mapper unless their type is named here.
@@ -149,25 +149,26 @@ public final class PressmarkServer implements AutoCloseable {
         readable(app, "/models/{name}/shadow", routes::shadow);
         app.delete("/models/{name}/shadow", admission.bounded(routes::stopShadow));
         app.post("/models/{name}/rollback", admission.bounded(routes::rollback));
+        app.post("/models/{name}/versions/{tag}/retire", admission.bounded(routes::retire));
         readable(app, "/metrics", ctx -> {
             // per-label prediction counts and the served versions are for readers, unless opened to a scraper
-            if (!config.openMetrics()) {
+            if (!config.security().openMetrics()) {
                 access.requireReader(ctx);
             }
             ctx.contentType(Metrics.CONTENT_TYPE).result(metrics.scrape());
         });
-        new Console(store, live, access, config.readerToken().isPresent()).register(app);
+        new Console(store, live, access, config.security().readerToken().isPresent()).register(app);
         readable(app, "/openapi.json", docs::json);
         readable(app, "/openapi.yaml", docs::yaml);
         readable(app, "/docs", docs::page);
         readable(app, ApiDocs.ASSETS + "{file}", docs::asset);
         try {
-            app.start(config.host(), config.port());
+            app.start(config.listen().host(), config.listen().port());
         } catch (JavalinBindException e) {
             tap.close();
             live.close();
             metrics.close();
-            throw new PressmarkException("port-in-use", config.host() + ":" + config.port()
+            throw new PressmarkException("port-in-use", config.listen().host() + ":" + config.listen().port()
                     + ": cannot listen there; another process holds the port (choose another with --port)", e);
         } catch (RuntimeException e) {
             tap.close();
@@ -178,7 +179,7 @@ public final class PressmarkServer implements AutoCloseable {
         // The connector's acceptors and selectors lease threads of their own; the model requests may hold
         // maxConcurrent more; what is left over serves everything else, whatever the model requests do.
         int leased = pool.getThreadPoolBudget() == null ? 0 : pool.getThreadPoolBudget().getLeasedThreads();
-        pool.setMaxThreads(Math.max(config.maxThreads(), leased + config.maxConcurrent() + OTHER_THREADS));
+        pool.setMaxThreads(Math.max(config.listen().maxThreads(), leased + config.admission().maxConcurrent() + OTHER_THREADS));
         try {
             live.awaitInitialLoad(INITIAL_LOAD_WAIT);
         } catch (InterruptedException e) {
@@ -191,9 +192,9 @@ public final class PressmarkServer implements AutoCloseable {
         }
         shadows.start();
         PressmarkServer server = new PressmarkServer(app, live, metrics, tap, shadows, supervisor);
-        LOG.info("listening on http://{}:{} (store {}; admin endpoints {}; reading endpoints {})", config.host(), server.port(),
-                store.describe(), config.adminToken().isPresent() ? "enabled" : "disabled",
-                config.readerToken().isPresent() ? "need the reader token" : "open");
+        LOG.info("listening on http://{}:{} (store {}; admin endpoints {}; reading endpoints {})", config.listen().host(), server.port(),
+                store.describe(), config.security().adminToken().isPresent() ? "enabled" : "disabled",
+                config.security().readerToken().isPresent() ? "need the reader token" : "open");
         return server;
     }
 

@@ -175,7 +175,8 @@ final class Problems {
                     + " (add ?allow_breaking=true to publish it anyway)", List.of());
             case StoreException.UNSIGNED, StoreException.BAD_SIGNATURE -> new ApiProblem(422, e.code(), "Signature refused", e.getMessage(),
                     List.of());
-            case StoreException.RETIRED, StoreException.ACTIVE, StoreException.NO_ROLLBACK ->
+            case StoreException.INVALID_REASON -> ApiProblem.invalidField("reason", e.getMessage());
+            case StoreException.RETIRED, StoreException.ALREADY_RETIRED, StoreException.ACTIVE, StoreException.NO_ROLLBACK ->
                     new ApiProblem(409, e.code(), "Conflict with the version history", e.getMessage(), List.of());
             case StoreException.UNREACHABLE -> new ApiProblem(503, STORE_UNAVAILABLE, "Store unavailable",
                     "the store does not answer now; the versions already loaded go on serving predictions", List.of());

@@ -42,11 +42,11 @@ final class Requests {
     Requests(ObjectMapper json, ServerConfig config, Bodies bodies) {
         this.json = json;
         this.bodies = bodies;
-        this.items = new ItemsReader(json.getFactory(), config.maxItems(),
-                (int) Math.min(Integer.MAX_VALUE, (long) config.maxTokensPerField() * CHARS_PER_SCORED_TOKEN));
-        this.maxJsonBytes = config.maxJsonBytes();
-        this.maxBundleBytes = config.maxBundleBytes();
-        this.maxTokensPerField = config.maxTokensPerField();
+        this.items = new ItemsReader(json.getFactory(), config.limits().maxItems(),
+                (int) Math.min(Integer.MAX_VALUE, (long) config.limits().maxTokensPerField() * CHARS_PER_SCORED_TOKEN));
+        this.maxJsonBytes = config.limits().maxJsonBytes();
+        this.maxBundleBytes = config.limits().maxBundleBytes();
+        this.maxTokensPerField = config.limits().maxTokensPerField();
     }
 
     /** How many tokens of each text field are scored. */
@@ -137,6 +137,15 @@ final class Requests {
             throw ApiProblem.invalidField("reason", "must have at most " + MAX_REASON_CHARS + " characters, had " + why.length());
         }
         return new ActivateBody(tag, forced, why);
+    }
+
+    /**
+     * {@code {"reason": "..."}}, the body of {@code POST /models/{name}/versions/{tag}/retire}: the
+     * reason as given; the store decides whether it is one ({@link dev.pressmark.store.Names#requiredReason}).
+     */
+    static String retireReason(JsonNode body) {
+        onlyMembers(body, Set.of("reason"));
+        return requiredString(body, "reason");
     }
 
     /** {@code {"tag": "...", "fraction": 0.2}}; the fraction is in (0, 1] and defaults to {@link Shadow#DEFAULT_FRACTION}. */

@@ -4,37 +4,22 @@ import dev.pressmark.store.lifecycle.PromotionPolicy;
 import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
-import java.util.function.Consumer;
 
 /**
- * How the service runs. Fixed at start-up.
+ * How the service runs, in groups: where it listens, how large a request may be, how many are
+ * admitted at once and for how long, who may call it, what it records, and when an activation is
+ * refused. Fixed at start-up. {@link #defaults()} and the {@code with...} methods set only what a
+ * caller needs; each group checks its own values.
  *
- * @param host the address to listen on
- * @param port the TCP port; 0 picks a free one
- * @param maxItems the most items one predict or explain request may carry
- * @param maxJsonBytes the largest JSON request body
- * @param maxBundleBytes the largest bundle upload
- * @param adminToken the admin bearer token; without one the admin endpoints answer 403
- * @param readerToken the reader bearer token; without one the reading endpoints are open
- * @param maxThreads the size of the HTTP thread pool
- * @param accessLog whether each request is logged, one line, on the logger {@code dev.pressmark.access}
- * @param maxConcurrent the most model requests (predict, explain, publish, activate, rollback) served at once;
- *     beyond it they are answered 503 with {@code Retry-After} at once, while health, metrics and docs still answer
- * @param corsOrigins the origins whose pages may call the service from a browser; empty (the default) turns CORS off
- * @param maxTokensPerField how many tokens of each text field are scored; a longer field is cut, and the answer says by how much
- * @param requestTimeoutMs how long a predict or explain request may take, from its handler's start, before it is answered
- *     503 {@code deadline-exceeded} and its admission slot is freed
+ * @param listen the address, port and thread pool
+ * @param limits the size of what one request may carry
+ * @param admission how many model requests are served at once, and for how long
+ * @param security the tokens, the browser origins and whether the metrics are open
+ * @param observability the access log and the traffic listeners (shadow scoring, drift watch)
  * @param promotion when {@code PUT /models/{name}/active} refuses a candidate unless forced
- * @param tapCapacity how many answered requests may wait for the traffic listeners (shadow scoring, drift watch); beyond it they are dropped and counted
- * @param driftSample the share of active-version predict requests whose items go into the drift window, in [0, 1]; 0 turns drift watch off
- * @param bodyBudgetBytes the bytes of request bodies held in memory at once, across all requests; a body that does not fit now
- *     is answered 503 with {@code Retry-After} before it is read, one that never could 413
- * @param openMetrics whether {@code GET /metrics} answers without the reader token when one is set
  */
-public record ServerConfig(String host, int port, int maxItems, long maxJsonBytes, long maxBundleBytes, Optional<BearerToken> adminToken,
-        Optional<BearerToken> readerToken, int maxThreads, boolean accessLog, int maxConcurrent, List<String> corsOrigins,
-        int maxTokensPerField, long requestTimeoutMs, PromotionPolicy promotion, int tapCapacity, double driftSample, long bodyBudgetBytes,
-        boolean openMetrics) {
+public record ServerConfig(Listen listen, Limits limits, Admission admission, Security security, Observability observability,
+        PromotionPolicy promotion) {
 
     public static final String DEFAULT_HOST = "127.0.0.1";
     public static final int DEFAULT_PORT = 8080;
@@ -80,31 +65,109 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
     }
 
     public ServerConfig {
-        Objects.requireNonNull(host, "host");
-        Objects.requireNonNull(adminToken, "adminToken");
-        Objects.requireNonNull(readerToken, "readerToken");
+        Objects.requireNonNull(listen, "listen");
+        Objects.requireNonNull(limits, "limits");
+        Objects.requireNonNull(admission, "admission");
+        Objects.requireNonNull(security, "security");
+        Objects.requireNonNull(observability, "observability");
         Objects.requireNonNull(promotion, "promotion");
-        corsOrigins = List.copyOf(Objects.requireNonNull(corsOrigins, "corsOrigins"));
-        for (String origin : corsOrigins) {
-            if (!origin.matches("https?://[^/\\s]+")) {
-                throw new IllegalArgumentException("a CORS origin is scheme://host[:port] with no path, was \"" + origin + "\"");
+    }
+
+    /**
+     * Where the service listens.
+     *
+     * @param host the address to listen on
+     * @param port the TCP port; 0 picks a free one
+     * @param maxThreads the size of the HTTP thread pool
+     */
+    public record Listen(String host, int port, int maxThreads) {
+
+        public Listen {
+            Objects.requireNonNull(host, "host");
+            atLeast("port", port, 0, "");
+            if (port > 65_535) {
+                throw new IllegalArgumentException("port must be in [0, 65535], was " + port);
+            }
+            atLeast("maxThreads", maxThreads, 4, " threads");
+        }
+    }
+
+    /**
+     * What one request may carry.
+     *
+     * @param maxItems the most items one predict or explain request may carry
+     * @param maxJsonBytes the largest JSON request body
+     * @param maxBundleBytes the largest bundle upload
+     * @param maxTokensPerField how many tokens of each text field are scored; a longer field is cut, and the answer says by how much
+     * @param bodyBudgetBytes the bytes of request bodies held in memory at once, across all requests; a body that does not fit now
+     *     is answered 503 with {@code Retry-After} before it is read, one that never could 413
+     */
+    public record Limits(int maxItems, long maxJsonBytes, long maxBundleBytes, int maxTokensPerField, long bodyBudgetBytes) {
+
+        public Limits {
+            atLeast("maxItems", maxItems, 1, " items");
+            atLeast("maxJsonBytes", maxJsonBytes, 1, " bytes");
+            atLeast("maxBundleBytes", maxBundleBytes, 1, " bytes");
+            atLeast("maxTokensPerField", maxTokensPerField, 1, " tokens");
+            atLeast("bodyBudgetBytes", bodyBudgetBytes, 1, " bytes");
+        }
+    }
+
+    /**
+     * How many model requests are served at once, and for how long.
+     *
+     * @param maxConcurrent the most model requests (predict, explain, publish, activate, rollback) served at once;
+     *     beyond it they are answered 503 with {@code Retry-After} at once, while health, metrics and docs still answer
+     * @param requestTimeoutMs how long a predict or explain request may take, from its handler's start, before it is answered
+     *     503 {@code deadline-exceeded} and its admission slot is freed
+     */
+    public record Admission(int maxConcurrent, long requestTimeoutMs) {
+
+        public Admission {
+            atLeast("maxConcurrent", maxConcurrent, 1, " requests");
+            atLeast("requestTimeoutMs", requestTimeoutMs, 1, " ms");
+        }
+    }
+
+    /**
+     * Who may call the service.
+     *
+     * @param adminToken the admin bearer token; without one the admin endpoints answer 403
+     * @param readerToken the reader bearer token; without one the reading endpoints are open
+     * @param corsOrigins the origins whose pages may call the service from a browser; empty (the default) turns CORS off
+     * @param openMetrics whether {@code GET /metrics} answers without the reader token when one is set
+     */
+    public record Security(Optional<BearerToken> adminToken, Optional<BearerToken> readerToken, List<String> corsOrigins,
+            boolean openMetrics) {
+
+        public Security {
+            Objects.requireNonNull(adminToken, "adminToken");
+            Objects.requireNonNull(readerToken, "readerToken");
+            corsOrigins = List.copyOf(Objects.requireNonNull(corsOrigins, "corsOrigins"));
+            for (String origin : corsOrigins) {
+                if (!origin.matches("https?://[^/\\s]+")) {
+                    throw new IllegalArgumentException("a CORS origin is scheme://host[:port] with no path, was \"" + origin + "\"");
+                }
             }
         }
-        atLeast("port", port, 0, "");
-        if (port > 65_535) {
-            throw new IllegalArgumentException("port must be in [0, 65535], was " + port);
-        }
-        atLeast("maxItems", maxItems, 1, " items");
-        atLeast("maxJsonBytes", maxJsonBytes, 1, " bytes");
-        atLeast("maxBundleBytes", maxBundleBytes, 1, " bytes");
-        atLeast("maxThreads", maxThreads, 4, " threads");
-        atLeast("maxConcurrent", maxConcurrent, 1, " requests");
-        atLeast("maxTokensPerField", maxTokensPerField, 1, " tokens");
-        atLeast("requestTimeoutMs", requestTimeoutMs, 1, " ms");
-        atLeast("tapCapacity", tapCapacity, 1, " requests");
-        atLeast("bodyBudgetBytes", bodyBudgetBytes, 1, " bytes");
-        if (!(driftSample >= 0.0 && driftSample <= 1.0)) {
-            throw new IllegalArgumentException("driftSample must be a share of requests in [0, 1], was " + driftSample);
+    }
+
+    /**
+     * What the service records.
+     *
+     * @param accessLog whether each request is logged, one line, on the logger {@code dev.pressmark.access}
+     * @param tapCapacity how many answered requests may wait for the traffic listeners (shadow scoring, drift watch); beyond it
+     *     they are dropped and counted
+     * @param driftSample the share of active-version predict requests whose items go into the drift window, in [0, 1]; 0 turns
+     *     drift watch off
+     */
+    public record Observability(boolean accessLog, int tapCapacity, double driftSample) {
+
+        public Observability {
+            atLeast("tapCapacity", tapCapacity, 1, " requests");
+            if (!(driftSample >= 0.0 && driftSample <= 1.0)) {
+                throw new IllegalArgumentException("driftSample must be a share of requests in [0, 1], was " + driftSample);
+            }
         }
     }
 
@@ -116,128 +179,97 @@ public record ServerConfig(String host, int port, int maxItems, long maxJsonByte
 
     /** Every default, listening on {@value #DEFAULT_HOST}:{@value #DEFAULT_PORT}, with no tokens. */
     public static ServerConfig defaults() {
-        return new ServerConfig(DEFAULT_HOST, DEFAULT_PORT, DEFAULT_MAX_ITEMS, DEFAULT_MAX_JSON_BYTES, DEFAULT_MAX_BUNDLE_BYTES, Optional.empty(),
-                Optional.empty(), DEFAULT_MAX_THREADS, DEFAULT_ACCESS_LOG, DEFAULT_MAX_CONCURRENT, List.of(),
-                DEFAULT_MAX_TOKENS_PER_FIELD, DEFAULT_REQUEST_TIMEOUT_MS, PromotionPolicy.defaults(), DEFAULT_TAP_CAPACITY, DEFAULT_DRIFT_SAMPLE,
-                defaultBodyBudgetBytes(), DEFAULT_OPEN_METRICS);
+        return new ServerConfig(new Listen(DEFAULT_HOST, DEFAULT_PORT, DEFAULT_MAX_THREADS),
+                new Limits(DEFAULT_MAX_ITEMS, DEFAULT_MAX_JSON_BYTES, DEFAULT_MAX_BUNDLE_BYTES, DEFAULT_MAX_TOKENS_PER_FIELD,
+                        defaultBodyBudgetBytes()),
+                new Admission(DEFAULT_MAX_CONCURRENT, DEFAULT_REQUEST_TIMEOUT_MS),
+                new Security(Optional.empty(), Optional.empty(), List.of(), DEFAULT_OPEN_METRICS),
+                new Observability(DEFAULT_ACCESS_LOG, DEFAULT_TAP_CAPACITY, DEFAULT_DRIFT_SAMPLE),
+                PromotionPolicy.defaults());
     }
 
-    public ServerConfig withHost(String newHost) {
-        return edit(e -> e.host = newHost);
+    public ServerConfig withListen(Listen newListen) {
+        return new ServerConfig(newListen, limits, admission, security, observability, promotion);
     }
 
-    public ServerConfig withPort(int newPort) {
-        return edit(e -> e.port = newPort);
+    public ServerConfig withLimits(Limits newLimits) {
+        return new ServerConfig(listen, newLimits, admission, security, observability, promotion);
     }
 
-    public ServerConfig withMaxItems(int n) {
-        return edit(e -> e.maxItems = n);
+    public ServerConfig withAdmission(Admission newAdmission) {
+        return new ServerConfig(listen, limits, newAdmission, security, observability, promotion);
     }
 
-    public ServerConfig withBodyLimits(long newMaxJsonBytes, long newMaxBundleBytes) {
-        return edit(e -> {
-            e.maxJsonBytes = newMaxJsonBytes;
-            e.maxBundleBytes = newMaxBundleBytes;
-        });
+    public ServerConfig withSecurity(Security newSecurity) {
+        return new ServerConfig(listen, limits, admission, newSecurity, observability, promotion);
     }
 
-    public ServerConfig withAdminToken(Optional<BearerToken> token) {
-        return edit(e -> e.adminToken = token);
-    }
-
-    public ServerConfig withReaderToken(Optional<BearerToken> token) {
-        return edit(e -> e.readerToken = token);
-    }
-
-    public ServerConfig withAccessLog(boolean on) {
-        return edit(e -> e.accessLog = on);
-    }
-
-    public ServerConfig withMaxConcurrent(int n) {
-        return edit(e -> e.maxConcurrent = n);
-    }
-
-    public ServerConfig withCorsOrigins(List<String> origins) {
-        return edit(e -> e.corsOrigins = origins);
-    }
-
-    public ServerConfig withMaxTokensPerField(int n) {
-        return edit(e -> e.maxTokensPerField = n);
-    }
-
-    public ServerConfig withRequestTimeoutMs(long ms) {
-        return edit(e -> e.requestTimeoutMs = ms);
+    public ServerConfig withObservability(Observability newObservability) {
+        return new ServerConfig(listen, limits, admission, security, newObservability, promotion);
     }
 
     public ServerConfig withPromotion(PromotionPolicy policy) {
-        return edit(e -> e.promotion = policy);
+        return new ServerConfig(listen, limits, admission, security, observability, policy);
     }
 
-    public ServerConfig withTapCapacity(int requests) {
-        return edit(e -> e.tapCapacity = requests);
+    public ServerConfig withHost(String newHost) {
+        return withListen(new Listen(newHost, listen.port(), listen.maxThreads()));
     }
 
-    public ServerConfig withDriftSample(double share) {
-        return edit(e -> e.driftSample = share);
+    public ServerConfig withPort(int newPort) {
+        return withListen(new Listen(listen.host(), newPort, listen.maxThreads()));
+    }
+
+    public ServerConfig withMaxItems(int n) {
+        return withLimits(new Limits(n, limits.maxJsonBytes(), limits.maxBundleBytes(), limits.maxTokensPerField(), limits.bodyBudgetBytes()));
+    }
+
+    public ServerConfig withBodyLimits(long newMaxJsonBytes, long newMaxBundleBytes) {
+        return withLimits(new Limits(limits.maxItems(), newMaxJsonBytes, newMaxBundleBytes, limits.maxTokensPerField(),
+                limits.bodyBudgetBytes()));
+    }
+
+    public ServerConfig withMaxTokensPerField(int n) {
+        return withLimits(new Limits(limits.maxItems(), limits.maxJsonBytes(), limits.maxBundleBytes(), n, limits.bodyBudgetBytes()));
     }
 
     public ServerConfig withBodyBudgetBytes(long bytes) {
-        return edit(e -> e.bodyBudgetBytes = bytes);
+        return withLimits(new Limits(limits.maxItems(), limits.maxJsonBytes(), limits.maxBundleBytes(), limits.maxTokensPerField(), bytes));
+    }
+
+    public ServerConfig withMaxConcurrent(int n) {
+        return withAdmission(new Admission(n, admission.requestTimeoutMs()));
+    }
+
+    public ServerConfig withRequestTimeoutMs(long ms) {
+        return withAdmission(new Admission(admission.maxConcurrent(), ms));
+    }
+
+    public ServerConfig withAdminToken(Optional<BearerToken> token) {
+        return withSecurity(new Security(token, security.readerToken(), security.corsOrigins(), security.openMetrics()));
+    }
+
+    public ServerConfig withReaderToken(Optional<BearerToken> token) {
+        return withSecurity(new Security(security.adminToken(), token, security.corsOrigins(), security.openMetrics()));
+    }
+
+    public ServerConfig withCorsOrigins(List<String> origins) {
+        return withSecurity(new Security(security.adminToken(), security.readerToken(), origins, security.openMetrics()));
     }
 
     public ServerConfig withOpenMetrics(boolean open) {
-        return edit(e -> e.openMetrics = open);
+        return withSecurity(new Security(security.adminToken(), security.readerToken(), security.corsOrigins(), open));
     }
 
-    /** A copy with some components changed; the compact constructor checks the result. */
-    private ServerConfig edit(Consumer<Edit> change) {
-        Edit e = new Edit(this);
-        change.accept(e);
-        return new ServerConfig(e.host, e.port, e.maxItems, e.maxJsonBytes, e.maxBundleBytes, e.adminToken, e.readerToken, e.maxThreads,
-                e.accessLog, e.maxConcurrent, e.corsOrigins, e.maxTokensPerField, e.requestTimeoutMs, e.promotion, e.tapCapacity,
-                e.driftSample, e.bodyBudgetBytes, e.openMetrics);
+    public ServerConfig withAccessLog(boolean on) {
+        return withObservability(new Observability(on, observability.tapCapacity(), observability.driftSample()));
     }
 
-    /** The components of a config being copied, one field each. */
-    private static final class Edit {
-        String host;
-        int port;
-        int maxItems;
-        long maxJsonBytes;
-        long maxBundleBytes;
-        Optional<BearerToken> adminToken;
-        Optional<BearerToken> readerToken;
-        int maxThreads;
-        boolean accessLog;
-        int maxConcurrent;
-        List<String> corsOrigins;
-        int maxTokensPerField;
-        long requestTimeoutMs;
-        PromotionPolicy promotion;
-        int tapCapacity;
-        double driftSample;
-        long bodyBudgetBytes;
-        boolean openMetrics;
+    public ServerConfig withTapCapacity(int requests) {
+        return withObservability(new Observability(observability.accessLog(), requests, observability.driftSample()));
+    }
 
-        Edit(ServerConfig c) {
-            host = c.host;
-            port = c.port;
-            maxItems = c.maxItems;
-            maxJsonBytes = c.maxJsonBytes;
-            maxBundleBytes = c.maxBundleBytes;
-            adminToken = c.adminToken;
-            readerToken = c.readerToken;
-            maxThreads = c.maxThreads;
-            accessLog = c.accessLog;
-            maxConcurrent = c.maxConcurrent;
-            corsOrigins = c.corsOrigins;
-            maxTokensPerField = c.maxTokensPerField;
-            requestTimeoutMs = c.requestTimeoutMs;
-            promotion = c.promotion;
-            tapCapacity = c.tapCapacity;
-            driftSample = c.driftSample;
-            bodyBudgetBytes = c.bodyBudgetBytes;
-            openMetrics = c.openMetrics;
-        }
+    public ServerConfig withDriftSample(double share) {
+        return withObservability(new Observability(observability.accessLog(), observability.tapCapacity(), share));
     }
 }

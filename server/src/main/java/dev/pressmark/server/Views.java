@@ -4,10 +4,12 @@ import com.fasterxml.jackson.core.JsonGenerator;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.MissingNode;
 import com.fasterxml.jackson.databind.node.NullNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Contribution;
 import dev.pressmark.core.bundle.Explanation;
+import dev.pressmark.core.bundle.Manifest;
 import dev.pressmark.core.bundle.Prediction;
 import dev.pressmark.core.contract.ContractRecord;
 import dev.pressmark.core.drift.DriftReport;
@@ -119,19 +121,24 @@ public final class Views {
 
     /** One version's metadata: the summary plus what its manifest says about it. */
     ObjectNode versionDetail(Version v) {
-        JsonNode manifest = manifest(v);
+        Manifest manifest = manifest(v);
         ObjectNode node = json.createObjectNode().put("model", v.model());
         node.setAll(versionSummary(v));
-        node.set("labels", manifest.path("labels").deepCopy());
-        node.set("input_fields", manifest.path("input_fields").deepCopy());
-        node.set("metrics", manifest.path("metrics").deepCopy());
-        node.set("provenance", manifest.path("provenance").deepCopy());
-        if (manifest.has("search")) {
-            node.set("search", manifest.path("search").deepCopy());
-        }
+        // a part the manifest lacks (an archive that is not a model) answers null, as it always has
+        node.set("labels", manifest.labels().isEmpty() ? MissingNode.getInstance() : strings(manifest.labels()));
+        node.set("input_fields", manifest.inputFields().isEmpty() ? MissingNode.getInstance() : strings(manifest.inputFields()));
+        node.set("metrics", manifest.metrics().<JsonNode>map(Manifest.Metrics::toJson).orElse(MissingNode.getInstance()));
+        node.set("provenance", manifest.provenance().<JsonNode>map(Manifest.Provenance::toJson).orElse(MissingNode.getInstance()));
+        manifest.searchJson().ifPresent(search -> node.set("search", search));
         node.set("contract", contract(v));
         node.put("signed_by", signedBy(v));
         return node;
+    }
+
+    private ArrayNode strings(List<String> values) {
+        ArrayNode array = json.createArrayNode();
+        values.forEach(array::add);
+        return array;
     }
 
     /** What the promotion check found: {@code passed}, each refusal as {@code checks}, and {@code notes}. */
@@ -226,11 +233,11 @@ public final class Views {
         }
     }
 
-    private JsonNode manifest(Version v) {
+    private static Manifest manifest(Version v) {
         try {
-            return json.readTree(v.manifestJson());
-        } catch (IOException e) {
-            throw new UncheckedIOException("the stored manifest of " + v.model() + " " + v.tag() + " is not JSON", e);
+            return Manifest.parse(v.manifestJson());
+        } catch (IllegalArgumentException e) {
+            throw new IllegalStateException("the stored manifest of " + v.model() + " " + v.tag() + " is not a manifest: " + e.getMessage(), e);
         }
     }
 }

@@ -10,34 +10,40 @@ import org.junit.jupiter.api.Test;
 import picocli.CommandLine;
 
 /**
- * README's command reference is the program's own usage help, pasted between two markers. This
- * keeps the two equal: when a command changes, the test fails and says how to paste it again
- * ({@code -Dpressmark.readme.update=true} rewrites the section in place).
+ * docs/commands.md, the command reference, is the program's own usage help, pasted between two
+ * markers. This keeps the two equal: when a command changes, the test fails and says how to paste
+ * it again ({@code -Dpressmark.readme.update=true} rewrites the section in place).
  */
 class CommandReferenceTest {
 
     static final String START = "<!-- command reference: the usage help of every command; CommandReferenceTest keeps it in sync -->";
     static final String END = "<!-- end of command reference -->";
-    private static final Path README = Path.of("..", "README.md");
+    private static final Path REFERENCE = Path.of("..", "docs", "commands.md");
     private static final int WIDTH = 100;
 
     @Test
-    void the_readme_command_reference_is_the_programs_usage_help() throws IOException {
-        String readme = Files.readString(README, StandardCharsets.UTF_8);
-        int start = readme.indexOf(START);
-        int end = readme.indexOf(END);
-        assertThat(start).as("README.md has the start marker").isNotNegative();
-        assertThat(end).as("README.md has the end marker after the start marker").isGreaterThan(start);
-        String current = readme.substring(start + START.length(), end);
+    void the_command_reference_in_docs_is_the_programs_usage_help() throws IOException {
+        String text = Files.readString(REFERENCE, StandardCharsets.UTF_8);
+        int start = text.indexOf(START);
+        int end = text.indexOf(END);
+        assertThat(start).as("docs/commands.md has the start marker").isNotNegative();
+        assertThat(end).as("docs/commands.md has the end marker after the start marker").isGreaterThan(start);
+        String current = text.substring(start + START.length(), end);
         String expected = "\n" + reference();
         if (!current.equals(expected) && Boolean.getBoolean("pressmark.readme.update")) {
-            Files.writeString(README, readme.substring(0, start + START.length()) + expected + readme.substring(end), StandardCharsets.UTF_8);
+            Files.writeString(REFERENCE, text.substring(0, start + START.length()) + expected + text.substring(end), StandardCharsets.UTF_8);
             current = expected;
         }
         assertThat(current)
-                .as("README.md's command reference is out of date; paste it again with: "
+                .as("docs/commands.md is out of date; paste it again with: "
                         + "mvn -B -q -pl server test -Dtest=CommandReferenceTest -Dpressmark.readme.update=true")
                 .isEqualTo(expected);
+    }
+
+    @Test
+    void the_readme_links_to_the_reference_and_holds_no_second_copy() throws IOException {
+        String readme = Files.readString(Path.of("..", "README.md"), StandardCharsets.UTF_8);
+        assertThat(readme).contains("(docs/commands.md)").doesNotContain(START).doesNotContain("### `pressmark train`");
     }
 
     @Test

@@ -35,8 +35,8 @@ import org.openqa.selenium.support.ui.WebDriverWait;
 
 /**
  * The web console in a real browser (the system's Chromium through its own chromedriver, never a
- * downloaded one) against the demo: the models show, the try-it box labels a title and colours its
- * subwords, and a roll-back with the admin token makes v1 the active version. Screenshots go to
+ * downloaded one) against the demo: the models show, the score panel labels a title, splits one bar
+ * into the label probabilities, largest first, and colours its subwords, and a roll-back with the admin token makes v1 the active version. Screenshots go to
  * {@code target/console-*.png} for a person to look at.
  */
 class ConsoleBrowserTest {
@@ -124,10 +124,27 @@ class ConsoleBrowserTest {
                     .contains("stability index", "unknown tokens, live", "unknown tokens, training");
 
             // A brand the data never had, with a part every department sells: only its first syllable tells.
-            WebElement input = driver.findElement(By.cssSelector(".try-input[data-field='title']"));
+            WebElement input = driver.findElement(By.cssSelector(".score-input[data-field='title']"));
             input.sendKeys("Quorubwick service kit 3/4in");
-            wait.until(ExpectedConditions.textToBe(By.id("try-label"), "plumbing"));
-            List<WebElement> chips = driver.findElements(By.cssSelector("#try-subwords li.chip"));
+            wait.until(ExpectedConditions.textToBe(By.id("score-label"), "plumbing"));
+            // One stacked bar, a segment per label, largest first, and a legend in the same order that sums to 100 %.
+            List<WebElement> legend = driver.findElements(By.cssSelector("#score-legend li"));
+            List<WebElement> segments = driver.findElements(By.cssSelector("#score-bar .segment"));
+            assertThat(legend).hasSize(4);
+            assertThat(segments).extracting(e -> e.getAttribute("data-label"))
+                    .containsExactlyElementsOf(legend.stream().map(e -> e.getAttribute("data-label")).toList());
+            assertThat(legend.get(0).getAttribute("data-label")).isEqualTo("plumbing");
+            assertThat(legend.get(0).getAttribute("class")).contains("chosen");
+            List<Double> shares = legend.stream().map(e -> Double.parseDouble(e.findElement(By.className("num")).getText().replace(" %", ""))).toList();
+            assertThat(shares).isSortedAccordingTo(java.util.Comparator.reverseOrder());
+            // each share is rounded to 0.1 %: four of them sum to 100 within 4 x 0.05
+            assertThat(shares.stream().mapToDouble(Double::doubleValue).sum()).isCloseTo(100.0, org.assertj.core.data.Offset.offset(0.2));
+            List<Integer> widths = segments.stream().map(e -> e.getRect().getWidth()).toList();
+            assertThat(widths.get(0)).isGreaterThan(widths.get(widths.size() - 1));
+            assertThat(segments.get(0).getCssValue("background-color")).isNotEqualTo(segments.get(1).getCssValue("background-color"));
+            assertThat(legend.get(0).findElement(By.className("swatch")).getCssValue("background-color"))
+                    .isEqualTo(segments.get(0).getCssValue("background-color"));
+            List<WebElement> chips = driver.findElements(By.cssSelector("#score-subwords li.chip"));
             assertThat(chips).isNotEmpty();
             WebElement quor = chips.stream().filter(c -> c.findElement(By.tagName("code")).getText().equals("quor")).findFirst().orElseThrow();
             assertThat(quor.getAttribute("class")).contains("pos");
@@ -159,8 +176,8 @@ class ConsoleBrowserTest {
             assertThat(driver.findElement(By.id("notice")).getText()).contains("v1 is active");
             // Another active version, another window.
             wait.until(ExpectedConditions.textToBe(By.id("drift-version"), "routing v1"));
-            // The try-it box asks again, now of v1.
-            wait.until(ExpectedConditions.textToBePresentInElementLocated(By.cssSelector("#try-result .prediction"), "routing v1"));
+            // The score panel asks again, now of v1.
+            wait.until(ExpectedConditions.textToBePresentInElementLocated(By.cssSelector("#score-result .prediction"), "routing v1"));
 
             // v2 set beside the now active v1: every difference is v2's lead, marked better in words and by an arrow.
             driver.findElement(By.cssSelector("#versions tr[data-tag='v2'] button[aria-pressed]")).click();
@@ -183,8 +200,9 @@ class ConsoleBrowserTest {
 
             viewport(driver, 390, 844);
             screenshot(driver, "390x844");
-            ((JavascriptExecutor) driver).executeScript("document.getElementById('try-heading').scrollIntoView()");
-            screenshot(driver, "390x844-try");
+            // the panel alone: a page screenshot after a long scroll can come back before the page is painted there
+            File panel = driver.findElement(By.cssSelector("section.score")).getScreenshotAs(OutputType.FILE);
+            Files.copy(panel.toPath(), Path.of("target", "console-390x844-score.png"), StandardCopyOption.REPLACE_EXISTING);
             Object wide = ((JavascriptExecutor) driver).executeScript("const w = document.documentElement.clientWidth;"
                     + " return [...document.querySelectorAll('body *')].filter(e => e.getBoundingClientRect().right > w + 0.5"
                     + " && !e.parentElement.closest('.table-wrap')).map(e => e.tagName + (e.id ? '#' + e.id : '') + '.' + e.className"

@@ -2,6 +2,7 @@ package dev.pressmark.cli;
 
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
 import dev.pressmark.core.bundle.Bundle;
+import dev.pressmark.core.bundle.Manifest;
 import dev.pressmark.core.bundle.ModelWeights;
 import dev.pressmark.core.bundle.TextPipeline;
 import dev.pressmark.core.bundle.TokenizerSpec;
@@ -61,7 +62,7 @@ public final class LoadableBundles {
             platt.add(new PlattScaling(random.nextDouble(-3, -0.5), random.nextDouble(-1, 1)));
         }
         TokenizerSpec spec = TokenizerSpec.words(TextNormalizer.DEFAULT);
-        return Bundle.write(JsonNodeFactory.instance.objectNode().put("name", "routing").put("seed", seed), labels,
+        return Bundle.write(Manifest.named("routing"), labels,
                 new TextPipeline(spec, spec.tokenizer(), space), new ModelWeights(ModelWeights.LINEAR_SVM, LinearWeights.of(labels.size(), 1.0, w),
                         platt), JsonNodeFactory.instance.objectNode());
     }

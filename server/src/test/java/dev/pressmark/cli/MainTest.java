@@ -20,7 +20,7 @@ class MainTest {
     @Test
     void no_command_help_or_a_name_that_is_not_a_command_gets_the_whole_tree() {
         Map<String, CommandLine> all = Main.commandLine().getSubcommands();
-        assertThat(all).hasSize(20).containsKeys("train", "serve", "demo", "help");
+        assertThat(all).hasSize(21).containsKeys("train", "serve", "demo", "retire", "help");
         for (String[] args : new String[][] {{}, {"--help"}, {"-V"}, {"help", "train"}, {"trian"}, {"--verbose"}}) {
             assertThat(Main.commandLineFor(args).getSubcommands().keySet()).as(String.join(" ", args)).containsExactlyElementsOf(all.keySet());
         }

@@ -4,10 +4,8 @@ import com.fasterxml.jackson.databind.node.JsonNodeFactory;
 import dev.pressmark.core.Progress;
 import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.bundle.Sha256;
-import dev.pressmark.core.train.BundleAssembler;
-import dev.pressmark.core.train.LabelledData;
-import dev.pressmark.core.train.TrainConfig;
-import dev.pressmark.core.train.TrainingRun;
+import dev.pressmark.core.train.BundleTrainer;
+import dev.pressmark.core.train.TrainPlan;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
@@ -72,9 +70,7 @@ final class TestBundles {
                     "features: {max_tokens: 200}",
                     classifier,
                     "evaluation: {folds: 2, threads: 1}") + "\n");
-            TrainConfig config = TrainConfig.read(yaml);
-            LabelledData data = LabelledData.read(dir.resolve(config.data().file()), config.data().text(), config.data().label(), false);
-            return BundleAssembler.assemble(config, data, new TrainingRun(config, data).run(Progress.NONE), CREATED);
+            return BundleTrainer.train(TrainPlan.read(yaml), CREATED, Progress.NONE).bytes();
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         } finally {

@@ -78,8 +78,15 @@ public interface BundleStore extends AutoCloseable {
      */
     Activation rollback(String model, String actor);
 
-    /** Marks a version retired: it stays stored and listed but can no longer be activated. The active version cannot be retired. */
-    void retire(String model, String tag, String actor);
+    /**
+     * Marks a version retired and records {@code reason} (required, see {@link Names#requiredReason})
+     * in a {@link StoreEvent#RETIRE} event. A retired version stays stored, listed, readable and
+     * loadable, but can no longer be activated, rolled back to or shadowed
+     * ({@link StoreException#RETIRED}). The active version cannot be retired
+     * ({@link StoreException#ACTIVE}), nor a retired one again ({@link StoreException#ALREADY_RETIRED}).
+     * A running shadow of the version stops. Returns the version as it is now.
+     */
+    Version retire(String model, String tag, String actor, String reason);
 
     /** Every model, by name. */
     List<ModelSummary> models();

@@ -30,7 +30,12 @@ public final class StoreException extends PressmarkException {
     public static final String TAG_EXISTS = "tag-exists";
     public static final String NO_SUCH_MODEL = "no-such-model";
     public static final String NO_SUCH_VERSION = "no-such-version";
+    /** The version is retired: it cannot be activated, rolled back to or shadowed. */
     public static final String RETIRED = "version-retired";
+    /** A retire of a version that is retired already. */
+    public static final String ALREADY_RETIRED = "already-retired";
+    /** A reason that a change needs is missing or too long. */
+    public static final String INVALID_REASON = "invalid-reason";
     public static final String ACTIVE = "version-active";
     public static final String NO_ROLLBACK = "no-rollback";
     public static final String CORRUPT = "version-corrupt";

@@ -2,12 +2,10 @@ package dev.pressmark.core.bundle;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.classify.LinearClassifier;
 import dev.pressmark.core.classify.LinearWeights;
-import dev.pressmark.core.classify.PlattScaling;
 import dev.pressmark.core.classify.ProbabilisticClassifier;
 import dev.pressmark.core.feature.FeatureSpace;
 import dev.pressmark.core.feature.SparseMatrix;
@@ -19,6 +17,7 @@ import java.util.Comparator;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.Optional;
 
 /**
  * A loaded bundle: the manifest, the text pipeline and the classifier, ready to predict and
@@ -27,17 +26,14 @@ import java.util.Map;
  */
 public final class Bundle {
 
-    /** Manifest keys this class reads and writes. */
-    public static final String NAME = "name";
-    public static final String LABELS = "labels";
-    public static final String INPUT_FIELDS = "input_fields";
-    public static final String CLASSIFIER = "classifier";
     /** No cut: every token of every field is scored. */
     public static final int ALL_TOKENS = Integer.MAX_VALUE;
 
     private static final ObjectMapper JSON = new ObjectMapper();
 
+    /** The manifest tree as the archive holds it, for showing it whole. */
     private final JsonNode manifest;
+    private final Manifest typed;
     private final String name;
     private final List<String> labels;
     private final TextPipeline pipeline;
@@ -46,10 +42,11 @@ public final class Bundle {
     private final JsonNode profile;
     private final ThreadLocal<Scratch> scratch;
 
-    private Bundle(JsonNode manifest, List<String> labels, TextPipeline pipeline, ModelWeights model, JsonNode profile) {
+    private Bundle(JsonNode manifest, Manifest typed, TextPipeline pipeline, ModelWeights model, JsonNode profile) {
         this.manifest = manifest;
-        this.name = manifest.path(NAME).asText();
-        this.labels = List.copyOf(labels);
+        this.typed = typed;
+        this.name = typed.name();
+        this.labels = typed.labels();
         this.pipeline = pipeline;
         this.model = model;
         this.classifier = model.classifier();
@@ -58,29 +55,42 @@ public final class Bundle {
     }
 
     /**
+     * A bundle made in memory and its bytes, as {@link #read} would give them back: the report of
+     * a fresh model needs no second reading of its own file.
+     */
+    public record Built(byte[] bytes, Bundle bundle) {
+    }
+
+    /**
      * Writes a bundle. {@code manifest} holds everything but the parts this method adds: the
      * labels, the input fields, the classifier's kind and sigmoids, and the entry checksums.
      */
-    public static byte[] write(ObjectNode manifest, List<String> labels, TextPipeline pipeline, ModelWeights model, JsonNode profile) {
-        ObjectNode full = manifest.deepCopy();
-        ArrayNode labelArray = full.putArray(LABELS);
-        labels.forEach(labelArray::add);
-        ArrayNode fields = full.putArray(INPUT_FIELDS);
-        pipeline.columns().forEach(fields::add);
-        ObjectNode classifierNode = full.putObject(CLASSIFIER);
-        classifierNode.put("kind", model.kind());
-        classifierNode.put("probabilities", model.hasProbabilities());
-        ArrayNode sigmoids = classifierNode.putArray("platt");
-        for (PlattScaling scaling : model.platt()) {
-            sigmoids.addObject().put("a", scaling.a()).put("b", scaling.b());
+    public static byte[] write(Manifest manifest, List<String> labels, TextPipeline pipeline, ModelWeights model, JsonNode profile) {
+        return build(manifest, labels, pipeline, model, profile).bytes();
+    }
+
+    /** {@link #write}, with the bundle the bytes hold. */
+    public static Built build(Manifest manifest, List<String> labels, TextPipeline pipeline, ModelWeights model, JsonNode profile) {
+        if (labels.size() != model.weights().numClasses()) {
+            throw new IllegalArgumentException(labels.size() + " labels but weights for " + model.weights().numClasses() + " classes");
         }
+        ObjectNode tree = manifest.withModel(labels, pipeline.columns(), Manifest.Classifier.of(model)).withListing(Optional.empty())
+                .toJson();
         Map<String, byte[]> entries = new LinkedHashMap<>();
         entries.put(BundleArchive.TOKENIZER, CanonicalJson.bytes(TokenizerViews.toJson(pipeline.views())));
         entries.put(BundleArchive.FEATURES, CanonicalJson.bytes(JSON.valueToTree(pipeline.features().toState())));
         entries.put(BundleArchive.WEIGHTS, WeightsCodec.write(model.weights()));
-        entries.put(BundleArchive.PROFILE, CanonicalJson.bytes(profile));
-        return BundleArchive.toBytes(full, entries,
-                pipeline.fitsFormat1() ? BundleArchive.FORMAT_VERSION_1 : BundleArchive.FORMAT_VERSION);
+        byte[] profileBytes = CanonicalJson.bytes(profile);
+        entries.put(BundleArchive.PROFILE, profileBytes);
+        int formatVersion = pipeline.fitsFormat1() ? BundleArchive.FORMAT_VERSION_1 : BundleArchive.FORMAT_VERSION;
+        byte[] bytes = BundleArchive.toBytes(tree, entries, formatVersion);
+        try {
+            // the trees as a reader of these bytes would parse them, numbers typed as the text has them
+            JsonNode full = CanonicalJson.parse(CanonicalJson.bytes(BundleArchive.completeManifest(tree, entries, formatVersion)));
+            return new Built(bytes, new Bundle(full, Manifest.read(full), pipeline, model, CanonicalJson.parse(profileBytes)));
+        } catch (IOException e) {
+            throw new IllegalStateException("canonical JSON written here could not be parsed again", e);
+        }
     }
 
     public static Bundle read(Path file) {
@@ -104,7 +114,8 @@ public final class Bundle {
     public static Bundle from(BundleContents contents, String source, BundleLimits limits) {
         JsonNode manifest = contents.manifest();
         try {
-            List<String> labels = strings(manifest.path(LABELS));
+            Manifest typed = Manifest.read(manifest);
+            List<String> labels = typed.labels();
             byte[] tokenizer = contents.entry(BundleArchive.TOKENIZER);
             byte[] featureState = contents.entry(BundleArchive.FEATURES);
             ArrayCounter.requireAtMost(tokenizer, BundleArchive.TOKENIZER, "vocabulary", limits.maxVocabularyTokens(), "tokens",
@@ -114,12 +125,9 @@ public final class Bundle {
             List<TokenizerSpec> views = TokenizerViews.read(tokenizer);
             FeatureSpace features = FeatureSpace.fromState(JSON.readValue(featureState, FeatureSpace.State.class));
             LinearWeights weights = WeightsCodec.read(contents.entry(BundleArchive.WEIGHTS), limits.maxFeatures());
-            JsonNode classifierNode = manifest.path(CLASSIFIER);
-            List<PlattScaling> platt = new ArrayList<>();
-            for (JsonNode sigmoid : classifierNode.path("platt")) {
-                platt.add(new PlattScaling(sigmoid.path("a").asDouble(), sigmoid.path("b").asDouble()));
-            }
-            ModelWeights model = new ModelWeights(classifierNode.path("kind").asText(), weights, platt);
+            Manifest.Classifier classifierPart = typed.classifier()
+                    .orElseThrow(() -> new IllegalArgumentException("the manifest has no classifier"));
+            ModelWeights model = new ModelWeights(classifierPart.kind(), weights, classifierPart.platt());
             if (labels.size() != weights.numClasses()) {
                 throw new IllegalArgumentException(labels.size() + " labels but weights for " + weights.numClasses() + " classes");
             }
@@ -132,7 +140,7 @@ public final class Bundle {
                 throw new IllegalArgumentException("its tokenizer or features need bundle format "
                         + BundleArchive.FORMAT_VERSION + ", but the manifest says " + BundleArchive.FORMAT_VERSION_1);
             }
-            return new Bundle(manifest, labels, pipeline, model, profile);
+            return new Bundle(manifest, typed, pipeline, model, profile);
         } catch (BundleException e) {
             throw new BundleException(e.code(), source + ": " + e.getMessage(), e);
         } catch (IOException | IllegalArgumentException | PressmarkException e) {
@@ -140,18 +148,18 @@ public final class Bundle {
         }
     }
 
-    private static List<String> strings(JsonNode array) {
-        List<String> values = new ArrayList<>();
-        array.forEach(node -> values.add(node.asText()));
-        return values;
-    }
-
     public String name() {
         return name;
     }
 
+    /** The manifest tree as the bundle holds it (format version and entries included), for showing it whole. */
     public JsonNode manifest() {
         return manifest;
+    }
+
+    /** The manifest, typed. */
+    public Manifest typedManifest() {
+        return typed;
     }
 
     public JsonNode profile() {

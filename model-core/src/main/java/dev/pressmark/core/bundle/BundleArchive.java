@@ -279,7 +279,8 @@ public final class BundleArchive {
         return listed;
     }
 
-    private static ObjectNode completeManifest(ObjectNode manifest, Map<String, byte[]> entries, int formatVersion) {
+    /** {@code manifest} with the format version and the listing of {@code entries} that the archive writes. */
+    static ObjectNode completeManifest(ObjectNode manifest, Map<String, byte[]> entries, int formatVersion) {
         if (manifest.has(FORMAT_VERSION_FIELD) || manifest.has(ENTRIES_FIELD)) {
             throw new IllegalArgumentException("the manifest must not set " + FORMAT_VERSION_FIELD + " or " + ENTRIES_FIELD
                     + "; the archive writes them");

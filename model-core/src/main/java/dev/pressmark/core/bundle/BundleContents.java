@@ -22,6 +22,15 @@ public record BundleContents(JsonNode manifest, Map<String, byte[]> entries) {
         return manifest.path(BundleArchive.FORMAT_VERSION_FIELD).asInt();
     }
 
+    /** The manifest, typed; a part of the wrong shape is a {@link BundleException#MANIFEST} naming it. */
+    public Manifest typedManifest() {
+        try {
+            return Manifest.read(manifest);
+        } catch (IllegalArgumentException e) {
+            throw new BundleException(BundleException.MANIFEST, BundleArchive.MANIFEST + ": " + e.getMessage(), e);
+        }
+    }
+
     /** The manifest as canonical JSON text (sorted keys, compact), the form the store keeps. */
     public String manifestJson() {
         return CanonicalJson.text(manifest);

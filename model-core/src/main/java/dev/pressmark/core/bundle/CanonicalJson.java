@@ -43,7 +43,8 @@ final class CanonicalJson {
         return MAPPER.readTree(bytes);
     }
 
-    private static JsonNode sorted(JsonNode node) {
+    /** A copy of {@code node} with every object's keys in sorted order, as {@link #text} writes them. */
+    static JsonNode sorted(JsonNode node) {
         if (node.isObject()) {
             List<String> names = new ArrayList<>();
             node.fieldNames().forEachRemaining(names::add);

@@ -6,10 +6,13 @@ import com.fasterxml.jackson.databind.SerializationFeature;
 import dev.pressmark.core.classify.LinearWeights;
 import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.core.feature.FeatureSpace;
+import com.fasterxml.jackson.databind.node.MissingNode;
 import java.util.ArrayList;
+import java.util.Collections;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import java.util.Optional;
 
 /**
  * The HTML report of a bundle: one self-contained page (inline CSS and SVG, no script, nothing
@@ -30,58 +33,65 @@ public final class HtmlReport {
     }
 
     public static String render(Bundle bundle) {
-        JsonNode manifest = bundle.manifest();
+        Manifest manifest = bundle.typedManifest();
+        Optional<Manifest.Training> training = manifest.training();
+        Optional<Manifest.Metrics> metrics = manifest.metrics();
         StringBuilder html = new StringBuilder(32_768);
         html.append("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">\n<title>")
                 .append(escape(bundle.name())).append(" — model report</title>\n<style>").append(CSS).append("</style></head><body>\n");
         html.append("<h1>").append(escape(bundle.name())).append("</h1>\n<p class=\"sub\">created ")
-                .append(escape(manifest.path("created").asText())).append(" · ").append(bundle.labels().size()).append(" labels · ")
-                .append(manifest.path("training").path("train_rows").asInt()).append(" training rows, ")
-                .append(manifest.path("training").path("test_rows").asInt()).append(" test rows · ")
-                .append(escape(manifest.path("classifier").path("kind").asText())).append("</p>\n");
-        metricsTable(html, manifest.path("metrics"));
-        rowsTable(html, manifest);
-        SearchReport.append(html, manifest);
-        confusion(html, bundle.labels(), manifest.path("metrics").path("test_confusion").path("counts"));
-        foldSpread(html, manifest.path("metrics").path("cv"));
+                .append(escape(manifest.created().orElse(""))).append(" · ").append(bundle.labels().size()).append(" labels · ")
+                .append(training.map(Manifest.Training::trainRows).orElse(0)).append(" training rows, ")
+                .append(training.map(Manifest.Training::testRows).orElse(0)).append(" test rows · ")
+                .append(escape(manifest.classifier().map(Manifest.Classifier::kind).orElse(""))).append("</p>\n");
+        metricsTable(html, metrics);
+        rowsTable(html, training, manifest.duplicates());
+        manifest.search().ifPresent(search -> SearchReport.append(html, search));
+        confusion(html, bundle.labels(), confusionOf(manifest));
+        foldSpread(html, metrics.map(Manifest.Metrics::cv).orElse(Collections.emptySortedMap()));
         features(html, bundle);
-        html.append("<h2>Config and provenance</h2>\n<pre>").append(escape(pretty(manifest.path("provenance")))).append("</pre>\n");
+        html.append("<h2>Config and provenance</h2>\n<pre>")
+                .append(escape(pretty(manifest.provenance().<JsonNode>map(Manifest.Provenance::toJson).orElse(MissingNode.getInstance()))))
+                .append("</pre>\n");
         html.append("</body></html>\n");
         return html.toString();
     }
 
-    private static void metricsTable(StringBuilder html, JsonNode metrics) {
+    private static Manifest.Confusion confusionOf(Manifest manifest) {
+        return manifest.metrics().flatMap(Manifest.Metrics::testConfusion).orElse(new Manifest.Confusion(List.of(), Optional.empty()));
+    }
+
+    private static void metricsTable(StringBuilder html, Optional<Manifest.Metrics> metrics) {
         html.append("<h2>Metrics</h2>\n<table class=\"metrics\"><thead><tr><th>metric</th><th>cross-validation (mean ± s.e.)</th><th>test</th></tr></thead><tbody>\n");
-        for (Map.Entry<String, JsonNode> metric : metrics.path("cv").properties()) {
+        Map<String, Manifest.CvScore> cv = metrics.map(Manifest.Metrics::cv).orElse(Collections.emptySortedMap());
+        for (Map.Entry<String, Manifest.CvScore> metric : cv.entrySet()) {
+            Double test = metrics.get().test().get(metric.getKey());
             html.append("<tr><td>").append(escape(metric.getKey().replace('_', ' '))).append("</td><td>")
-                    .append(format(metric.getValue().path("mean").asDouble())).append(" ± ")
-                    .append(format(metric.getValue().path("std_err").asDouble())).append("</td><td>")
-                    .append(format(metrics.path("test").path(metric.getKey()).asDouble(Double.NaN))).append("</td></tr>\n");
+                    .append(format(metric.getValue().mean())).append(" ± ")
+                    .append(format(metric.getValue().standardError())).append("</td><td>")
+                    .append(format(test == null ? Double.NaN : test)).append("</td></tr>\n");
         }
         html.append("</tbody></table>\n");
     }
 
     /** The rows of each part, the groups (with data.group or grouped duplicates), and the duplicate texts. */
-    private static void rowsTable(StringBuilder html, JsonNode manifest) {
-        JsonNode training = manifest.path("training");
+    private static void rowsTable(StringBuilder html, Optional<Manifest.Training> training, Optional<DuplicateCounts> duplicates) {
         html.append("<h2>Rows, groups and duplicate texts</h2>\n<table class=\"metrics rows\"><tbody>\n");
-        row(html, "training rows", Integer.toString(training.path("train_rows").asInt()));
-        row(html, "test rows", Integer.toString(training.path("test_rows").asInt()));
-        if (training.has("groups")) {
-            row(html, "groups", Integer.toString(training.path("groups").asInt()));
-        }
-        if (training.has("test_fraction_achieved")) {
-            row(html, "test fraction achieved", String.format(Locale.ROOT, "%.4f", training.path("test_fraction_achieved").asDouble()));
-        }
-        DuplicateCounts duplicates = DuplicateCounts.fromManifest(manifest);
-        if (duplicates != null) {
-            row(html, "duplicates setting", duplicates.setting());
-            row(html, "rows dropped as repeats", Integer.toString(duplicates.droppedRows()));
-            row(html, "texts repeated in training", tally(duplicates.withinTrain(), "rows"));
-            row(html, "texts repeated in test", tally(duplicates.withinTest(), "rows"));
-            row(html, "texts on both sides of the split", tally(duplicates.acrossSplit(), "test rows"));
-            row(html, "texts with conflicting labels", tally(duplicates.conflictingLabels(), "rows"));
-        }
+        row(html, "training rows", Integer.toString(training.map(Manifest.Training::trainRows).orElse(0)));
+        row(html, "test rows", Integer.toString(training.map(Manifest.Training::testRows).orElse(0)));
+        training.ifPresent(figures -> {
+            figures.groups().ifPresent(groups -> row(html, "groups", Integer.toString(groups)));
+            figures.testFractionAchieved().ifPresent(fraction ->
+                    row(html, "test fraction achieved", String.format(Locale.ROOT, "%.4f", fraction)));
+        });
+        duplicates.ifPresent(counts -> {
+            row(html, "duplicates setting", counts.setting());
+            row(html, "rows dropped as repeats", Integer.toString(counts.droppedRows()));
+            row(html, "texts repeated in training", tally(counts.withinTrain(), "rows"));
+            row(html, "texts repeated in test", tally(counts.withinTest(), "rows"));
+            row(html, "texts on both sides of the split", tally(counts.acrossSplit(), "test rows"));
+            row(html, "texts with conflicting labels", tally(counts.conflictingLabels(), "rows"));
+        });
         html.append("</tbody></table>\n");
     }
 
@@ -93,7 +103,7 @@ public final class HtmlReport {
         html.append("<tr><td>").append(escape(name)).append("</td><td>").append(escape(value)).append("</td></tr>\n");
     }
 
-    private static void confusion(StringBuilder html, List<String> labels, JsonNode counts) {
+    private static void confusion(StringBuilder html, List<String> labels, Manifest.Confusion counts) {
         html.append("<h2>Confusion matrix (test part; rows truth, columns prediction)</h2>\n");
         confusionChart(html, labels, counts, false);
     }
@@ -105,19 +115,19 @@ public final class HtmlReport {
      */
     public static String confusionSvg(Bundle bundle) {
         StringBuilder svg = new StringBuilder(4096);
-        confusionChart(svg, bundle.labels(), bundle.manifest().path("metrics").path("test_confusion").path("counts"), true);
+        confusionChart(svg, bundle.labels(), confusionOf(bundle.typedManifest()), true);
         return svg.toString();
     }
 
-    private static void confusionChart(StringBuilder html, List<String> labels, JsonNode counts, boolean standalone) {
+    private static void confusionChart(StringBuilder html, List<String> labels, Manifest.Confusion counts, boolean standalone) {
         int k = labels.size();
         int cell = 56;
         int left = 130;
         int top = 30;
         long max = 1;
-        for (JsonNode row : counts) {
-            for (JsonNode count : row) {
-                max = Math.max(max, count.asLong());
+        for (List<Long> row : counts.counts()) {
+            for (long count : row) {
+                max = Math.max(max, count);
             }
         }
         openSvg(html, "confusion matrix", left + cell * k + 10, top + cell * k + 10, standalone);
@@ -129,7 +139,7 @@ public final class HtmlReport {
             html.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" class=\"axis\" text-anchor=\"end\">%s</text>%n",
                     left - 8, top + cell * t + cell / 2 + 4, escape(shorten(labels.get(t)))));
             for (int p = 0; p < k; p++) {
-                long count = counts.path(t).path(p).asLong();
+                long count = counts.count(t, p);
                 double shade = (double) count / max;
                 html.append(String.format(Locale.ROOT,
                         "<rect x=\"%d\" y=\"%d\" width=\"%d\" height=\"%d\" fill=\"%s\" fill-opacity=\"%.3f\" stroke=\"#8a8f98\" stroke-width=\"0.5\"/>"
@@ -141,11 +151,11 @@ public final class HtmlReport {
         html.append("</svg>\n");
     }
 
-    private static void foldSpread(StringBuilder html, JsonNode cv) {
+    private static void foldSpread(StringBuilder html, Map<String, Manifest.CvScore> cv) {
         int width = 420;
         int rowHeight = 22;
         int left = 150;
-        List<Map.Entry<String, JsonNode>> metrics = new ArrayList<>(cv.properties());
+        List<Map.Entry<String, Manifest.CvScore>> metrics = new ArrayList<>(cv.entrySet());
         html.append("<h2>Per-fold spread</h2>\n");
         openSvg(html, "per-fold values", left + width + 20, rowHeight * metrics.size() + 30, false);
         for (int tick = 0; tick <= 4; tick++) {
@@ -157,11 +167,11 @@ public final class HtmlReport {
             int y = m * rowHeight + rowHeight / 2;
             html.append(String.format(Locale.ROOT, "<text x=\"%d\" y=\"%d\" class=\"axis\" text-anchor=\"end\">%s</text>%n",
                     left - 8, y + 4, escape(metrics.get(m).getKey().replace('_', ' '))));
-            for (JsonNode value : metrics.get(m).getValue().path("per_fold")) {
-                double v = Math.max(-1, Math.min(1, value.asDouble()));
+            for (double value : metrics.get(m).getValue().perFold()) {
+                double v = Math.max(-1, Math.min(1, value));
                 html.append(String.format(Locale.ROOT, "<circle cx=\"%.1f\" cy=\"%d\" r=\"3.5\" class=\"dot\"/>", left + width * Math.max(0, v), y));
             }
-            double mean = metrics.get(m).getValue().path("mean").asDouble();
+            double mean = metrics.get(m).getValue().mean();
             html.append(String.format(Locale.ROOT, "<line x1=\"%.1f\" y1=\"%d\" x2=\"%.1f\" y2=\"%d\" class=\"mean\"/>%n",
                     left + width * Math.max(0, mean), y - 8, left + width * Math.max(0, mean), y + 8));
         }

@@ -1,6 +1,5 @@
 package dev.pressmark.core.bundle;
 
-import com.fasterxml.jackson.databind.JsonNode;
 import dev.pressmark.core.search.SearchSummary;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
@@ -26,11 +25,7 @@ final class SearchReport {
     private SearchReport() {
     }
 
-    static void append(StringBuilder html, JsonNode manifest) {
-        SearchSummary search = SearchSummary.fromManifest(manifest);
-        if (search == null) {
-            return;
-        }
+    static void append(StringBuilder html, SearchSummary search) {
         html.append("<h2>Model search</h2>\n<p class=\"sub\">").append(search.candidates().size())
                 .append(" candidates scored by cross-validation on the training part; metric ")
                 .append(HtmlReport.escape(search.metric().key())).append(", pick ").append(HtmlReport.escape(search.pick().key()))

@@ -1,6 +1,9 @@
 package dev.pressmark.core.drift;
 
 import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.JsonNodeFactory;
+import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Bundle;
 import java.util.ArrayList;
 import java.util.HashSet;
@@ -110,6 +113,35 @@ public record DriftProfile(int rows, long tokens, double unknownRate, LengthSumm
         } catch (IllegalArgumentException e) {
             throw new DriftException(DriftException.PROFILE, source + ": " + e.getMessage(), e);
         }
+    }
+
+    /**
+     * The profile as {@code profile.json} holds it: the one writer beside {@link #read}. The
+     * percentiles are nearest-rank token counts, so they are written as whole numbers; the mean
+     * as a decimal.
+     */
+    public ObjectNode toJson() {
+        ObjectNode node = JsonNodeFactory.instance.objectNode();
+        node.put("rows", rows);
+        node.put("tokens", tokens);
+        node.put("unknown_rate", unknownRate);
+        documentFrequencyTotal.ifPresent(total -> node.put(DOCUMENT_FREQUENCY_TOTAL, total));
+        ObjectNode length = node.putObject("tokens_per_row");
+        length.put("mean", tokensPerRow.mean());
+        length.set("p10", count(tokensPerRow.p10()));
+        length.set("p50", count(tokensPerRow.p50()));
+        length.set("p90", count(tokensPerRow.p90()));
+        ArrayNode top = node.putArray("top_features");
+        for (TopFeature feature : topFeatures) {
+            top.addObject().put("feature", feature.feature()).put("document_frequency", feature.documentFrequency());
+        }
+        return node;
+    }
+
+    /** A whole count as an integer, anything else as it is. */
+    private static JsonNode count(double value) {
+        return value == Math.rint(value) && Math.abs(value) < Integer.MAX_VALUE
+                ? JsonNodeFactory.instance.numberNode((int) value) : JsonNodeFactory.instance.numberNode(value);
     }
 
     private static JsonNode field(JsonNode node, String key) {

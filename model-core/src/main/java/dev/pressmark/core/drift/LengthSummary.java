@@ -28,7 +28,7 @@ public record LengthSummary(double mean, double p10, double p50, double p90) {
     }
 
     /** The summary of {@code lengths}, which this sorts in place. */
-    static LengthSummary of(int[] lengths) {
+    public static LengthSummary of(int[] lengths) {
         if (lengths.length == 0) {
             throw new IllegalArgumentException("lengths must not be empty");
         }

@@ -141,12 +141,11 @@ public record DuplicateCounts(String setting, int droppedRows, Tally withinTrain
         return node;
     }
 
-    /** The {@code duplicates} object of {@code manifest}, or null for a bundle made before it was recorded. */
-    public static DuplicateCounts fromManifest(JsonNode manifest) {
-        JsonNode node = manifest.path(KEY);
-        if (!node.isObject()) {
-            return null;
-        }
+    /**
+     * Reads the object {@link #toJson} writes (the manifest's {@code duplicates} section, which the
+     * manifest reader hands over).
+     */
+    public static DuplicateCounts fromJson(JsonNode node) {
         return new DuplicateCounts(node.path("setting").asText(), node.path("dropped_rows").asInt(),
                 tally(node.path("within_train"), "rows"), tally(node.path("within_test"), "rows"),
                 tally(node.path("across_split"), "test_rows"), tally(node.path("conflicting_labels"), "rows"));

@@ -22,7 +22,7 @@ import java.util.Objects;
  */
 public record SearchSummary(Metric metric, Pick pick, List<Scored> candidates, int chosen) {
 
-    /** The manifest's key for this object. */
+    /** The key of the training config's search section, and of this object in a manifest. */
     public static final String KEY = "search";
 
     /**
@@ -63,12 +63,8 @@ public record SearchSummary(Metric metric, Pick pick, List<Scored> candidates, i
         return node;
     }
 
-    /** The search a manifest records, or null when it records none. */
-    public static SearchSummary fromManifest(JsonNode manifest) {
-        JsonNode node = manifest.path(KEY);
-        if (!node.isObject()) {
-            return null;
-        }
+    /** Reads the manifest's {@code search} object. */
+    public static SearchSummary fromJson(JsonNode node) {
         List<Scored> candidates = new ArrayList<>();
         for (JsonNode entry : node.path("candidates")) {
             Map<String, JsonNode> settings = new LinkedHashMap<>();

@@ -5,21 +5,27 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Bundle;
+import dev.pressmark.core.bundle.Manifest;
 import dev.pressmark.core.bundle.TextPipeline;
 import dev.pressmark.core.drift.DriftProfile;
+import dev.pressmark.core.drift.LengthSummary;
 import dev.pressmark.core.evaluate.ConfusionMatrix;
-import dev.pressmark.core.evaluate.DuplicateCounts;
-import dev.pressmark.core.evaluate.Evaluation;
 import dev.pressmark.core.evaluate.Metric;
 import dev.pressmark.core.evaluate.MetricSummary;
 import dev.pressmark.core.evaluate.MetricValues;
 import dev.pressmark.core.feature.FeatureConfig;
 import dev.pressmark.core.feature.FeatureSpace;
-import dev.pressmark.core.search.SearchSummary;
 import java.time.Instant;
-import java.util.Arrays;
+import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.OptionalDouble;
+import java.util.OptionalInt;
+import java.util.OptionalLong;
+import java.util.SortedMap;
+import java.util.TreeMap;
 
 /**
  * Turns a finished {@link TrainingRun} into bundle bytes: the manifest (provenance, the resolved
@@ -42,43 +48,37 @@ public final class BundleAssembler {
      * inputs and the same {@code created} give the same bytes.
      */
     public static byte[] assemble(TrainConfig config, LabelledData data, TrainingRun.Result result, Instant created) {
-        ObjectNode manifest = JSON.createObjectNode();
-        manifest.put("name", config.name());
-        manifest.put("created", created.toString());
-        if (result.positiveClass() >= 0) {
-            manifest.put("positive_label", result.labels().get(result.positiveClass()));
-        }
-        ObjectNode provenance = manifest.putObject("provenance");
-        provenance.put("library", "pressmark " + LIBRARY_VERSION);
-        provenance.put("java", System.getProperty("java.vendor") + " " + System.getProperty("java.version"));
-        provenance.put("os", System.getProperty("os.name") + " " + System.getProperty("os.version") + " " + System.getProperty("os.arch"));
-        provenance.put("seed", config.split().seed());
-        provenance.put("data_sha256", data.sha256());
-        provenance.put("data_file", fileName(config));
+        return build(config, data, result, created).bytes();
+    }
+
+    /** {@link #assemble}, with the bundle its bytes hold. */
+    static Bundle.Built build(TrainConfig config, LabelledData data, TrainingRun.Result result, Instant created) {
+        return Bundle.build(manifest(config, data, result, created), result.labels(), result.pipeline(), result.model(),
+                profile(result, data).toJson());
+    }
+
+    /** The manifest's parts that training records; {@link Bundle#build} adds the model's own. */
+    static Manifest manifest(TrainConfig config, LabelledData data, TrainingRun.Result result, Instant created) {
+        Optional<String> positive = result.positiveClass() >= 0
+                ? Optional.of(result.labels().get(result.positiveClass())) : Optional.empty();
         // a search's bundle records the chosen candidate's config, which is what was trained
-        provenance.set("config", configJson(result.search() == null ? config : result.search().chosen()));
-        ObjectNode training = manifest.putObject("training");
-        training.put("rows", data.rows());
-        training.put("dropped_rows", data.droppedRows());
-        training.put("train_rows", result.trainRows().length);
-        training.put("test_rows", result.testRows().length);
-        if (result.grouping() != null) {
-            // only with data.group, so that a config without it writes the manifest it always did
-            training.put("groups", result.grouping().groups());
-            if (!Double.isNaN(result.grouping().testFractionAchieved())) {
-                training.put("test_fraction_achieved", result.grouping().testFractionAchieved());
-            }
-        }
-        training.put("features", result.pipeline().features().featureCount());
-        training.put("vocabulary_size", result.pipeline().vocabularySize());
-        ArrayNode warnings = training.putArray("warnings");
-        result.warnings().forEach(warnings::add);
-        manifest.set(DuplicateCounts.KEY, result.duplicates().toJson());
-        manifest.set("metrics", metrics(result, config.data().weight() != null));
-        if (result.search() != null) {
-            manifest.set(SearchSummary.KEY, result.search().summary().toJson());
-        }
-        return Bundle.write(manifest, result.labels(), result.pipeline(), result.model(), profile(result, data));
+        Manifest.Provenance provenance = new Manifest.Provenance("pressmark " + LIBRARY_VERSION,
+                System.getProperty("java.vendor") + " " + System.getProperty("java.version"),
+                System.getProperty("os.name") + " " + System.getProperty("os.version") + " " + System.getProperty("os.arch"),
+                config.split().seed(), data.sha256(), fileName(config),
+                configJson(result.search() == null ? config : result.search().chosen()));
+        TrainingRun.Grouping grouping = result.grouping();
+        // groups only with data.group or data.duplicates: group, so that a config without either writes the training part it always did
+        Manifest.Training training = new Manifest.Training(data.rows(), data.droppedRows(), result.trainRows().length,
+                result.testRows().length, grouping == null ? OptionalInt.empty() : OptionalInt.of(grouping.groups()),
+                grouping == null || Double.isNaN(grouping.testFractionAchieved()) ? OptionalDouble.empty()
+                        : OptionalDouble.of(grouping.testFractionAchieved()),
+                result.pipeline().features().featureCount(), result.pipeline().vocabularySize(), result.warnings());
+        return Manifest.trained(config.name(), created.toString(), positive, provenance, training,
+                metrics(result, config.data().weight() != null),
+                Manifest.Sections.NONE.with(Manifest.SEARCH,
+                        result.search() == null ? Optional.empty() : Optional.of(result.search().summary()))
+                        .with(Manifest.DUPLICATES, Optional.of(result.duplicates())));
     }
 
     private static String fileName(TrainConfig config) {
@@ -109,54 +109,51 @@ public final class BundleAssembler {
         return node;
     }
 
-    private static ObjectNode metrics(TrainingRun.Result result, boolean weighted) {
-        ObjectNode metrics = JSON.createObjectNode();
-        ObjectNode cv = metrics.putObject("cv");
+    private static Manifest.Metrics metrics(TrainingRun.Result result, boolean weighted) {
+        Map<String, Manifest.CvScore> cv = new TreeMap<>();
         for (MetricSummary summary : result.cv().metrics()) {
-            ObjectNode node = cv.putObject(summary.metric().key());
-            node.put("mean", summary.mean());
-            node.put("std_err", summary.standardError());
-            ArrayNode perFold = node.putArray("per_fold");
-            Arrays.stream(summary.perFold()).forEach(perFold::add);
-        }
-        metrics.set("test", values(result.test().overall()));
-        if (result.labels().size() > 2) {
-            ObjectNode perClass = metrics.putObject("test_per_class");
-            for (int k = 0; k < result.labels().size(); k++) {
-                perClass.set(result.labels().get(k), values(result.test().perClass(k)));
+            List<Double> perFold = new ArrayList<>();
+            for (double value : summary.perFold()) {
+                perFold.add(value);
             }
+            cv.put(summary.metric().key(), new Manifest.CvScore(summary.mean(), summary.standardError(), perFold));
+        }
+        Optional<SortedMap<String, SortedMap<String, Double>>> perClass = Optional.empty();
+        if (result.labels().size() > 2) {
+            SortedMap<String, SortedMap<String, Double>> classes = new TreeMap<>();
+            for (int k = 0; k < result.labels().size(); k++) {
+                classes.put(result.labels().get(k), values(result.test().perClass(k)));
+            }
+            perClass = Optional.of(classes);
         }
         ConfusionMatrix confusion = result.test().confusion();
-        ArrayNode rows = metrics.putObject("test_confusion").putArray("counts");
+        List<List<Long>> counts = new ArrayList<>();
+        List<List<Double>> sums = new ArrayList<>();
         for (int t = 0; t < confusion.classCount(); t++) {
-            ArrayNode row = rows.addArray();
+            List<Long> row = new ArrayList<>();
+            List<Double> sumRow = new ArrayList<>();
             for (int p = 0; p < confusion.classCount(); p++) {
                 row.add(confusion.count(t, p));
+                sumRow.add(confusion.weight(t, p));
             }
+            counts.add(row);
+            sums.add(sumRow);
         }
-        if (weighted) {
-            // with case weights the metrics sum weights; the counts above are rows of weight > 0
-            ArrayNode sums = ((ObjectNode) metrics.get("test_confusion")).putArray("weights");
-            for (int t = 0; t < confusion.classCount(); t++) {
-                ArrayNode row = sums.addArray();
-                for (int p = 0; p < confusion.classCount(); p++) {
-                    row.add(confusion.weight(t, p));
-                }
-            }
-        }
-        return metrics;
+        // with case weights the metrics sum weights; the counts are rows of weight > 0
+        Manifest.Confusion matrix = new Manifest.Confusion(counts, weighted ? Optional.of(sums) : Optional.empty());
+        return new Manifest.Metrics(new TreeMap<>(cv), values(result.test().overall()), perClass, Optional.of(matrix));
     }
 
-    private static ObjectNode values(MetricValues values) {
-        ObjectNode node = JSON.createObjectNode();
+    private static SortedMap<String, Double> values(MetricValues values) {
+        SortedMap<String, Double> map = new TreeMap<>();
         for (Metric metric : values.metrics()) {
-            node.put(metric.key(), values.get(metric));
+            map.put(metric.key(), values.get(metric));
         }
-        return node;
+        return map;
     }
 
     /** What the training rows looked like, so that live traffic can be compared with it later. */
-    static ObjectNode profile(TrainingRun.Result result, LabelledData data) {
+    static DriftProfile profile(TrainingRun.Result result, LabelledData data) {
         TextPipeline pipeline = result.pipeline();
         int[] trainRows = result.trainRows();
         long tokens = 0;
@@ -174,34 +171,15 @@ public final class BundleAssembler {
             tokens += lengths[i];
             unknown += pipeline.unknownTokens(row);
         }
-        ObjectNode profile = JSON.createObjectNode();
-        profile.put("rows", trainRows.length);
-        profile.put("tokens", tokens);
-        profile.put("unknown_rate", tokens == 0 ? 0.0 : (double) unknown / tokens);
+        FeatureSpace features = pipeline.features();
+        List<DriftProfile.TopFeature> top = new ArrayList<>();
+        for (int j = 0; j < Math.min(PROFILE_TOKENS, features.featureCount()); j++) {
+            top.add(new DriftProfile.TopFeature(features.featureName(j), features.documentFrequency(j)));
+        }
         // Every distinct (field, token) of every row counted once: the document frequencies of all tokens, features or
         // not, summed. The drift index needs it for the share of tokens outside the top features.
-        profile.put(DriftProfile.DOCUMENT_FREQUENCY_TOTAL, documentFrequencyTotal);
-        Arrays.sort(lengths);
-        ObjectNode length = profile.putObject("tokens_per_row");
-        length.put("mean", lengths.length == 0 ? 0.0 : (double) tokens / lengths.length);
-        length.put("p10", quantile(lengths, 0.10));
-        length.put("p50", quantile(lengths, 0.50));
-        length.put("p90", quantile(lengths, 0.90));
-        FeatureSpace features = pipeline.features();
-        ArrayNode top = profile.putArray("top_features");
-        for (int j = 0; j < Math.min(PROFILE_TOKENS, features.featureCount()); j++) {
-            top.addObject().put("feature", features.featureName(j)).put("document_frequency", features.documentFrequency(j));
-        }
-        return profile;
-    }
-
-    /** The nearest-rank quantile of sorted values. */
-    private static int quantile(int[] sorted, double q) {
-        if (sorted.length == 0) {
-            return 0;
-        }
-        int rank = (int) Math.ceil(q * sorted.length);
-        return sorted[Math.max(0, Math.min(sorted.length - 1, rank - 1))];
+        return new DriftProfile(trainRows.length, tokens, tokens == 0 ? 0.0 : (double) unknown / tokens, LengthSummary.of(lengths), top,
+                OptionalLong.of(documentFrequencyTotal));
     }
 
     private static String libraryVersion() {

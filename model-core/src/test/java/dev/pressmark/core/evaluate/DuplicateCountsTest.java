@@ -2,6 +2,7 @@ package dev.pressmark.core.evaluate;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import dev.pressmark.core.bundle.Manifest;
 import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.HashSet;
@@ -39,11 +40,12 @@ class DuplicateCountsTest {
     void survives_the_round_trip_through_the_manifest() {
         DuplicateCounts counts = new DuplicateCounts("drop", 7, new DuplicateCounts.Tally(2, 5), new DuplicateCounts.Tally(0, 0),
                 new DuplicateCounts.Tally(3, 4), new DuplicateCounts.Tally(1, 2));
-        var manifest = com.fasterxml.jackson.databind.node.JsonNodeFactory.instance.objectNode();
-        manifest.set(DuplicateCounts.KEY, counts.toJson());
-        assertThat(DuplicateCounts.fromManifest(manifest)).isEqualTo(counts);
+        Manifest read = Manifest.parse("{\"name\": \"m\", \"duplicates\": " + counts.toJson() + "}");
+
+        assertThat(read.duplicates()).contains(counts);
+        assertThat(read.toJson().get(DuplicateCounts.KEY)).isEqualTo(counts.toJson());
         assertThat(counts.toJson().path("across_split").path("test_rows").asInt()).isEqualTo(4);
-        assertThat(DuplicateCounts.fromManifest(com.fasterxml.jackson.databind.node.JsonNodeFactory.instance.objectNode())).isNull();
+        assertThat(Manifest.parse("{\"name\": \"m\"}").duplicates()).isEmpty();
     }
 
     @Property(tries = 300)

@@ -84,8 +84,8 @@ final class JdbcBundleStore implements BundleStore {
     }
 
     @Override
-    public void retire(String model, String tag, String actor) {
-        versions.retire(model, tag, actor);
+    public Version retire(String model, String tag, String actor, String reason) {
+        return versions.retire(model, tag, actor, reason);
     }
 
     @Override

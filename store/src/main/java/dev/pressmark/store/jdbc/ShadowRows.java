@@ -142,6 +142,14 @@ final class ShadowRows {
     }
 
     /** Deletes the model's shadow row inside the caller's transaction and records why; null when none ran. */
+    /** Ends the model's shadow if it runs and scores {@code tag}: a retired version is shadowed no longer. */
+    static void endIfOf(Connection c, String model, String tag, long now, String actor, String reason) throws SQLException {
+        List<Shadow> running = list(c, model);
+        if (!running.isEmpty() && running.get(0).tag().equals(tag)) {
+            end(c, model, now, actor, reason);
+        }
+    }
+
     static Shadow end(Connection c, String model, long now, String actor, String reason) throws SQLException {
         List<Shadow> running = list(c, model);
         if (running.isEmpty()) {

@@ -85,12 +85,14 @@ final class VersionRows {
         });
     }
 
-    void retire(String model, String tag, String actor) {
+    /** The one place the rules of retiring are decided: under the model's lock, in the transaction that writes. */
+    Version retire(String model, String tag, String actor, String reason) {
         Names.model(model);
         Names.tag(tag);
         Names.actor(actor);
+        String why = Names.requiredReason(reason);
         long now = clock.millis();
-        tx.write("retire " + model + " " + tag, c -> {
+        return tx.write("retire " + model + " " + tag, c -> {
             ModelRows.lock(c, tx.dialect(), model);
             VersionRow version = existing(c, model, tag);
             Activation current = ActivationRows.current(c, model);
@@ -99,15 +101,19 @@ final class VersionRows {
                         + " activate another version first");
             }
             if (version.retired()) {
-                return null;
+                throw new StoreException(StoreException.ALREADY_RETIRED, model + " " + tag + " is already retired");
             }
             try (PreparedStatement update = c.prepareStatement("UPDATE versions SET retired_at = ? WHERE id = ?")) {
                 update.setLong(1, now);
                 update.setLong(2, version.id());
                 update.executeUpdate();
             }
-            EventRows.append(c, now, actor, StoreEvent.RETIRE, model, tag, "");
-            return null;
+            EventRows.append(c, now, actor, StoreEvent.RETIRE, model, tag, why);
+            ShadowRows.endIfOf(c, model, tag, now, actor, tag + " was retired");
+            try (PreparedStatement select = c.prepareStatement("SELECT " + VERSION_COLUMNS + " FROM versions v WHERE v.id = ?")) {
+                select.setLong(1, version.id());
+                return first(select).orElseThrow();
+            }
         });
     }
 

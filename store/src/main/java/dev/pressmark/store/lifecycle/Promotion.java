@@ -84,7 +84,7 @@ public final class Promotion {
      * shadow summary against the active version, when there is one.
      *
      * @throws Refused when the check refuses and the request does not force
-     * @throws StoreException {@link StoreException#UNUSABLE} or {@link StoreException#LIMIT} when the
+     * @throws StoreException {@link StoreException#RETIRED} when the candidate is retired, {@link StoreException#UNUSABLE} or {@link StoreException#LIMIT} when the
      *     candidate does not load here, {@link StoreException#ACTIVE_CHANGED} when another version
      *     became active since the check, or any failure of the store
      */
@@ -93,6 +93,10 @@ public final class Promotion {
         String tag = request.tag();
         Version candidate = store.version(model, tag).orElseThrow(() -> new StoreException(StoreException.NO_SUCH_VERSION,
                 "no version " + tag + " of model " + model + " in the store"));
+        if (candidate.retired()) {
+            // the activating transaction refuses it too; said here first so that the answer is this, not a promotion check's
+            throw new StoreException(StoreException.RETIRED, model + " " + tag + " is retired and cannot be activated");
+        }
         Optional<Version> active = store.activeVersion(model);
         PromotionCheck.Outcome outcome = PromotionCheck.check(candidate, active, shadow, request.policy());
         if (!outcome.passed() && !request.force()) {

@@ -1,16 +1,15 @@
 package dev.pressmark.store.lifecycle;
 
-import com.fasterxml.jackson.databind.JsonNode;
-import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.pressmark.core.bundle.Manifest;
 import dev.pressmark.store.ShadowSummary;
 import dev.pressmark.store.StoreException;
 import dev.pressmark.store.Version;
-import java.io.IOException;
 import java.math.BigDecimal;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
+import java.util.OptionalDouble;
 
 /**
  * Whether a candidate version may replace the active one. Pure: it reads the two versions'
@@ -38,7 +37,6 @@ public final class PromotionCheck {
     public static final String METRIC_MISSING = "metric-missing";
     public static final String SHADOW_AGREEMENT = "shadow-agreement";
 
-    private static final ObjectMapper JSON = new ObjectMapper();
 
     private PromotionCheck() {
     }
@@ -92,33 +90,34 @@ public final class PromotionCheck {
 
     private static void compareMetric(Version candidate, Version active, PromotionPolicy policy, List<Refusal> refusals, List<String> notes) {
         String metric = policy.metric();
-        JsonNode candidateMetrics = metrics(candidate);
-        JsonNode activeMetrics = metrics(active);
+        Manifest.Metrics candidateMetrics = metrics(candidate);
+        Manifest.Metrics activeMetrics = metrics(active);
         String source = null;
         for (String s : new String[] {"test", "cv"}) {
-            if (value(activeMetrics, s, metric) != null && value(candidateMetrics, s, metric) != null) {
+            if (activeMetrics.value(s, metric).isPresent() && candidateMetrics.value(s, metric).isPresent()) {
                 source = s;
                 break;
             }
         }
         if (source == null) {
-            JsonNode activeValue = value(activeMetrics, "test", metric) != null ? value(activeMetrics, "test", metric) : value(activeMetrics, "cv", metric);
-            if (activeValue == null) {
+            OptionalDouble activeValue = activeMetrics.value("test", metric).isPresent() ? activeMetrics.value("test", metric)
+                    : activeMetrics.value("cv", metric);
+            if (activeValue.isEmpty()) {
                 notes.add("the active version " + active.tag() + " records no " + metric + "; the metric was not compared");
                 return;
             }
-            refusals.add(new Refusal(METRIC_MISSING, metric, "test", activeValue.asDouble(), Double.NaN, policy.maxDrop(),
+            refusals.add(new Refusal(METRIC_MISSING, metric, "test", activeValue.getAsDouble(), Double.NaN, policy.maxDrop(),
                     candidate.model() + " " + candidate.tag() + " records no " + metric + " to compare with the active " + active.tag() + "'s "
-                    + activeValue.asText()));
+                    + activeValue.getAsDouble()));
             return;
         }
-        JsonNode activeValue = value(activeMetrics, source, metric);
-        JsonNode candidateValue = value(candidateMetrics, source, metric);
+        double activeValue = activeMetrics.value(source, metric).getAsDouble();
+        double candidateValue = candidateMetrics.value(source, metric).getAsDouble();
         BigDecimal drop = decimal(activeValue).subtract(decimal(candidateValue));
         if (drop.compareTo(BigDecimal.valueOf(policy.maxDrop())) > 0) {
-            refusals.add(new Refusal(METRIC_DROP, metric, source, activeValue.asDouble(), candidateValue.asDouble(), policy.maxDrop(),
+            refusals.add(new Refusal(METRIC_DROP, metric, source, activeValue, candidateValue, policy.maxDrop(),
                     metric + " (" + (source.equals("test") ? "test split" : "cross-validation mean") + ") of " + candidate.model() + " "
-                    + candidate.tag() + " is " + candidateValue.asText() + " against " + activeValue.asText() + " of the active "
+                    + candidate.tag() + " is " + candidateValue + " against " + activeValue + " of the active "
                     + active.tag() + ": lower by " + drop.toPlainString() + ", more than the allowed " + policy.maxDrop()));
         }
     }
@@ -140,21 +139,17 @@ public final class PromotionCheck {
         }
     }
 
-    private static JsonNode metrics(Version version) {
+    /** The metrics the stored manifest of {@code version} records; none recorded reads as empty. */
+    private static Manifest.Metrics metrics(Version version) {
         try {
-            return JSON.readTree(version.manifestJson()).path("metrics");
-        } catch (IOException e) {
+            return Manifest.parse(version.manifestJson()).metrics().orElse(Manifest.Metrics.NONE);
+        } catch (IllegalArgumentException e) {
             throw new StoreException(StoreException.FAILURE, "the stored manifest of " + version.model() + " " + version.tag() + " is not JSON", e);
         }
     }
 
-    /** {@code metrics.test.KEY}, or {@code metrics.cv.KEY.mean}; null when absent or not a number. */
-    private static JsonNode value(JsonNode metrics, String source, String metric) {
-        JsonNode node = source.equals("test") ? metrics.path("test").path(metric) : metrics.path("cv").path(metric).path("mean");
-        return node.isNumber() && Double.isFinite(node.asDouble()) ? node : null;
-    }
-
-    private static BigDecimal decimal(JsonNode number) {
-        return new BigDecimal(Double.toString(number.asDouble()));
+    /** A metric's value as the decimal its shortest text names, so that 0.9 - 0.8 is 0.1. */
+    private static BigDecimal decimal(double value) {
+        return new BigDecimal(Double.toString(value));
     }
 }

@@ -56,7 +56,7 @@ public final class PublishCheck {
             Optional<String> activeContractJson, boolean allowBreaking) {
         SemanticVersion activeVersion = activeContractJson.map(json -> ContractRecord.parse(json).version()).orElse(SemanticVersion.FIRST);
         ContractRecord record = ContractRecord.against(activeTag, Contract.ofManifestJson(activeManifestJson), activeVersion,
-                Contract.of(contents.manifest()));
+                Contract.of(contents.typedManifest()));
         if (record.diff().breaking() && !allowBreaking) {
             throw new StoreException(StoreException.BREAKING, "cannot publish " + model + " " + tag + ": it breaks the contract of the active"
                     + " version " + activeTag + " (" + activeVersion + "): " + record.diff().describe()

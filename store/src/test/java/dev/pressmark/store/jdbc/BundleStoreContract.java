@@ -8,6 +8,7 @@ import dev.pressmark.store.Activation;
 import dev.pressmark.store.BundleStore;
 import dev.pressmark.store.LoadedBundle;
 import dev.pressmark.store.ModelSummary;
+import dev.pressmark.store.Names;
 import dev.pressmark.store.PublishOptions;
 import dev.pressmark.store.Shadow;
 import dev.pressmark.store.ShadowReport;
@@ -193,13 +194,88 @@ abstract class BundleStoreContract {
         publish("routing", "a", 1);
         publish("routing", "b", 2);
         store.activate("routing", "a", ACTOR, "");
-        assertThatThrownBy(() -> store.retire("routing", "a", ACTOR))
+        assertThatThrownBy(() -> store.retire("routing", "a", ACTOR, "superseded"))
                 .isInstanceOf(StoreException.class).hasMessageContaining("active version and cannot be retired")
                 .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.ACTIVE);
-        store.retire("routing", "b", ACTOR);
+        store.retire("routing", "b", ACTOR, "superseded");
         assertThat(store.version("routing", "b")).map(Version::retired).contains(true);
         assertThatThrownBy(() -> store.activate("routing", "b", ACTOR, ""))
                 .isInstanceOf(StoreException.class).hasMessage("routing b is retired and cannot be activated");
+        assertThat(store.activeVersion("routing")).map(Version::tag).contains("a");
+    }
+
+    @Test
+    void retiring_records_the_reason_and_a_retired_version_stays_readable_and_loadable() {
+        publish("routing", "a", 1);
+        Version b = publish("routing", "b", 2);
+        store.activate("routing", "a", ACTOR, "");
+        Version retired = store.retire("routing", "b", "erin", "  labels of the March export were wrong ");
+        assertThat(retired.retired()).isTrue();
+        assertThat(retired.active()).isFalse();
+        assertThat(retired.sha256()).isEqualTo(b.sha256());
+        StoreEvent event = store.events("routing").get(0);
+        assertThat(event.action()).isEqualTo(StoreEvent.RETIRE);
+        assertThat(event.tag()).isEqualTo("b");
+        assertThat(event.actor()).isEqualTo("erin");
+        assertThat(event.detail()).isEqualTo("labels of the March export were wrong");
+        assertThat(store.versions("routing")).extracting(Version::tag, Version::retired)
+                .containsExactly(org.assertj.core.groups.Tuple.tuple("b", true), org.assertj.core.groups.Tuple.tuple("a", false));
+        assertThat(store.load("routing", "b").version().sha256()).isEqualTo(b.sha256());
+        assertThat(store.verify(Optional.of("routing")).ok()).isTrue();
+    }
+
+    @Test
+    void a_version_cannot_be_retired_twice_without_a_reason_or_when_it_does_not_exist_and_a_refusal_changes_nothing() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        for (String reason : new String[] {null, "", "   "}) {
+            assertThatThrownBy(() -> store.retire("routing", "b", ACTOR, reason)).hasMessageContaining("a reason is required")
+                    .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.INVALID_REASON);
+        }
+        assertThatThrownBy(() -> store.retire("routing", "b", ACTOR, "x".repeat(Names.MAX_REASON_CHARS + 1)))
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.INVALID_REASON);
+        assertThat(store.version("routing", "b")).map(Version::retired).contains(false);
+        assertThatThrownBy(() -> store.retire("routing", "zz", ACTOR, "gone"))
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.NO_SUCH_VERSION);
+        assertThatThrownBy(() -> store.retire("nobody", "b", ACTOR, "gone"))
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.NO_SUCH_MODEL);
+
+        store.retire("routing", "b", ACTOR, "superseded");
+        int events = store.events("routing").size();
+        assertThatThrownBy(() -> store.retire("routing", "b", ACTOR, "again")).hasMessage("routing b is already retired")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.ALREADY_RETIRED);
+        assertThat(store.events("routing")).hasSize(events);
+        assertThatThrownBy(() -> store.activate("routing", "b", Optional.empty(), ACTOR, ""))
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.RETIRED);
+        assertThat(store.activeVersion("routing")).isEmpty();
+    }
+
+    @Test
+    void retiring_the_shadowed_version_stops_its_shadow_and_retiring_another_does_not() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        publish("routing", "c", 3);
+        store.activate("routing", "a", ACTOR, "");
+        store.startShadow("routing", "b", 0.5, ACTOR);
+        store.retire("routing", "c", ACTOR, "never used");
+        assertThat(store.shadow("routing")).map(Shadow::tag).contains("b");
+        store.retire("routing", "b", ACTOR, "disagreed too often");
+        assertThat(store.shadow("routing")).isEmpty();
+        assertThat(store.events("routing")).extracting(StoreEvent::action).startsWith(StoreEvent.SHADOW_STOP, StoreEvent.RETIRE);
+        assertThat(store.events("routing").get(0).detail()).isEqualTo("b was retired");
+    }
+
+    @Test
+    void a_retired_version_is_refused_as_retired_by_the_promotion_rule_even_when_forced() {
+        publish("routing", "a", 1);
+        publish("routing", "b", 2);
+        store.activate("routing", "a", ACTOR, "");
+        store.retire("routing", "b", ACTOR, "superseded");
+        Promotion.Request forced = new Promotion.Request("routing", "b", true, "urgent", PromotionPolicy.defaults(), ACTOR);
+        assertThatThrownBy(() -> Promotion.activate(store, plainActivation("b"), Optional.empty()))
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.RETIRED);
+        assertThatThrownBy(() -> Promotion.activate(store, forced, Optional.empty())).hasMessage("routing b is retired and cannot be activated")
+                .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.RETIRED);
         assertThat(store.activeVersion("routing")).map(Version::tag).contains("a");
     }
 
@@ -209,7 +285,7 @@ abstract class BundleStoreContract {
         publish("routing", "b", 2);
         store.activate("routing", "a", ACTOR, "");
         store.activate("routing", "b", ACTOR, "");
-        store.retire("routing", "a", ACTOR);
+        store.retire("routing", "a", ACTOR, "superseded");
         assertThatThrownBy(() -> store.rollback("routing", ACTOR))
                 .isInstanceOf(StoreException.class).hasMessage("cannot roll back routing to a: it is retired");
         assertThat(store.activeVersion("routing")).map(Version::tag).contains("b");
@@ -510,7 +586,7 @@ abstract class BundleStoreContract {
         store.activate("routing", "a", "alice", "launch");
         store.activate("routing", "b", "bob", "");
         store.rollback("routing", "carol");
-        store.retire("routing", "b", "dave");
+        store.retire("routing", "b", "dave", "labels were wrong");
         List<StoreEvent> events = store.events("routing");
         assertThat(events).extracting(StoreEvent::action).containsExactly("retire", "rollback", "activate", "activate", "publish", "publish");
         assertThat(events).extracting(StoreEvent::actor).containsExactly("dave", "carol", "bob", "alice", ACTOR, ACTOR);
@@ -577,7 +653,7 @@ abstract class BundleStoreContract {
         assertThatThrownBy(() -> store.startShadow("routing", "b", 0.0, ACTOR)).hasMessageContaining("fraction must be in (0, 1]")
                 .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.INVALID_FRACTION);
         assertThatThrownBy(() -> store.startShadow("routing", "b", 1.5, ACTOR)).hasMessageContaining("was 1.5");
-        store.retire("routing", "b", ACTOR);
+        store.retire("routing", "b", ACTOR, "superseded");
         assertThatThrownBy(() -> store.startShadow("routing", "b", 0.2, ACTOR))
                 .extracting(e -> ((StoreException) e).code()).isEqualTo(StoreException.RETIRED);
         assertThat(store.shadow("routing")).isEmpty();

@@ -3,6 +3,7 @@ package dev.pressmark.store.jdbc;
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.bundle.Bundle;
+import dev.pressmark.core.bundle.Manifest;
 import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.bundle.BundleContents;
 import dev.pressmark.core.bundle.ModelWeights;
@@ -68,11 +69,8 @@ final class TestBundles {
             }
         }
         TokenizerSpec spec = TokenizerSpec.words(TextNormalizer.DEFAULT);
-        ObjectNode manifest = JsonNodeFactory.instance.objectNode();
-        manifest.put("name", model);
-        manifest.put("seed", seed);
         ModelWeights weights = new ModelWeights(ModelWeights.LINEAR_SVM, LinearWeights.of(labels.size(), 1.0, w), List.of());
-        return Bundle.write(manifest, labels, new TextPipeline(spec, spec.tokenizer(), space), weights,
+        return Bundle.write(Manifest.named(model), labels, new TextPipeline(spec, spec.tokenizer(), space), weights,
                 JsonNodeFactory.instance.objectNode().put("seed", seed));
     }
 
