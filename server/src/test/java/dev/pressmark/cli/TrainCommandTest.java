@@ -4,6 +4,8 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.pressmark.core.bundle.Manifest;
+import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.demo.ListingTitles;
 import java.io.IOException;
 import java.nio.file.Files;
@@ -256,12 +258,11 @@ class TrainCommandTest {
         assertThat(run.exitCode()).as(run.err()).isZero();
         java.util.List<String> warnings = run.err().lines().filter(line -> line.contains("on both sides of the split")).toList();
         assertThat(warnings).hasSize(1);
-        JsonNode manifest = JSON.readTree(CommandRun.run(dir, "inspect", "k.pmb", "--json").out());
-        JsonNode across = manifest.path("duplicates").path("across_split");
-        assertThat(across.path("texts").asInt()).isPositive();
-        assertThat(warnings.get(0)).contains(String.format(java.util.Locale.ROOT, "%,d texts", across.path("texts").asInt()),
+        DuplicateCounts duplicates = shownManifest("k.pmb").duplicates().orElseThrow();
+        assertThat(duplicates.acrossSplit().texts()).isPositive();
+        assertThat(warnings.get(0)).contains(String.format(java.util.Locale.ROOT, "%,d texts", duplicates.acrossSplit().texts()),
                 "data.duplicates: group");
-        assertThat(manifest.path("duplicates").path("setting").asText()).isEqualTo("keep");
+        assertThat(duplicates.setting()).isEqualTo("keep");
         assertThat(CommandRun.run(dir, "inspect", "k.pmb").out()).contains("duplicates keep: ", " across the split (");
         assertThat(Files.readString(dir.resolve("k.pmb.html"))).contains("texts on both sides of the split");
     }
@@ -272,9 +273,9 @@ class TrainCommandTest {
         CommandRun run = CommandRun.run(dir, "train", "--config", "doubled.yaml", "--out", "g.pmb", "--assignments", "rows.csv");
         assertThat(run.exitCode()).as(run.err()).isZero();
         assertThat(run.err()).doesNotContain("both sides of the split");
-        JsonNode manifest = JSON.readTree(CommandRun.run(dir, "inspect", "g.pmb", "--json").out());
-        assertThat(manifest.path("duplicates").path("across_split").path("texts").asInt()).isZero();
-        assertThat(manifest.path("training").path("groups").asInt()).isLessThanOrEqualTo(600);
+        Manifest manifest = shownManifest("g.pmb");
+        assertThat(manifest.duplicates().orElseThrow().acrossSplit().texts()).isZero();
+        assertThat(manifest.training().orElseThrow().groups().getAsInt()).isLessThanOrEqualTo(600);
         java.util.List<String> lines = Files.readAllLines(dir.resolve("rows.csv"));
         for (int row = 1; row <= 600; row++) {
             // row r and its upper-case copy r + 600 are in one place
@@ -289,14 +290,19 @@ class TrainCommandTest {
         writeDoubledDataAndConfig("drop");
         CommandRun run = CommandRun.run(dir, "train", "--config", "doubled.yaml", "--out", "d.pmb", "--assignments", "rows.csv");
         assertThat(run.exitCode()).as(run.err()).isZero();
-        JsonNode manifest = JSON.readTree(CommandRun.run(dir, "inspect", "d.pmb", "--json").out());
-        int dropped = manifest.path("duplicates").path("dropped_rows").asInt();
+        Manifest manifest = shownManifest("d.pmb");
+        int dropped = manifest.duplicates().orElseThrow().droppedRows();
         assertThat(dropped).isGreaterThanOrEqualTo(600);
         assertThat(run.err()).contains(String.format(java.util.Locale.ROOT, "drop left out %,d rows", dropped));
         java.util.List<String> lines = Files.readAllLines(dir.resolve("rows.csv"));
         assertThat(lines).hasSize(1 + 1200 - dropped);
         // every upper-case copy (rows 601..1200) repeats an earlier row
         assertThat(lines.subList(1, lines.size())).allMatch(line -> Integer.parseInt(line.substring(0, line.indexOf(','))) <= 600);
-        assertThat(manifest.path("training").path("rows").asInt()).isEqualTo(1200 - dropped);
+        assertThat(manifest.training().orElseThrow().rows()).isEqualTo(1200 - dropped);
+    }
+
+    /** The manifest {@code inspect --json} prints for {@code bundle}, read through the manifest's one reader. */
+    private Manifest shownManifest(String bundle) {
+        return Manifest.parse(CommandRun.run(dir, "inspect", bundle, "--json").succeeded().out());
     }
 }

@@ -346,9 +346,10 @@ public record Manifest(
      * @param droppedRows incomplete rows left out
      * @param trainRows rows in the training part
      * @param testRows rows in the test part
-     * @param groups the distinct groups, recorded only with {@code data.group}
-     * @param testFractionAchieved the test part's share of the rows, recorded only with
-     *     {@code data.group} when the test part was held out (not given as a file)
+     * @param groups the distinct groups, recorded only with {@code data.group} or
+     *     {@code data.duplicates: group} (then the groups joined with those of identical texts)
+     * @param testFractionAchieved the test part's share of the rows, recorded only with groups
+     *     when the test part was held out (not given as a file)
      * @param features the model's features
      * @param vocabularySize the tokenizers' vocabulary size
      * @param warnings solver and grouping warnings

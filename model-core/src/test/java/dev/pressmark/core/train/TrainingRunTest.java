@@ -214,7 +214,7 @@ class TrainingRunTest {
         byte[] bundle = BundleAssembler.assemble(config, data, new TrainingRun(config, data).run(Progress.NONE), CREATED);
         com.fasterxml.jackson.databind.node.ObjectNode manifest = Bundle.read(bundle).manifest().deepCopy();
         ((com.fasterxml.jackson.databind.node.ObjectNode) manifest.get("provenance")).remove(java.util.List.of("java", "os", "library"));
-        assertThat(manifest.path("duplicates").path("setting").asText()).isEqualTo("keep");
+        assertThat(Bundle.read(bundle).typedManifest().duplicates().orElseThrow().setting()).isEqualTo("keep");
         manifest.remove("duplicates");
         byte[] json = new com.fasterxml.jackson.databind.ObjectMapper().writeValueAsBytes(manifest);
         assertThat(manifest.path("training").has("groups")).isFalse();
