@@ -46,6 +46,7 @@ final class InspectCommand implements Callable<Integer> {
         Optional<Manifest.Provenance> provenance = manifest.provenance();
         System.out.printf(Locale.ROOT, "data       %s (sha256 %s)%n", provenance.map(Manifest.Provenance::dataFile).orElse(""),
                 provenance.map(Manifest.Provenance::dataSha256).orElse(""));
+        printRows(manifest);
         System.out.printf(Locale.ROOT, "%nmetric             cross-validation       test%n");
         Manifest.Metrics metrics = manifest.metrics().orElse(Manifest.Metrics.NONE);
         for (Map.Entry<String, Manifest.CvScore> metric : metrics.cv().entrySet()) {
@@ -66,5 +67,24 @@ final class InspectCommand implements Callable<Integer> {
             }
         }
         return Main.EXIT_OK;
+    }
+
+    /** The rows of each part, the groups when there were any, and the duplicate texts when recorded. */
+    private static void printRows(Manifest manifest) {
+        Optional<Manifest.Training> training = manifest.training();
+        String groups = training.map(InspectCommand::groupsNote).orElse("");
+        System.out.printf(Locale.ROOT, "rows       %,d training, %,d test%s%n", training.map(Manifest.Training::trainRows).orElse(0),
+                training.map(Manifest.Training::testRows).orElse(0), groups);
+        manifest.duplicates().ifPresent(duplicates -> System.out.printf(Locale.ROOT, "duplicates %s%n", duplicates.summary()));
+    }
+
+    /** "; N groups, test fraction achieved F" when the run had groups, else "". */
+    private static String groupsNote(Manifest.Training training) {
+        if (training.groups().isEmpty()) {
+            return "";
+        }
+        String fraction = training.testFractionAchieved().isPresent()
+                ? String.format(Locale.ROOT, ", test fraction achieved %.4f", training.testFractionAchieved().getAsDouble()) : "";
+        return String.format(Locale.ROOT, "; %,d groups", training.groups().getAsInt()) + fraction;
     }
 }

@@ -2,6 +2,7 @@ package dev.pressmark.cli;
 
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.bundle.HtmlReport;
+import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.core.evaluate.MetricSummary;
 import dev.pressmark.core.io.AtomicFiles;
 import dev.pressmark.core.train.BundleTrainer;
@@ -14,6 +15,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Instant;
+import java.util.Arrays;
 import java.util.Locale;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
@@ -61,6 +63,10 @@ final class TrainCommand implements Callable<Integer> {
         BundleTrainer.Trained trained = testData == null ? BundleTrainer.train(plan, data, created, progress)
                 : BundleTrainer.train(plan, data, testData(trainConfig), created, progress);
         TrainingRun.Result result = trained.result();
+        if (result.duplicates().droppedRows() > 0) {
+            System.err.printf(Locale.ROOT, "pressmark: data.duplicates: drop left out %,d rows that repeat an earlier row's text and"
+                    + " label%n", result.duplicates().droppedRows());
+        }
         byte[] bundle = trained.bytes();
         Path target = out != null ? out : config.toAbsolutePath().getParent().resolve(trainConfig.name() + ".pmb");
         Path report = target.resolveSibling(target.getFileName() + ".html");
@@ -68,13 +74,17 @@ final class TrainCommand implements Callable<Integer> {
         AtomicFiles.write(target, stream -> stream.write(bundle));
         AtomicFiles.write(report, stream -> stream.write(html.getBytes(StandardCharsets.UTF_8)));
         if (assignments != null) {
-            AtomicFiles.write(assignments, stream -> stream.write(
-                    AssignmentsCsv.render(data.rowNumbers(), result.foldOfRow()).getBytes(StandardCharsets.UTF_8)));
+            // the run's rows: the data file's rows it kept (data.duplicates: drop leaves repeats out), then any test file's
+            int[] rowNumbers = trained.data().rowNumbers();
+            int dataRows = testData == null ? rowNumbers.length : rowNumbers.length - result.testRows().length;
+            AtomicFiles.write(assignments, stream -> stream.write(AssignmentsCsv.render(Arrays.copyOf(rowNumbers, dataRows),
+                    result.foldOfRow()).getBytes(StandardCharsets.UTF_8)));
         }
         if (result.search() != null) {
             System.out.print(SearchTable.render(result.search().summary()));
             System.out.println();
         }
+        warnAboutLeakage(result.duplicates(), testData != null);
         printSummary(result);
         System.err.println("pressmark: wrote " + target + " and " + report + (assignments == null ? "" : " and " + assignments));
         return Main.EXIT_OK;
@@ -87,6 +97,20 @@ final class TrainCommand implements Callable<Integer> {
         System.err.printf(Locale.ROOT, "pressmark: %s: %,d test rows%s%n", testData, test.rows(),
                 test.droppedRows() > 0 ? String.format(Locale.ROOT, ", %,d incomplete rows left out", test.droppedRows()) : "");
         return test;
+    }
+
+    /** One line on stderr when test rows repeat training texts, with what to do about it. */
+    static void warnAboutLeakage(DuplicateCounts duplicates, boolean testFile) {
+        if (duplicates.acrossSplit().texts() == 0) {
+            return;
+        }
+        int texts = duplicates.acrossSplit().texts();
+        int rows = duplicates.acrossSplit().rows();
+        System.err.printf(Locale.ROOT, "pressmark: warning: %,d text%s on both sides of the split (%,d test row%s a"
+                + " training text, so the test figures flatter the model); %s%n", texts, texts == 1 ? " is" : "s are",
+                rows, rows == 1 ? " repeats" : "s repeat", testFile
+                        ? "they come from --test-data, which no setting moves: remove them from one of the files"
+                        : "set data.duplicates: group to keep identical texts on one side");
     }
 
     private static Instant created(Path dataFile) throws IOException {

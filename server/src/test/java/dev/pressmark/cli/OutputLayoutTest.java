@@ -90,7 +90,7 @@ class OutputLayoutTest {
         CommandRun.run(dir, "train", "--config", "train.yaml", "--out", "m.pmb").succeeded();
         String[] lines = CommandRun.run(dir, "inspect", "m.pmb").succeeded().out().split("\n");
 
-        List<String> keys = List.of("name", "created", "labels", "fields", "classifier", "data");
+        List<String> keys = List.of("name", "created", "labels", "fields", "classifier", "data", "rows", "duplicates");
         List<Integer> starts = new ArrayList<>();
         for (int i = 0; i < keys.size(); i++) {
             assertThat(lines[i]).startsWith(keys.get(i) + " ");

@@ -4,6 +4,8 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.pressmark.core.bundle.Manifest;
+import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.demo.ListingTitles;
 import java.io.IOException;
 import java.nio.file.Files;
@@ -230,5 +232,79 @@ class TrainCommandTest {
         try (var files = Files.list(dir)) {
             assertThat(files.map(p -> p.getFileName().toString())).noneMatch(name -> name.endsWith(".tmp"));
         }
+    }
+
+    /** 600 listings, then the same 600 in upper case: every text twice once normalised. */
+    private void writeDoubledDataAndConfig(String duplicates) throws IOException {
+        StringBuilder csv = new StringBuilder("title,department\n");
+        java.util.List<ListingTitles.Listing> listings = ListingTitles.generate(600, 4);
+        for (int copy = 0; copy < 2; copy++) {
+            for (ListingTitles.Listing listing : listings) {
+                String title = copy == 0 ? listing.title() : listing.title().toUpperCase(java.util.Locale.ROOT);
+                csv.append('"').append(title.replace("\"", "\"\"")).append("\",").append(listing.department()).append('\n');
+            }
+        }
+        Files.writeString(dir.resolve("doubled.csv"), csv);
+        Files.writeString(dir.resolve("doubled.yaml"), """
+                name: routing
+                data: {file: doubled.csv, text: [title], label: department, duplicates: %s}
+                tokenizer: {kind: words}
+                evaluation: {folds: 3, threads: 2}
+                """.formatted(duplicates));
+    }
+
+    @Test
+    void texts_on_both_sides_of_the_split_get_one_warning_line_and_are_shown_by_inspect_and_the_report() throws IOException {
+        writeDoubledDataAndConfig("keep");
+        CommandRun run = CommandRun.run(dir, "train", "--config", "doubled.yaml", "--out", "k.pmb");
+        assertThat(run.exitCode()).as(run.err()).isZero();
+        java.util.List<String> warnings = run.err().lines().filter(line -> line.contains("on both sides of the split")).toList();
+        assertThat(warnings).hasSize(1);
+        DuplicateCounts duplicates = shownManifest("k.pmb").duplicates().orElseThrow();
+        assertThat(duplicates.acrossSplit().texts()).isPositive();
+        assertThat(warnings.get(0)).contains(String.format(java.util.Locale.ROOT, "%,d texts", duplicates.acrossSplit().texts()),
+                "data.duplicates: group");
+        assertThat(duplicates.setting()).isEqualTo("keep");
+        assertThat(CommandRun.run(dir, "inspect", "k.pmb").out()).contains("duplicates keep: ", " across the split (");
+        assertThat(Files.readString(dir.resolve("k.pmb.html"))).contains("texts on both sides of the split");
+    }
+
+    @Test
+    void with_duplicates_group_no_text_crosses_the_split_and_nothing_is_warned() throws IOException {
+        writeDoubledDataAndConfig("group");
+        CommandRun run = CommandRun.run(dir, "train", "--config", "doubled.yaml", "--out", "g.pmb", "--assignments", "rows.csv");
+        assertThat(run.exitCode()).as(run.err()).isZero();
+        assertThat(run.err()).doesNotContain("both sides of the split");
+        Manifest manifest = shownManifest("g.pmb");
+        assertThat(manifest.duplicates().orElseThrow().acrossSplit().texts()).isZero();
+        assertThat(manifest.training().orElseThrow().groups().getAsInt()).isLessThanOrEqualTo(600);
+        java.util.List<String> lines = Files.readAllLines(dir.resolve("rows.csv"));
+        for (int row = 1; row <= 600; row++) {
+            // row r and its upper-case copy r + 600 are in one place
+            assertThat(lines.get(row + 600).substring(lines.get(row + 600).indexOf(',')))
+                    .isEqualTo(lines.get(row).substring(lines.get(row).indexOf(',')));
+        }
+        assertThat(CommandRun.run(dir, "inspect", "g.pmb").out()).contains("groups, test fraction achieved");
+    }
+
+    @Test
+    void with_duplicates_drop_the_copies_are_left_out_and_the_assignments_list_the_rows_kept() throws IOException {
+        writeDoubledDataAndConfig("drop");
+        CommandRun run = CommandRun.run(dir, "train", "--config", "doubled.yaml", "--out", "d.pmb", "--assignments", "rows.csv");
+        assertThat(run.exitCode()).as(run.err()).isZero();
+        Manifest manifest = shownManifest("d.pmb");
+        int dropped = manifest.duplicates().orElseThrow().droppedRows();
+        assertThat(dropped).isGreaterThanOrEqualTo(600);
+        assertThat(run.err()).contains(String.format(java.util.Locale.ROOT, "drop left out %,d rows", dropped));
+        java.util.List<String> lines = Files.readAllLines(dir.resolve("rows.csv"));
+        assertThat(lines).hasSize(1 + 1200 - dropped);
+        // every upper-case copy (rows 601..1200) repeats an earlier row
+        assertThat(lines.subList(1, lines.size())).allMatch(line -> Integer.parseInt(line.substring(0, line.indexOf(','))) <= 600);
+        assertThat(manifest.training().orElseThrow().rows()).isEqualTo(1200 - dropped);
+    }
+
+    /** The manifest {@code inspect --json} prints for {@code bundle}, read through the manifest's one reader. */
+    private Manifest shownManifest(String bundle) {
+        return Manifest.parse(CommandRun.run(dir, "inspect", bundle, "--json").succeeded().out());
     }
 }

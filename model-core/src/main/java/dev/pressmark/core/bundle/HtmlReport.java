@@ -4,6 +4,7 @@ import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import dev.pressmark.core.classify.LinearWeights;
+import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.core.feature.FeatureSpace;
 import com.fasterxml.jackson.databind.node.MissingNode;
 import java.util.ArrayList;
@@ -44,6 +45,7 @@ public final class HtmlReport {
                 .append(training.map(Manifest.Training::testRows).orElse(0)).append(" test rows · ")
                 .append(escape(manifest.classifier().map(Manifest.Classifier::kind).orElse(""))).append("</p>\n");
         metricsTable(html, metrics);
+        rowsTable(html, training, manifest.duplicates());
         manifest.search().ifPresent(search -> SearchReport.append(html, search));
         confusion(html, bundle.labels(), confusionOf(manifest));
         foldSpread(html, metrics.map(Manifest.Metrics::cv).orElse(Collections.emptySortedMap()));
@@ -70,6 +72,35 @@ public final class HtmlReport {
                     .append(format(test == null ? Double.NaN : test)).append("</td></tr>\n");
         }
         html.append("</tbody></table>\n");
+    }
+
+    /** The rows of each part, the groups (with data.group or grouped duplicates), and the duplicate texts. */
+    private static void rowsTable(StringBuilder html, Optional<Manifest.Training> training, Optional<DuplicateCounts> duplicates) {
+        html.append("<h2>Rows, groups and duplicate texts</h2>\n<table class=\"metrics rows\"><tbody>\n");
+        row(html, "training rows", Integer.toString(training.map(Manifest.Training::trainRows).orElse(0)));
+        row(html, "test rows", Integer.toString(training.map(Manifest.Training::testRows).orElse(0)));
+        training.ifPresent(figures -> {
+            figures.groups().ifPresent(groups -> row(html, "groups", Integer.toString(groups)));
+            figures.testFractionAchieved().ifPresent(fraction ->
+                    row(html, "test fraction achieved", String.format(Locale.ROOT, "%.4f", fraction)));
+        });
+        duplicates.ifPresent(counts -> {
+            row(html, "duplicates setting", counts.setting());
+            row(html, "rows dropped as repeats", Integer.toString(counts.droppedRows()));
+            row(html, "texts repeated in training", tally(counts.withinTrain(), "rows"));
+            row(html, "texts repeated in test", tally(counts.withinTest(), "rows"));
+            row(html, "texts on both sides of the split", tally(counts.acrossSplit(), "test rows"));
+            row(html, "texts with conflicting labels", tally(counts.conflictingLabels(), "rows"));
+        });
+        html.append("</tbody></table>\n");
+    }
+
+    private static String tally(DuplicateCounts.Tally tally, String rows) {
+        return tally.texts() + " (" + tally.rows() + " " + rows + ")";
+    }
+
+    private static void row(StringBuilder html, String name, String value) {
+        html.append("<tr><td>").append(escape(name)).append("</td><td>").append(escape(value)).append("</td></tr>\n");
     }
 
     private static void confusion(StringBuilder html, List<String> labels, Manifest.Confusion counts) {

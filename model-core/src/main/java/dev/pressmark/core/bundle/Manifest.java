@@ -6,6 +6,7 @@ import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.classify.PlattScaling;
+import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.core.search.SearchSummary;
 import java.util.ArrayList;
 import java.util.Collections;
@@ -43,8 +44,8 @@ import java.util.function.Function;
  * @param provenance how the bundle was made (empty when not trained by this program)
  * @param training the training figures (empty likewise)
  * @param metrics cross-validated and test metrics (empty likewise)
- * @param sections the optional top-level objects that have a type of their own ({@link #SEARCH}),
- *     each present only when training recorded it
+ * @param sections the optional top-level objects that have a type of their own ({@link #SEARCH},
+ *     {@link #DUPLICATES}), each present only when training recorded it
  * @param listing the format version and the entries' checksums, which the archive writer adds;
  *     empty before the bundle is written
  */
@@ -162,6 +163,11 @@ public record Manifest(
         return sections.get(SEARCH);
     }
 
+    /** The duplicate texts' counts; empty for a bundle trained before they were recorded. */
+    public Optional<DuplicateCounts> duplicates() {
+        return sections.get(DUPLICATES);
+    }
+
     /** The search part as JSON with its keys sorted, as the manifest holds it; empty without a search. */
     public Optional<ObjectNode> searchJson() {
         return search().map(value -> (ObjectNode) CanonicalJson.sorted(value.toJson()));
@@ -187,8 +193,12 @@ public record Manifest(
     /** What a model search found: every candidate's score and the chosen one. */
     public static final Section<SearchSummary> SEARCH = new Section<>(SearchSummary.KEY, SearchSummary::fromJson, SearchSummary::toJson);
 
+    /** How often the rows of each part repeat a normalised text, and what {@code data.duplicates} did about it. */
+    public static final Section<DuplicateCounts> DUPLICATES =
+            new Section<>(DuplicateCounts.KEY, DuplicateCounts::fromJson, DuplicateCounts::toJson);
+
     /** Every section a manifest may hold. A new optional object is one constant above, named here. */
-    static final List<Section<?>> SECTIONS = List.of(SEARCH);
+    static final List<Section<?>> SECTIONS = List.of(SEARCH, DUPLICATES);
 
     /**
      * The sections a manifest holds, by key; each value is of its {@link Section}'s type.
@@ -336,9 +346,10 @@ public record Manifest(
      * @param droppedRows incomplete rows left out
      * @param trainRows rows in the training part
      * @param testRows rows in the test part
-     * @param groups the distinct groups, recorded only with {@code data.group}
-     * @param testFractionAchieved the test part's share of the rows, recorded only with
-     *     {@code data.group} when the test part was held out (not given as a file)
+     * @param groups the distinct groups, recorded only with {@code data.group} or
+     *     {@code data.duplicates: group} (then the groups joined with those of identical texts)
+     * @param testFractionAchieved the test part's share of the rows, recorded only with groups
+     *     when the test part was held out (not given as a file)
      * @param features the model's features
      * @param vocabularySize the tokenizers' vocabulary size
      * @param warnings solver and grouping warnings

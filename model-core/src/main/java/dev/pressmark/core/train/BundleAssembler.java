@@ -68,7 +68,7 @@ public final class BundleAssembler {
                 config.split().seed(), data.sha256(), fileName(config),
                 configJson(result.search() == null ? config : result.search().chosen()));
         TrainingRun.Grouping grouping = result.grouping();
-        // groups only with data.group, so that a config without it writes the manifest it always did
+        // groups only with data.group or data.duplicates: group, so that a config without either writes the training part it always did
         Manifest.Training training = new Manifest.Training(data.rows(), data.droppedRows(), result.trainRows().length,
                 result.testRows().length, grouping == null ? OptionalInt.empty() : OptionalInt.of(grouping.groups()),
                 grouping == null || Double.isNaN(grouping.testFractionAchieved()) ? OptionalDouble.empty()
@@ -77,7 +77,8 @@ public final class BundleAssembler {
         return Manifest.trained(config.name(), created.toString(), positive, provenance, training,
                 metrics(result, config.data().weight() != null),
                 Manifest.Sections.NONE.with(Manifest.SEARCH,
-                        result.search() == null ? Optional.empty() : Optional.of(result.search().summary())));
+                        result.search() == null ? Optional.empty() : Optional.of(result.search().summary()))
+                        .with(Manifest.DUPLICATES, Optional.of(result.duplicates())));
     }
 
     private static String fileName(TrainConfig config) {
@@ -89,7 +90,7 @@ public final class BundleAssembler {
     static JsonNode configJson(TrainConfig config) {
         ObjectNode node = JSON.valueToTree(config.withData(new DataConfig(fileName(config), config.data().text(),
                 config.data().label(), config.data().positive(), config.data().dropIncomplete(), config.data().group(),
-                config.data().weight())));
+                config.data().weight(), config.data().duplicates())));
         ObjectNode features = node.putObject("features");
         FeatureConfig settings = config.features();
         if (settings.maxTokens() == FeatureConfig.ALL) {

@@ -25,14 +25,17 @@ public final class BundleTrainer {
      *
      * @param bytes the bundle file's bytes
      * @param bundle the model those bytes hold, ready to predict and to report on
-     * @param result what the run measured (metrics, folds, search, row assignments)
+     * @param result what the run measured (metrics, folds, search, row assignments, duplicate texts)
+     * @param data the rows the run used, in the order of {@link TrainingRun.Result#foldOfRow}: the
+     *     data's rows that {@code data.duplicates: drop} kept, then any test data's rows
      */
-    public record Trained(byte[] bytes, Bundle bundle, TrainingRun.Result result) {
+    public record Trained(byte[] bytes, Bundle bundle, TrainingRun.Result result, LabelledData data) {
 
         public Trained {
             Objects.requireNonNull(bytes, "bytes");
             Objects.requireNonNull(bundle, "bundle");
             Objects.requireNonNull(result, "result");
+            Objects.requireNonNull(data, "data");
         }
     }
 
@@ -60,6 +63,6 @@ public final class BundleTrainer {
         }
         TrainingRun.Result result = run.run(progress);
         Bundle.Built built = BundleAssembler.build(config, run.data(), result, created);
-        return new Trained(built.bytes(), built.bundle(), result);
+        return new Trained(built.bytes(), built.bundle(), result, run.data());
     }
 }

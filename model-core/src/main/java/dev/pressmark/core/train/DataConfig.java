@@ -23,8 +23,10 @@ import java.util.Objects;
  * @param weight the column that holds each row's case weight (a finite number {@code >= 0}), or
  *     null for every row weighing 1; a row's cost in the solvers is {@code C × class weight × case
  *     weight}, and every metric sums case weights where it would count rows
+ * @param duplicates what to do with rows whose normalised texts are identical: keep them (the
+ *     default; they are only counted), group them, or drop the repeats
  */
-@JsonPropertyOrder({"file", "text", "label", "positive", "drop_incomplete", "group", "weight"})
+@JsonPropertyOrder({"file", "text", "label", "positive", "drop_incomplete", "group", "weight", "duplicates"})
 public record DataConfig(
         @JsonProperty("file") String file,
         @JsonProperty("text") List<String> text,
@@ -32,7 +34,10 @@ public record DataConfig(
         @JsonProperty("positive") String positive,
         @JsonProperty("drop_incomplete") boolean dropIncomplete,
         @JsonProperty("group") @JsonInclude(JsonInclude.Include.NON_NULL) String group,
-        @JsonProperty("weight") @JsonInclude(JsonInclude.Include.NON_NULL) String weight) {
+        @JsonProperty("weight") @JsonInclude(JsonInclude.Include.NON_NULL) String weight,
+        // absent from the manifest's config when keep, so that a config without the key writes the manifest it always did
+        @JsonProperty("duplicates") @JsonInclude(value = JsonInclude.Include.CUSTOM, valueFilter = DuplicatesMode.KeepFilter.class)
+        DuplicatesMode duplicates) {
 
     public static final String DEFAULT_FILE = "data.csv";
     public static final List<String> DEFAULT_TEXT = List.of("text");
@@ -41,7 +46,7 @@ public record DataConfig(
 
     /** A config whose rows are independent (no {@code group}). */
     public DataConfig(String file, List<String> text, String label, String positive, boolean dropIncomplete) {
-        this(file, text, label, positive, dropIncomplete, null, null);
+        this(file, text, label, positive, dropIncomplete, null, null, DuplicatesMode.DEFAULT);
     }
 
     /** A config without case weights ({@code weight} null). */
@@ -49,8 +54,15 @@ public record DataConfig(
         this(file, text, label, positive, dropIncomplete, group, null);
     }
 
+    /** A config that keeps duplicate texts ({@code duplicates: keep}). */
+    public DataConfig(String file, List<String> text, String label, String positive, boolean dropIncomplete, String group,
+                      String weight) {
+        this(file, text, label, positive, dropIncomplete, group, weight, DuplicatesMode.DEFAULT);
+    }
+
     public DataConfig {
         Objects.requireNonNull(file, "data.file");
+        Objects.requireNonNull(duplicates, "data.duplicates");
         if (file.isBlank()) {
             throw new IllegalArgumentException("data.file must name a CSV file, was empty");
         }
@@ -92,7 +104,8 @@ public record DataConfig(
             @JsonProperty("positive") String positive,
             @JsonProperty("drop_incomplete") Boolean dropIncomplete,
             @JsonProperty("group") String group,
-            @JsonProperty("weight") String weight) {
+            @JsonProperty("weight") String weight,
+            @JsonProperty("duplicates") String duplicates) {
         return new DataConfig(
                 file == null ? DEFAULT_FILE : file,
                 text == null ? DEFAULT_TEXT : text,
@@ -100,7 +113,13 @@ public record DataConfig(
                 positive,
                 dropIncomplete != null && dropIncomplete,
                 group,
-                weight);
+                weight,
+                duplicates == null ? DuplicatesMode.DEFAULT : DuplicatesMode.fromKey(duplicates));
+    }
+
+    /** This config with {@code duplicates} set to {@code mode}. */
+    public DataConfig withDuplicates(DuplicatesMode mode) {
+        return new DataConfig(file, text, label, positive, dropIncomplete, group, weight, mode);
     }
 
     /** The file as a path, resolved against {@code base} when relative. */
@@ -110,6 +129,6 @@ public record DataConfig(
     }
 
     DataConfig resolvedAgainst(Path base) {
-        return new DataConfig(path(base).toString(), text, label, positive, dropIncomplete, group, weight);
+        return new DataConfig(path(base).toString(), text, label, positive, dropIncomplete, group, weight, duplicates);
     }
 }

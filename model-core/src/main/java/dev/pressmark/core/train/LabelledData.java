@@ -175,6 +175,34 @@ public record LabelledData(
                 droppedRows + more.droppedRows, allGroups, allNumbers, allWeights);
     }
 
+    /**
+     * The rows at {@code indices} (ascending), with their groups, numbers and weights; the
+     * fingerprint and the count of incomplete rows left out stay this file's.
+     */
+    public LabelledData rowsAt(int[] indices) {
+        List<String[]> someTexts = new ArrayList<>(indices.length);
+        List<String> someLabels = new ArrayList<>(indices.length);
+        List<String> someGroups = groups == null ? null : new ArrayList<>(indices.length);
+        int[] someLines = new int[indices.length];
+        int[] someNumbers = new int[indices.length];
+        double[] someWeights = weights == null ? null : new double[indices.length];
+        for (int i = 0; i < indices.length; i++) {
+            int row = indices[i];
+            someTexts.add(texts.get(row));
+            someLabels.add(labels.get(row));
+            if (someGroups != null) {
+                someGroups.add(groups.get(row));
+            }
+            someLines[i] = lines[row];
+            someNumbers[i] = rowNumbers[row];
+            if (someWeights != null) {
+                someWeights[i] = weights[row];
+            }
+        }
+        return new LabelledData(textColumns, labelColumn, someTexts, someLabels, someLines, sha256, droppedRows, someGroups,
+                someNumbers, someWeights);
+    }
+
     /** Reads the text columns of {@code file} without labels, for prediction; every row is kept. */
     public static LabelledData readTexts(Path file, List<String> textColumns) {
         return read(file, textColumns, null, null, null, false);

@@ -10,6 +10,7 @@ import dev.pressmark.core.classify.LogisticTrainer;
 import dev.pressmark.core.classify.PlattScaling;
 import dev.pressmark.core.classify.SvmTrainer;
 import dev.pressmark.core.classify.WarmStart;
+import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.core.evaluate.Evaluation;
 import dev.pressmark.core.evaluate.Fold;
 import dev.pressmark.core.evaluate.FoldSummary;
@@ -37,8 +38,11 @@ import java.util.concurrent.atomic.AtomicInteger;
  * One training run, from labelled rows to a fitted model with honest estimates of its quality:
  *
  * <ol>
- *   <li>hold out the test part (stratified by default; with {@code data.group}, whole groups, as
- *       {@link Resampling#groupedStratifiedSplit} places them);
+ *   <li>find identical normalised texts ({@code data.duplicates}): count them, group them, or drop
+ *       later repeats of a (text, label) pair;
+ *   <li>hold out the test part (stratified by default; with {@code data.group} or
+ *       {@code duplicates: group}, whole groups, as {@link Resampling#groupedStratifiedSplit}
+ *       places them);
  *   <li>cross-validate on the training part only (in grouped folds with {@code data.group}): in every fold the whole preprocessing and the
  *       classifier are fitted on the fold's training rows and scored on its held-out rows;
  *   <li>fit Platt sigmoids, when asked, on the out-of-fold decision values of the first repeat;
@@ -64,9 +68,11 @@ public final class TrainingRun {
      * @param warnings solver warnings, for example an iteration cap that was hit, and groups too
      *     large for the part they went to
      * @param search what the search found, or null when the config has no search
-     * @param grouping the groups' figures when {@code data.group} is set, else null
+     * @param grouping the groups' figures when {@code data.group} is set or {@code data.duplicates}
+     *     is {@code group}, else null
      * @param foldOfRow per data row, the fold (from 0) of the first repeat that held it out, or
      *     {@link RowAssignments#TEST} for a test row
+     * @param duplicates how often the rows of each part repeat a normalised text
      */
     public record Result(
             List<String> labels,
@@ -80,7 +86,8 @@ public final class TrainingRun {
             List<String> warnings,
             Searched search,
             Grouping grouping,
-            int[] foldOfRow) {
+            int[] foldOfRow,
+            DuplicateCounts duplicates) {
     }
 
     /**
@@ -110,8 +117,13 @@ public final class TrainingRun {
     private final PipelineFitter fitter;
     /** The train/test split given by the caller, or null to hold out a part as {@code config.split()} says. */
     private final Split fixedSplit;
-    /** The rows' groups when {@code data.group} is set, else null. */
+    /**
+     * The rows' groups when {@code data.group} is set or {@code data.duplicates} is {@code group}
+     * (then joined with the groups of identical texts), else null.
+     */
     private final RowGroups groups;
+    /** The rows after {@code data.duplicates: drop}, their text ids, and the split a test file fixed. */
+    private final PreparedRows prepared;
     /** Each data row's case weight when {@code data.weight} is set, else null (every row weighs 1). */
     private final double[] caseWeights;
 
@@ -141,10 +153,15 @@ public final class TrainingRun {
     }
 
     private TrainingRun(TrainPlan plan, LabelledData data, Split fixedSplit) {
+        this(plan, PreparedRows.of(plan, data, fixedSplit));
+    }
+
+    private TrainingRun(TrainPlan plan, PreparedRows prepared) {
         this.config = plan.config();
         this.search = plan.search();
-        this.data = data;
-        this.fixedSplit = fixedSplit;
+        this.prepared = prepared;
+        this.data = prepared.data();
+        this.fixedSplit = prepared.fixedSplit();
         this.labels = List.copyOf(new TreeSet<>(data.labels()));
         if (labels.size() < 2) {
             throw new PressmarkException("one-class", data.labelColumn() + ": every row has the label \"" + labels.get(0)
@@ -157,7 +174,9 @@ public final class TrainingRun {
         this.positiveClass = positiveClass(config.data().positive(), labels);
         requireTextInEveryColumn(data);
         this.fitter = new PipelineFitter(config.tokenizers(), config.features(), config.data().text());
-        this.groups = rowGroups(config.data().group(), data);
+        RowGroups byColumn = rowGroups(config.data().group(), data);
+        this.groups = config.data().duplicates() == DuplicatesMode.GROUP
+                ? RowGroups.joined(byColumn, prepared.textIds(), data.texts()) : byColumn;
         this.caseWeights = caseWeights(config.data().weight(), data);
     }
 
@@ -276,7 +295,7 @@ public final class TrainingRun {
         if (search != null) {
             SearchRun.Outcome outcome = new SearchRun(this, search, config.evaluation(), trainRows, trainLabels, folds).run(progress);
             TrainConfig chosen = search.configs().get(outcome.summary().chosen());
-            return new TrainingRun(TrainPlan.of(chosen), data, fixedSplit).finish(resampled, trainLabels, outcome.chosenFolds(),
+            return new TrainingRun(TrainPlan.of(chosen), prepared).finish(resampled, trainLabels, outcome.chosenFolds(),
                     progress, new Searched(outcome.summary(), chosen));
         }
         return finish(resampled, trainLabels, crossValidate(trainRows, trainLabels, folds, progress), progress, null);
@@ -295,8 +314,8 @@ public final class TrainingRun {
                     config.evaluation().repeats(), seed);
         } catch (TooFewGroupsException e) {
             throw new PressmarkException(e.code(), "evaluation.folds is " + folds + ", but label \"" + labels.get(e.classIndex())
-                    + "\" has rows in only " + e.groups() + " group" + (e.groups() == 1 ? "" : "s") + " of data.group \""
-                    + config.data().group() + "\" in the training part; lower evaluation.folds (at most "
+                    + "\" has rows in only " + e.groups() + " group" + (e.groups() == 1 ? "" : "s") + " of " + groupingName()
+                    + " in the training part; lower evaluation.folds (at most "
                     + Math.max(2, e.groups()) + ") or add groups", e);
         }
         for (OversizedGroup group : grouped.oversized()) {
@@ -304,6 +323,15 @@ public final class TrainingRun {
                     + " its fold is larger than the others", groups.name(group.group()), group.rows(), group.limit()));
         }
         return grouped.folds();
+    }
+
+    /** What makes the groups, for messages: the group column, identical texts, or both. */
+    private String groupingName() {
+        String column = config.data().group() == null ? null : "data.group \"" + config.data().group() + "\"";
+        if (config.data().duplicates() != DuplicatesMode.GROUP) {
+            return column;
+        }
+        return (column == null ? "" : column + " joined with ") + "the groups of identical texts (data.duplicates: group)";
     }
 
     /** Platt sigmoids from the folds, the final model on the whole training part, and the test part scored once. */
@@ -336,7 +364,8 @@ public final class TrainingRun {
         warnings.forEach(progress::note);
         return new Result(labels, positiveClass, fitted.pipeline(), model, FoldSummary.of(foldMetrics), test,
                 trainRows, split.test(), warnings, searched, resampled.grouping(),
-                RowAssignments.foldOfRow(data.rows(), split, resampled.folds()));
+                RowAssignments.foldOfRow(data.rows(), split, resampled.folds()),
+                DuplicateCounts.count(prepared.textIds(), y, split, config.data().duplicates().key(), prepared.droppedRows()));
     }
 
     private Split split(long seed) {

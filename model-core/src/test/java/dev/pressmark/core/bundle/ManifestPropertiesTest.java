@@ -6,6 +6,7 @@ import static org.assertj.core.api.Assertions.assertThatThrownBy;
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.pressmark.core.classify.PlattScaling;
+import dev.pressmark.core.evaluate.DuplicateCounts;
 import dev.pressmark.core.evaluate.Metric;
 import dev.pressmark.core.search.Pick;
 import dev.pressmark.core.search.SearchSummary;
@@ -102,10 +103,21 @@ class ManifestPropertiesTest {
                     : Optional.empty();
             List<PlattScaling> platt = has(1) ? labels.stream().map(l -> new PlattScaling(Double.isFinite(value) ? -value : -1.0, 0.5)).toList() : List.of();
             Manifest manifest = Manifest.trained(name, "2026-01-01T00:00:00Z", k == 2 ? Optional.of(labels.get(1)) : Optional.empty(),
-                    provenance, training, metrics, Manifest.Sections.NONE.with(Manifest.SEARCH, search))
+                    provenance, training, metrics, Manifest.Sections.NONE.with(Manifest.SEARCH, search)
+                            .with(Manifest.DUPLICATES, has(3) ? Optional.of(duplicates()) : Optional.empty()))
                     .withModel(labels, List.of("title", name + "_body"), new Manifest.Classifier(ModelWeights.LINEAR_SVM, !platt.isEmpty(), platt));
             return has(0) ? manifest.withListing(Optional.of(new Manifest.Listing(2, new TreeMap<>(Map.of(BundleArchive.WEIGHTS,
                     new Manifest.Listing.Listed("cd".repeat(32), count)))))) : manifest;
+        }
+
+        /** Duplicate counts under one of the three settings, every tally with at most as many texts as rows. */
+        DuplicateCounts duplicates() {
+            String setting = List.of("keep", "group", "drop").get(count % 3);
+            return new DuplicateCounts(setting, setting.equals("drop") ? count % 13 : 0, tally(11), tally(7), tally(5), tally(3));
+        }
+
+        private DuplicateCounts.Tally tally(int bound) {
+            return new DuplicateCounts.Tally(count % bound, count % bound + count % 17);
         }
     }
 }

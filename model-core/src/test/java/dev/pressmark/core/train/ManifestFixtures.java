@@ -11,7 +11,8 @@ import java.util.SplittableRandom;
 
 /**
  * Bundles of every kind of manifest training writes: one view and several, two labels and three,
- * with a search, with groups (held out and from a test file) and with case weights.
+ * with a search, with groups (held out and from a test file), with case weights, and with each
+ * {@code data.duplicates} setting (the others keep, the default).
  */
 final class ManifestFixtures {
 
@@ -47,6 +48,9 @@ final class ManifestFixtures {
         bundles.put("grouped", train(dir, 3, "data: {file: listings.csv, text: [title], label: department, group: seller}"));
         bundles.put("weighted", train(dir, 3, "data: {file: listings.csv, text: [title], label: department, weight: w}"));
         bundles.put("grouped-test-file", trainWithTestFile(dir));
+        bundles.put("duplicates-group", train(dir, 3,
+                "data: {file: listings.csv, text: [title], label: department, duplicates: group}"));
+        bundles.put("duplicates-drop", train(dir, 3, "data: {file: listings.csv, text: [title], label: department, duplicates: drop}"));
         return bundles;
     }
 

@@ -10,6 +10,7 @@ import dev.pressmark.core.bundle.BundleArchive;
 import dev.pressmark.core.bundle.HtmlReport;
 import dev.pressmark.core.bundle.Manifest;
 import dev.pressmark.core.drift.DriftProfile;
+import dev.pressmark.core.evaluate.DuplicateCounts;
 import java.io.ByteArrayInputStream;
 import java.io.IOException;
 import java.io.InputStream;
@@ -25,7 +26,7 @@ import org.junit.jupiter.api.io.TempDir;
 
 /**
  * Every kind of manifest the project writes (the frozen format-1 bundle, and training's with one
- * view and several, a search, groups, a test file and case weights) read into {@link Manifest}
+ * view and several, a search, groups, a test file, case weights and each duplicates setting) read into {@link Manifest}
  * and written again gives back its {@code manifest.json} byte for byte; likewise each profile.
  */
 class ManifestRoundTripTest {
@@ -87,6 +88,17 @@ class ManifestRoundTripTest {
         assertThat(fromTestFile.testFractionAchieved()).isEmpty();
         assertThat(manifests.get("weighted").metrics().orElseThrow().testConfusion().orElseThrow().weights()).isPresent();
         assertThat(manifests.get("grouped").metrics().orElseThrow().testConfusion().orElseThrow().weights()).isEmpty();
+        DuplicateCounts kept = manifests.get("logistic-two-labels").duplicates().orElseThrow();
+        assertThat(kept.setting()).isEqualTo("keep");
+        assertThat(kept.withinTrain().texts()).as("the listings repeat titles").isPositive();
+        DuplicateCounts joined = manifests.get("duplicates-group").duplicates().orElseThrow();
+        assertThat(joined.setting()).isEqualTo("group");
+        assertThat(joined.acrossSplit()).isEqualTo(new DuplicateCounts.Tally(0, 0));
+        assertThat(manifests.get("duplicates-group").training().orElseThrow().groups()).isPresent();
+        DuplicateCounts dropped = manifests.get("duplicates-drop").duplicates().orElseThrow();
+        assertThat(dropped.setting()).isEqualTo("drop");
+        assertThat(dropped.droppedRows()).isPositive();
+        assertThat(manifests.get("frozen-format-1").duplicates()).isEmpty();
     }
 
     @Test
