@@ -3,6 +3,7 @@ package dev.pressmark.core.evaluate;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
 import com.fasterxml.jackson.databind.node.ObjectNode;
+import java.util.Locale;
 import java.util.Objects;
 
 /**
@@ -122,11 +123,16 @@ public record DuplicateCounts(String setting, int droppedRows, Tally withinTrain
      * conflicting labels (4 rows)}.
      */
     public String summary() {
-        return String.format(java.util.Locale.ROOT, "%s: %s%,d texts repeated in training (%,d rows), %,d in test (%,d rows),"
-                        + " %,d across the split (%,d test rows), %,d with conflicting labels (%,d rows)", setting,
-                droppedRows > 0 ? String.format(java.util.Locale.ROOT, "%,d rows dropped; ", droppedRows) : "",
-                withinTrain.texts, withinTrain.rows, withinTest.texts, withinTest.rows, acrossSplit.texts, acrossSplit.rows,
-                conflictingLabels.texts, conflictingLabels.rows);
+        return setting + ": " + (droppedRows > 0 ? count(droppedRows, "row") + " dropped; " : "")
+                + count(withinTrain.texts, "text") + " repeated in training (" + count(withinTrain.rows, "row") + "), "
+                + count(withinTest.texts, "text") + " in test (" + count(withinTest.rows, "row") + "), "
+                + count(acrossSplit.texts, "text") + " across the split (" + count(acrossSplit.rows, "test row") + "), "
+                + count(conflictingLabels.texts, "text") + " with conflicting labels (" + count(conflictingLabels.rows, "row") + ")";
+    }
+
+    /** {@code 1 text}, {@code 1,024 texts}: the noun in the singular only for one. */
+    private static String count(int n, String noun) {
+        return String.format(Locale.ROOT, "%,d %s%s", n, noun, n == 1 ? "" : "s");
     }
 
     /** The object as the manifest holds it. */

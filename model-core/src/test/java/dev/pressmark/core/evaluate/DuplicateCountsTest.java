@@ -37,6 +37,17 @@ class DuplicateCountsTest {
     }
 
     @Test
+    void the_summary_reads_in_the_singular_for_one_and_the_plural_otherwise() {
+        // the same hand-worked split as above: one text in each count, 3, 2, 1 and 3 rows
+        int[] texts = {0, 0, 1, 0, 2, 1, 2, 3};
+        int[] labels = {0, 0, 0, 1, 0, 0, 0, 1};
+        DuplicateCounts counts = DuplicateCounts.count(texts, labels, new Split(new int[] {0, 1, 2, 3}, new int[] {4, 5, 6, 7}),
+                "drop", 1);
+        assertThat(counts.summary()).isEqualTo("drop: 1 row dropped; 1 text repeated in training (3 rows), 1 text in test (2 rows),"
+                + " 1 text across the split (1 test row), 1 text with conflicting labels (3 rows)");
+    }
+
+    @Test
     void survives_the_round_trip_through_the_manifest() {
         DuplicateCounts counts = new DuplicateCounts("drop", 7, new DuplicateCounts.Tally(2, 5), new DuplicateCounts.Tally(0, 0),
                 new DuplicateCounts.Tally(3, 4), new DuplicateCounts.Tally(1, 2));
