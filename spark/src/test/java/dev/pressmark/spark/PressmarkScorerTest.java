@@ -84,6 +84,31 @@ class PressmarkScorerTest {
     }
 
     @Test
+    void partitions_longer_than_a_batch_with_null_texts_among_them_score_as_bundle_predict_does() {
+        int rows = 2 * PartitionScorer.BATCH_ROWS + 300;
+        try (PressmarkScorer scorer = PressmarkScorer.create(spark, BundleSource.file(subwords))) {
+            List<String> titles = new ArrayList<>(TrainedBundles.unseenTitles(rows));
+            for (int i = 0; i < titles.size(); i += 97) {
+                titles.set(i, null);
+            }
+            Dataset<Row> frame = spark.createDataset(titles, Encoders.STRING()).toDF("title").coalesce(1);
+
+            List<Row> scored = scorer.score(frame).collectAsList();
+
+            assertThat(scored).hasSize(rows);
+            List<Row> present = new ArrayList<>();
+            for (int i = 0; i < rows; i++) {
+                assertThat(scored.get(i).getString(0)).isEqualTo(titles.get(i));
+                assertThat(scored.get(i).isNullAt(1)).as("row %d", i).isEqualTo(titles.get(i) == null);
+                if (titles.get(i) != null) {
+                    present.add(scored.get(i));
+                }
+            }
+            assertScoredAsInProcess(subwords, present, PredictionColumn.DEFAULT_NAME, scorer.version());
+        }
+    }
+
+    @Test
     void a_model_without_probabilities_gives_a_null_map_and_the_same_labels_and_scores() {
         try (PressmarkScorer scorer = PressmarkScorer.create(spark, BundleSource.file(words))) {
             List<Row> rows = scorer.score(titles(TrainedBundles.unseenTitles(500), 3), "p").collectAsList();

@@ -424,6 +424,7 @@ public final class FeatureSpace {
         private final int[] counts;
         /** The features of the current row, in the order first seen. */
         private final int[] seen;
+        private final IndexSort sort;
         private int length;
         private int rowTokens;
 
@@ -431,6 +432,7 @@ public final class FeatureSpace {
             this.space = space;
             this.counts = new int[space.featureCount()];
             this.seen = new int[space.featureCount()];
+            this.sort = new IndexSort(space.featureCount());
         }
 
         /**
@@ -483,7 +485,7 @@ public final class FeatureSpace {
             requireRoom(cols, vals);
             int written = length;
             System.arraycopy(seen, 0, cols, 0, written);
-            Arrays.sort(cols, 0, written);
+            sort.sort(cols, written);
             FeatureKernels.weigh(space.config.weighting(), space.config.sublinear(), cols, written, counts, rowTokens,
                     space.idf, vals);
             switch (space.config.scaling()) {
