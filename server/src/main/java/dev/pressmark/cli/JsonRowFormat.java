@@ -1,6 +1,7 @@
 package dev.pressmark.cli;
 
 import com.fasterxml.jackson.core.io.JsonStringEncoder;
+import com.fasterxml.jackson.core.io.NumberOutput;
 import dev.pressmark.core.bundle.ScoredRows;
 import java.nio.charset.StandardCharsets;
 import java.util.List;
@@ -64,10 +65,13 @@ final class JsonRowFormat implements RowFormat {
         return " ]\n}\n".getBytes(StandardCharsets.UTF_8);
     }
 
-    /** As Jackson writes a double by default: {@link Double#toString}, non-finite values quoted. */
+    /**
+     * As the HTTP service's Jackson writes a double: the shortest digits that read back as the same
+     * value (its fast writer), non-finite values quoted.
+     */
     private static void number(StringBuilder out, double value) {
         if (Double.isFinite(value)) {
-            out.append(value);
+            out.append(NumberOutput.toString(value, true));
         } else {
             out.append('"').append(value).append('"');
         }

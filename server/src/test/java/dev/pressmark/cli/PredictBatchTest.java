@@ -3,6 +3,9 @@ package dev.pressmark.cli;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
+import com.fasterxml.jackson.core.JsonFactory;
+import com.fasterxml.jackson.core.StreamWriteFeature;
+import com.fasterxml.jackson.core.io.NumberOutput;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
@@ -60,6 +63,7 @@ class PredictBatchTest {
 
     @Test
     void csv_results_are_the_input_columns_then_label_score_and_probabilities_as_jacksons_writer_writes_them() throws IOException {
+        // numbers as Jackson's fast double writer writes them (the HTTP service's setting)
         List<List<String>> rows = rows(300, 1);
         Path data = csv("in.csv", rows);
         List<Prediction> predictions = bundle.predict(items(rows));
@@ -71,14 +75,37 @@ class PredictBatchTest {
         for (int i = 0; i < rows.size(); i++) {
             List<String> row = new ArrayList<>(rows.get(i));
             row.add(predictions.get(i).label());
-            row.add(Double.toString(predictions.get(i).score()));
-            predictions.get(i).probabilities().values().forEach(p -> row.add(Double.toString(p)));
+            row.add(NumberOutput.toString(predictions.get(i).score(), true));
+            predictions.get(i).probabilities().values().forEach(p -> row.add(NumberOutput.toString(p, true)));
             expected.add(row);
         }
         String reference = new CsvMapper().writer(schema.build().withHeader()).writeValueAsString(expected);
 
         assertThat(Files.readString(predict(BatchScorer.DEFAULT_CHUNK_ROWS, "--data", data.toString()), StandardCharsets.UTF_8))
                 .isEqualTo(reference);
+    }
+
+    @Test
+    void every_number_written_reads_back_as_exactly_the_models_double() throws IOException {
+        List<List<String>> rows = rows(500, 3);
+        Path data = csv("in.csv", rows);
+        List<Prediction> predictions = bundle.predict(items(rows));
+        List<Map<String, String>> written = new ArrayList<>();
+        try (var it = new CsvMapper().readerFor(Map.class).with(CsvSchema.emptySchema().withHeader())
+                .<Map<String, String>>readValues(predict(BatchScorer.DEFAULT_CHUNK_ROWS, "--data", data.toString()).toFile())) {
+            it.forEachRemaining(written::add);
+        }
+        assertThat(written).hasSize(rows.size());
+        for (int i = 0; i < rows.size(); i++) {
+            Prediction expected = predictions.get(i);
+            // Double.parseDouble is the JDK's correctly rounded reader: equal bits, not merely close
+            assertThat(Double.doubleToLongBits(Double.parseDouble(written.get(i).get("score"))))
+                    .isEqualTo(Double.doubleToLongBits(expected.score()));
+            for (Map.Entry<String, Double> p : expected.probabilities().entrySet()) {
+                assertThat(Double.doubleToLongBits(Double.parseDouble(written.get(i).get("p:" + p.getKey()))))
+                        .isEqualTo(Double.doubleToLongBits(p.getValue()));
+            }
+        }
     }
 
     @Test
@@ -96,7 +123,9 @@ class PredictBatchTest {
             prediction.probabilities().forEach(probabilities::put);
             result.put("unknown_tokens", prediction.unknownTokens());
         }
-        String reference = JSON.writerWithDefaultPrettyPrinter().writeValueAsString(root) + "\n";
+        // as the HTTP service writes doubles: Jackson's fast writer (PressmarkServer's JsonFactory)
+        ObjectMapper served = new ObjectMapper(JsonFactory.builder().enable(StreamWriteFeature.USE_FAST_DOUBLE_WRITER).build());
+        String reference = served.writerWithDefaultPrettyPrinter().writeValueAsString(root) + "\n";
 
         assertThat(Files.readString(predict(5, "--data", data.toString(), "--format", "json"), StandardCharsets.UTF_8)).isEqualTo(reference);
     }
