@@ -7,10 +7,8 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.dataformat.yaml.YAMLMapper;
 import dev.pressmark.core.Progress;
 import dev.pressmark.core.bundle.Bundle;
-import dev.pressmark.core.train.BundleAssembler;
-import dev.pressmark.core.train.LabelledData;
-import dev.pressmark.core.train.TrainConfig;
-import dev.pressmark.core.train.TrainingRun;
+import dev.pressmark.core.train.BundleTrainer;
+import dev.pressmark.core.train.TrainPlan;
 import dev.pressmark.openapi.Descriptors;
 import dev.pressmark.openapi.ModelDescriptor;
 import dev.pressmark.openapi.ModelExample;
@@ -70,9 +68,7 @@ class ApiDocsTest {
         Files.writeString(yaml, "name: routing\ndata: {file: listings.csv, text: [title], label: department}\n"
                 + "tokenizer: {vocab_size: 80}\nfeatures: {max_tokens: 100}\nclassifier: {kind: logistic-regression}\n"
                 + "evaluation: {folds: 2, threads: 1}\n");
-        TrainConfig config = TrainConfig.read(yaml);
-        LabelledData data = LabelledData.read(Path.of(config.data().file()), config.data().text(), config.data().label(), false);
-        return BundleAssembler.assemble(config, data, new TrainingRun(config, data).run(Progress.NONE), Instant.parse("2026-01-01T00:00:00Z"));
+        return BundleTrainer.train(TrainPlan.read(yaml), Instant.parse("2026-01-01T00:00:00Z"), Progress.NONE).bytes();
     }
 
     private static OpenAPI parsedCleanly(String text) {

@@ -1,10 +1,9 @@
 package dev.pressmark.spark;
 
 import dev.pressmark.core.Progress;
-import dev.pressmark.core.train.BundleAssembler;
+import dev.pressmark.core.train.BundleTrainer;
 import dev.pressmark.core.train.LabelledData;
-import dev.pressmark.core.train.TrainConfig;
-import dev.pressmark.core.train.TrainingRun;
+import dev.pressmark.core.train.TrainPlan;
 import dev.pressmark.demo.ListingTitles;
 import java.io.IOException;
 import java.io.UncheckedIOException;
@@ -68,10 +67,9 @@ final class TrainedBundles {
                     ListingTitles.writeCsv(ListingTitles.generate(ROWS, SEED), out);
                 }
             }
-            TrainConfig config = TrainConfig.parse(String.format(Locale.ROOT, CONFIG, SEED, tokenizer, probabilities), "test config");
-            LabelledData rows = LabelledData.read(data, config.data().text(), config.data().label(), false);
-            TrainingRun.Result result = new TrainingRun(config, rows).run(Progress.NONE);
-            return BundleAssembler.assemble(config, rows, result, CREATED);
+            TrainPlan plan = TrainPlan.parse(String.format(Locale.ROOT, CONFIG, SEED, tokenizer, probabilities), "test config");
+            LabelledData rows = LabelledData.read(data, plan.config().data().text(), plan.config().data().label(), false);
+            return BundleTrainer.train(plan, rows, CREATED, Progress.NONE).bytes();
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
