@@ -1,14 +1,16 @@
 package dev.pressmark.cli;
 
+import com.fasterxml.jackson.core.JsonEncoding;
+import com.fasterxml.jackson.core.JsonGenerator;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.core.io.NumberOutput;
+import com.fasterxml.jackson.core.util.ByteArrayBuilder;
 import com.fasterxml.jackson.databind.ObjectWriter;
 import com.fasterxml.jackson.dataformat.csv.CsvMapper;
 import com.fasterxml.jackson.dataformat.csv.CsvSchema;
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.bundle.ScoredRows;
-import java.util.ArrayList;
-import java.util.Arrays;
+import java.io.IOException;
 import java.util.List;
 
 /**
@@ -27,7 +29,6 @@ final class CsvRowFormat implements RowFormat {
     private final boolean probabilities;
     private final ObjectWriter headed;
     private final ObjectWriter plain;
-    private final int columns;
 
     CsvRowFormat(List<String> inputColumns, List<String> labels, boolean probabilities) {
         this.labels = List.copyOf(labels);
@@ -39,7 +40,6 @@ final class CsvRowFormat implements RowFormat {
             labels.forEach(label -> schema.addColumn("p:" + label));
         }
         CsvSchema built = schema.build();
-        this.columns = built.size();
         this.headed = CSV.writer(built.withHeader());
         this.plain = CSV.writer(built.withoutHeader());
     }
@@ -52,19 +52,33 @@ final class CsvRowFormat implements RowFormat {
 
     @Override
     public byte[] rows(RowChunk chunk, ScoredRows scored) {
-        List<List<String>> rows = new ArrayList<>(chunk.size());
-        for (int i = 0; i < chunk.size(); i++) {
-            String[] input = chunk.rows().get(i);
-            String[] row = Arrays.copyOf(input, columns);
-            int at = input.length;
-            row[at++] = labels.get(scored.label(i));
-            row[at++] = NumberOutput.toString(scored.score(i), true);
-            for (int k = 0; probabilities && k < labels.size(); k++) {
-                row[at++] = NumberOutput.toString(scored.probability(i, k), true);
+        // Straight to a generator made as writeValueAsBytes makes its own, with the same calls its
+        // list serialisers make (an outer array of row arrays, each value a string): the same
+        // bytes, without a list and an array copied per row.
+        ByteArrayBuilder bytes = new ByteArrayBuilder(chunk.size() * 64);
+        try (JsonGenerator out = plain.createGenerator(bytes, JsonEncoding.UTF8)) {
+            out.writeStartArray();
+            for (int i = 0; i < chunk.size(); i++) {
+                writeRow(out, chunk.rows().get(i), scored, i);
             }
-            rows.add(Arrays.asList(row));
+            out.writeEndArray();
+        } catch (IOException e) {
+            throw new PressmarkException("output-failed", "cannot write CSV: " + e.getMessage(), e);
         }
-        return write(plain, rows);
+        return bytes.toByteArray();
+    }
+
+    private void writeRow(JsonGenerator out, String[] input, ScoredRows scored, int row) throws IOException {
+        out.writeStartArray();
+        for (String value : input) {
+            out.writeString(value);
+        }
+        out.writeString(labels.get(scored.label(row)));
+        out.writeString(NumberOutput.toString(scored.score(row), true));
+        for (int k = 0; probabilities && k < labels.size(); k++) {
+            out.writeString(NumberOutput.toString(scored.probability(row, k), true));
+        }
+        out.writeEndArray();
     }
 
     @Override
