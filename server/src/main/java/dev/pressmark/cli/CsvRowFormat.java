@@ -7,8 +7,6 @@ import com.fasterxml.jackson.dataformat.csv.CsvMapper;
 import com.fasterxml.jackson.dataformat.csv.CsvSchema;
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.bundle.ScoredRows;
-import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.List;
 
 /**
@@ -16,18 +14,18 @@ import java.util.List;
  * probabilities, {@code p:<label>} per label. Numbers are written as the HTTP service writes them:
  * the shortest digits that read back as the same double (Jackson's fast writer, Giulietti's
  * Schubfach), in {@link Double#toString(double)}'s layout. JDK 17's own {@code Double.toString}
- * took some 40 % of the CPU of a batch and sometimes writes a digit more than needed. Quoting is
- * Jackson's CSV writer's.
+ * took some 40 % of the CPU of a batch and sometimes writes a digit more than needed. The header
+ * is Jackson's CSV writer's; the rows are {@link CsvBytes}', which quotes as that writer does.
  */
 final class CsvRowFormat implements RowFormat {
 
     private static final CsvMapper CSV = new CsvMapper();
+    /** A first guess at a row's bytes, for the buffer of a chunk; it grows if short. */
+    private static final int ROW_BYTES_GUESS = 160;
 
     private final List<String> labels;
     private final boolean probabilities;
     private final ObjectWriter headed;
-    private final ObjectWriter plain;
-    private final int columns;
 
     CsvRowFormat(List<String> inputColumns, List<String> labels, boolean probabilities) {
         this.labels = List.copyOf(labels);
@@ -39,9 +37,7 @@ final class CsvRowFormat implements RowFormat {
             labels.forEach(label -> schema.addColumn("p:" + label));
         }
         CsvSchema built = schema.build();
-        this.columns = built.size();
         this.headed = CSV.writer(built.withHeader());
-        this.plain = CSV.writer(built.withoutHeader());
     }
 
     @Override
@@ -52,19 +48,19 @@ final class CsvRowFormat implements RowFormat {
 
     @Override
     public byte[] rows(RowChunk chunk, ScoredRows scored) {
-        List<List<String>> rows = new ArrayList<>(chunk.size());
+        CsvBytes out = new CsvBytes(chunk.size() * ROW_BYTES_GUESS);
         for (int i = 0; i < chunk.size(); i++) {
-            String[] input = chunk.rows().get(i);
-            String[] row = Arrays.copyOf(input, columns);
-            int at = input.length;
-            row[at++] = labels.get(scored.label(i));
-            row[at++] = NumberOutput.toString(scored.score(i), true);
-            for (int k = 0; probabilities && k < labels.size(); k++) {
-                row[at++] = NumberOutput.toString(scored.probability(i, k), true);
+            for (String value : chunk.rows().get(i)) {
+                out.value(value);
             }
-            rows.add(Arrays.asList(row));
+            out.value(labels.get(scored.label(i)));
+            out.value(NumberOutput.toString(scored.score(i), true));
+            for (int k = 0; probabilities && k < labels.size(); k++) {
+                out.value(NumberOutput.toString(scored.probability(i, k), true));
+            }
+            out.endRow();
         }
-        return write(plain, rows);
+        return out.toByteArray();
     }
 
     @Override

@@ -1,0 +1,122 @@
+package dev.pressmark.cli;
+
+import java.util.Arrays;
+
+/**
+ * CSV rows as UTF-8 bytes, quoted exactly as Jackson's CSV writer quotes with its default settings
+ * (jackson-dataformat-csv 2.x, {@code CsvEncoder}: comma, double quote, line feed, no escape
+ * character), so that {@code predict} writes the same bytes as it did through Jackson, without a
+ * char buffer and a writer between the values and the bytes. {@code CsvBytesTest} checks the bytes
+ * against Jackson's own writer.
+ *
+ * <p>Jackson's rule: a value longer than {@value #MAX_QUOTE_CHECK_CHARS} chars is quoted; a shorter
+ * one is quoted when it holds a char below {@code '-'} (the separator, the quote, the line break,
+ * space, control characters) or a backslash. A quoted value doubles its quotes.
+ */
+final class CsvBytes {
+
+    /** Jackson's {@code CsvEncoder}: values longer than this are quoted without looking at them. */
+    static final int MAX_QUOTE_CHECK_CHARS = 24;
+    /** Jackson's {@code CsvEncoder}: one above the highest of separator, quote and line break. */
+    private static final char MIN_SAFE_CHAR = ',' + 1;
+
+    private byte[] bytes;
+    private int size;
+    private boolean rowStarted;
+
+    CsvBytes(int initialBytes) {
+        this.bytes = new byte[Math.max(16, initialBytes)];
+    }
+
+    /** Appends {@code value} as the next field of the current row. */
+    void value(String value) {
+        if (rowStarted) {
+            ensure(1);
+            bytes[size++] = ',';
+        }
+        rowStarted = true;
+        if (needsQuotes(value)) {
+            quoted(value);
+        } else {
+            utf8(value);
+        }
+    }
+
+    /** Ends the current row with a line feed. */
+    void endRow() {
+        ensure(1);
+        bytes[size++] = '\n';
+        rowStarted = false;
+    }
+
+    byte[] toByteArray() {
+        return Arrays.copyOf(bytes, size);
+    }
+
+    static boolean needsQuotes(String value) {
+        int length = value.length();
+        if (length > MAX_QUOTE_CHECK_CHARS) {
+            return true;
+        }
+        for (int i = 0; i < length; i++) {
+            char c = value.charAt(i);
+            if (c < MIN_SAFE_CHAR || c == '\\') {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    private void quoted(String value) {
+        ensure(1);
+        bytes[size++] = '"';
+        int from = 0;
+        int quote;
+        while ((quote = value.indexOf('"', from)) >= 0) {
+            utf8(value, from, quote + 1);
+            ensure(1);
+            bytes[size++] = '"';
+            from = quote + 1;
+        }
+        utf8(value, from, value.length());
+        ensure(1);
+        bytes[size++] = '"';
+    }
+
+    private void utf8(String value) {
+        utf8(value, 0, value.length());
+    }
+
+    /** UTF-8 of chars {@code from} to {@code to}; a surrogate pair is one four-byte character. */
+    private void utf8(String value, int from, int to) {
+        ensure(3 * (to - from));
+        byte[] out = bytes;
+        int at = size;
+        for (int i = from; i < to; i++) {
+            char c = value.charAt(i);
+            if (c < 0x80) {
+                out[at++] = (byte) c;
+            } else if (c < 0x800) {
+                out[at++] = (byte) (0xC0 | (c >> 6));
+                out[at++] = (byte) (0x80 | (c & 0x3F));
+            } else if (Character.isHighSurrogate(c) && i + 1 < to && Character.isLowSurrogate(value.charAt(i + 1))) {
+                int code = Character.toCodePoint(c, value.charAt(++i));
+                out[at++] = (byte) (0xF0 | (code >> 18));
+                out[at++] = (byte) (0x80 | ((code >> 12) & 0x3F));
+                out[at++] = (byte) (0x80 | ((code >> 6) & 0x3F));
+                out[at++] = (byte) (0x80 | (code & 0x3F));
+            } else {
+                out[at++] = (byte) (0xE0 | (c >> 12));
+                out[at++] = (byte) (0x80 | ((c >> 6) & 0x3F));
+                out[at++] = (byte) (0x80 | (c & 0x3F));
+            }
+        }
+        size = at;
+    }
+
+    private void ensure(int more) {
+        if (bytes.length - size < more) {
+            bytes = Arrays.copyOf(bytes, Math.max(bytes.length * 2, size + more));
+        }
+    }
+}
