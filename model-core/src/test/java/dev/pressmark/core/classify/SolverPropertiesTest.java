@@ -3,7 +3,6 @@ package dev.pressmark.core.classify;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
-import dev.pressmark.core.feature.SparseMatrix;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
@@ -34,12 +33,12 @@ class SolverPropertiesTest {
     @Property(tries = 100)
     void hinge_duals_stay_in_their_box_and_define_the_weights(@ForAll long seed,
             @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
-        Random problem = Random.problem(seed);
+        RandomProblem problem = RandomProblem.draw(seed, 2);
         double[] cost = problem.costs(c);
-        double[] w = new double[problem.x.columns() + 1];
-        double[] alpha = new double[problem.x.rows()];
+        double[] w = new double[problem.x().columns() + 1];
+        double[] alpha = new double[problem.x().rows()];
 
-        SvmSolver.solve(problem.x, problem.positive, cost, SvmConfig.defaults().withLoss(SvmLoss.HINGE),
+        SvmSolver.solve(problem.x(), problem.positive(), cost, SvmConfig.defaults().withLoss(SvmLoss.HINGE),
                 new SplittableRandom(seed), w, alpha);
 
         for (int i = 0; i < alpha.length; i++) {
@@ -51,11 +50,11 @@ class SolverPropertiesTest {
     @Property(tries = 100)
     void squared_hinge_duals_stay_non_negative_and_define_the_weights(@ForAll long seed,
             @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
-        Random problem = Random.problem(seed);
-        double[] w = new double[problem.x.columns() + 1];
-        double[] alpha = new double[problem.x.rows()];
+        RandomProblem problem = RandomProblem.draw(seed, 2);
+        double[] w = new double[problem.x().columns() + 1];
+        double[] alpha = new double[problem.x().rows()];
 
-        SvmSolver.solve(problem.x, problem.positive, problem.costs(c), SvmConfig.defaults(), new SplittableRandom(seed),
+        SvmSolver.solve(problem.x(), problem.positive(), problem.costs(c), SvmConfig.defaults(), new SplittableRandom(seed),
                 w, alpha);
 
         for (double a : alpha) {
@@ -67,12 +66,12 @@ class SolverPropertiesTest {
     @Property(tries = 100)
     void logistic_duals_stay_strictly_inside_their_box_and_define_the_weights(@ForAll long seed,
             @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
-        Random problem = Random.problem(seed);
+        RandomProblem problem = RandomProblem.draw(seed, 2);
         double[] cost = problem.costs(c);
-        double[] w = new double[problem.x.columns() + 1];
-        double[] alpha = new double[problem.x.rows()];
+        double[] w = new double[problem.x().columns() + 1];
+        double[] alpha = new double[problem.x().rows()];
 
-        LogisticSolver.solve(problem.x, problem.positive, cost, LogisticConfig.defaults(), new SplittableRandom(seed),
+        LogisticSolver.solve(problem.x(), problem.positive(), cost, LogisticConfig.defaults(), new SplittableRandom(seed),
                 w, alpha);
 
         for (int i = 0; i < alpha.length; i++) {
@@ -90,18 +89,18 @@ class SolverPropertiesTest {
     @Property(tries = 100)
     void the_trained_weights_are_no_worse_than_the_zero_vector(@ForAll long seed,
             @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
-        Random problem = Random.problem(seed);
+        RandomProblem problem = RandomProblem.draw(seed, 2);
         double[] cost = problem.costs(c);
-        double[] zero = new double[problem.x.columns() + 1];
+        double[] zero = new double[problem.x().columns() + 1];
         for (SvmLoss loss : SvmLoss.values()) {
             double[] w = Solved.svm(problem, cost, loss, seed).w;
-            double atZero = SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, loss, zero);
-            assertThat(SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, loss, w))
+            double atZero = SvmSolver.primalObjective(problem.x(), problem.positive(), cost, 1.0, loss, zero);
+            assertThat(SvmSolver.primalObjective(problem.x(), problem.positive(), cost, 1.0, loss, w))
                     .isLessThanOrEqualTo(atZero * (1.0 + GAP));
         }
         double[] w = Solved.logistic(problem, cost, seed).w;
-        double atZero = LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, zero);
-        assertThat(LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, w))
+        double atZero = LogisticSolver.primalObjective(problem.x(), problem.positive(), cost, 1.0, zero);
+        assertThat(LogisticSolver.primalObjective(problem.x(), problem.positive(), cost, 1.0, w))
                 .isLessThanOrEqualTo(atZero * (1.0 + GAP));
     }
 
@@ -115,11 +114,11 @@ class SolverPropertiesTest {
     @Property(tries = 100)
     void a_converged_run_closes_the_duality_gap(@ForAll long seed,
             @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
-        Random problem = Random.problem(seed);
+        RandomProblem problem = RandomProblem.draw(seed, 2);
         double[] cost = problem.costs(c);
         for (SvmLoss loss : SvmLoss.values()) {
             Solved solved = Solved.svm(problem, cost, loss, seed);
-            double primal = SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, loss, solved.w);
+            double primal = SvmSolver.primalObjective(problem.x(), problem.positive(), cost, 1.0, loss, solved.w);
             double gap = primal + dualObjective(loss, cost, solved.alpha, solved.w);
             double bound = 2.0 * TIGHT * Arrays.stream(cost).sum() + ROUNDING * (1.0 + primal);
             assertThat(gap).as("%s duality gap", loss).isBetween(-ROUNDING * (1.0 + primal), bound);
@@ -138,11 +137,11 @@ class SolverPropertiesTest {
     @Property(tries = 100)
     void a_converged_logistic_run_closes_the_duality_gap(@ForAll long seed,
             @ForAll @DoubleRange(min = 0.01, max = 10.0) double c) {
-        Random problem = Random.problem(seed);
+        RandomProblem problem = RandomProblem.draw(seed, 2);
         double[] cost = problem.costs(c);
         Solved solved = Solved.logistic(problem, cost, seed);
         double[] alpha = solved.alpha;
-        double primal = LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, solved.w);
+        double primal = LogisticSolver.primalObjective(problem.x(), problem.positive(), cost, 1.0, solved.w);
         double dual = 0.5 * Rows.squaredNorm(solved.w);
         for (int i = 0; i < alpha.length; i++) {
             double rest = cost[i] - alpha[i];
@@ -154,7 +153,7 @@ class SolverPropertiesTest {
 
     @Property(tries = 50)
     void one_versus_rest_over_two_classes_agrees_with_the_binary_model(@ForAll long seed) {
-        Random problem = Random.problem(seed);
+        RandomProblem problem = RandomProblem.draw(seed, 2);
         int[] labels = problem.labels();
         double[] cost = problem.costs(1.0);
         SvmConfig config = SvmConfig.defaults().withTolerance(1e-6).withMaxIterations(PLENTY);
@@ -163,10 +162,10 @@ class SolverPropertiesTest {
                 LogisticConfig.defaults().withTolerance(1e-6).withMaxIterations(PLENTY));
         List<SolverRun> runs = new ArrayList<>();
 
-        double[] binarySvm = svm.solve(problem.x, labels, new int[] {1}, cost, seed, runs)[0];
-        double[][] bothSvm = svm.solve(problem.x, labels, new int[] {0, 1}, cost, seed, runs);
-        double[] binaryLogistic = logistic.solve(problem.x, labels, new int[] {1}, cost, seed, runs)[0];
-        double[][] bothLogistic = logistic.solve(problem.x, labels, new int[] {0, 1}, cost, seed, runs);
+        double[] binarySvm = svm.solve(problem.x(), labels, new int[] {1}, cost, seed, runs)[0];
+        double[][] bothSvm = svm.solve(problem.x(), labels, new int[] {0, 1}, cost, seed, runs);
+        double[] binaryLogistic = logistic.solve(problem.x(), labels, new int[] {1}, cost, seed, runs)[0];
+        double[][] bothLogistic = logistic.solve(problem.x(), labels, new int[] {0, 1}, cost, seed, runs);
 
         // "0 against 1" draws the binary problem's random stream and is its mirror image: the
         // dual updates are symmetric under y → −y, w → −w, and IEEE negation is exact.
@@ -174,12 +173,12 @@ class SolverPropertiesTest {
         assertThat(bothLogistic[0]).containsExactly(negate(binaryLogistic));
         // "1 against 0" is the binary problem itself, solved in another random order: the same
         // optimum, up to the tolerance.
-        boolean[] positive = problem.positive;
-        double svmOptimum = SvmSolver.primalObjective(problem.x, positive, cost, 1.0, config.loss(), binarySvm);
-        assertThat(SvmSolver.primalObjective(problem.x, positive, cost, 1.0, config.loss(), bothSvm[1]))
+        boolean[] positive = problem.positive();
+        double svmOptimum = SvmSolver.primalObjective(problem.x(), positive, cost, 1.0, config.loss(), binarySvm);
+        assertThat(SvmSolver.primalObjective(problem.x(), positive, cost, 1.0, config.loss(), bothSvm[1]))
                 .isCloseTo(svmOptimum, within(1e-6 * svmOptimum));
-        double logisticOptimum = LogisticSolver.primalObjective(problem.x, positive, cost, 1.0, binaryLogistic);
-        assertThat(LogisticSolver.primalObjective(problem.x, positive, cost, 1.0, bothLogistic[1]))
+        double logisticOptimum = LogisticSolver.primalObjective(problem.x(), positive, cost, 1.0, binaryLogistic);
+        assertThat(LogisticSolver.primalObjective(problem.x(), positive, cost, 1.0, bothLogistic[1]))
                 .isCloseTo(logisticOptimum, within(1e-6 * logisticOptimum));
     }
 
@@ -187,20 +186,20 @@ class SolverPropertiesTest {
     void scaling_every_class_weight_by_a_power_of_two_equals_scaling_c(@ForAll long seed,
             @ForAll @IntRange(min = -4, max = 4) int exponent, @ForAll @DoubleRange(min = 0.1, max = 4.0) double w0,
             @ForAll @DoubleRange(min = 0.1, max = 4.0) double w1) {
-        Random problem = Random.problem(seed);
+        RandomProblem problem = RandomProblem.draw(seed, 2);
         double k = Math.scalb(1.0, exponent);
         int[] labels = problem.labels();
 
         // A power of two makes c · (k · w) and (k · c) · w the same double, so both solves take
         // identical steps and must return identical weights.
         SvmModel weighted = new SvmTrainer(SvmConfig.defaults(), ClassWeights.of(Map.of(0, k * w0, 1, k * w1)))
-                .train(problem.x, labels, 2, seed);
+                .train(problem.x(), labels, 2, seed);
         SvmModel scaledC = new SvmTrainer(SvmConfig.defaults().withC(k), ClassWeights.of(Map.of(0, w0, 1, w1)))
-                .train(problem.x, labels, 2, seed);
+                .train(problem.x(), labels, 2, seed);
         LogisticModel weightedLogistic = new LogisticTrainer(LogisticConfig.defaults(),
-                ClassWeights.of(Map.of(0, k * w0, 1, k * w1))).train(problem.x, labels, 2, seed);
+                ClassWeights.of(Map.of(0, k * w0, 1, k * w1))).train(problem.x(), labels, 2, seed);
         LogisticModel scaledCLogistic = new LogisticTrainer(LogisticConfig.defaults().withC(k),
-                ClassWeights.of(Map.of(0, w0, 1, w1))).train(problem.x, labels, 2, seed);
+                ClassWeights.of(Map.of(0, w0, 1, w1))).train(problem.x(), labels, 2, seed);
 
         assertThat(weighted.weights().vector(0)).containsExactly(scaledC.weights().vector(0));
         assertThat(weightedLogistic.weights().vector(0)).containsExactly(scaledCLogistic.weights().vector(0));
@@ -209,26 +208,26 @@ class SolverPropertiesTest {
     @Property(tries = 30)
     void scaling_every_class_weight_by_any_factor_reaches_the_optimum_of_scaling_c(@ForAll long seed,
             @ForAll @DoubleRange(min = 0.2, max = 5.0) double k) {
-        Random problem = Random.problem(seed);
+        RandomProblem problem = RandomProblem.draw(seed, 2);
         int[] labels = problem.labels();
         SvmConfig config = SvmConfig.defaults().withTolerance(1e-8).withMaxIterations(PLENTY);
 
-        SvmModel weighted = new SvmTrainer(config, ClassWeights.of(Map.of(0, k, 1, k))).train(problem.x, labels, 2, seed);
-        SvmModel scaledC = new SvmTrainer(config.withC(k)).train(problem.x, labels, 2, seed);
+        SvmModel weighted = new SvmTrainer(config, ClassWeights.of(Map.of(0, k, 1, k))).train(problem.x(), labels, 2, seed);
+        SvmModel scaledC = new SvmTrainer(config.withC(k)).train(problem.x(), labels, 2, seed);
 
         // Same objective up to the last bits of each cost, so the same optimum within the tolerance.
         double[] cost = problem.costs(k);
-        double a = SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, config.loss(), weighted.weights().vector(0));
-        double b = SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, config.loss(), scaledC.weights().vector(0));
+        double a = SvmSolver.primalObjective(problem.x(), problem.positive(), cost, 1.0, config.loss(), weighted.weights().vector(0));
+        double b = SvmSolver.primalObjective(problem.x(), problem.positive(), cost, 1.0, config.loss(), scaledC.weights().vector(0));
         assertThat(a).isCloseTo(b, within(1e-8 * b));
     }
 
-    private static void assertWeightsAreTheDualCombination(Random problem, double[] alpha, double[] w, double bias) {
+    private static void assertWeightsAreTheDualCombination(RandomProblem problem, double[] alpha, double[] w, double bias) {
         double[] expected = new double[w.length];
         for (int i = 0; i < alpha.length; i++) {
-            double scale = problem.positive[i] ? alpha[i] : -alpha[i];
-            problem.x.addScaledRow(i, scale, expected);
-            expected[problem.x.columns()] += scale * bias;
+            double scale = problem.positive()[i] ? alpha[i] : -alpha[i];
+            problem.x().addScaledRow(i, scale, expected);
+            expected[problem.x().columns()] += scale * bias;
         }
         for (int j = 0; j < w.length; j++) {
             assertThat(w[j]).isCloseTo(expected[j], within(ROUNDING * (1.0 + Math.abs(expected[j]))));
@@ -256,68 +255,26 @@ class SolverPropertiesTest {
     /** The weights and duals of a solve at {@link #TIGHT} within {@link #PLENTY} passes, which must converge. */
     private record Solved(double[] w, double[] alpha) {
 
-        static Solved svm(Random problem, double[] cost, SvmLoss loss, long seed) {
+        static Solved svm(RandomProblem problem, double[] cost, SvmLoss loss, long seed) {
             Solved solved = empty(problem);
-            SolverRun run = SvmSolver.solve(problem.x, problem.positive, cost,
+            SolverRun run = SvmSolver.solve(problem.x(), problem.positive(), cost,
                     SvmConfig.defaults().withLoss(loss).withTolerance(TIGHT).withMaxIterations(PLENTY),
                     new SplittableRandom(seed), solved.w, solved.alpha);
             assertThat(run.converged()).as("%s converged", loss).isTrue();
             return solved;
         }
 
-        static Solved logistic(Random problem, double[] cost, long seed) {
+        static Solved logistic(RandomProblem problem, double[] cost, long seed) {
             Solved solved = empty(problem);
-            SolverRun run = LogisticSolver.solve(problem.x, problem.positive, cost,
+            SolverRun run = LogisticSolver.solve(problem.x(), problem.positive(), cost,
                     LogisticConfig.defaults().withTolerance(TIGHT).withMaxIterations(PLENTY),
                     new SplittableRandom(seed), solved.w, solved.alpha);
             assertThat(run.converged()).as("logistic converged").isTrue();
             return solved;
         }
 
-        private static Solved empty(Random problem) {
-            return new Solved(new double[problem.x.columns() + 1], new double[problem.x.rows()]);
-        }
-    }
-
-    /** A small random sparse binary problem: 2 to 40 rows, 1 to 15 columns, values in [-2, 2]. */
-    private record Random(SparseMatrix x, boolean[] positive) {
-
-        static Random problem(long seed) {
-            SplittableRandom random = new SplittableRandom(seed);
-            int rows = 2 + random.nextInt(39);
-            int columns = 1 + random.nextInt(15);
-            SparseMatrix.Builder builder = SparseMatrix.builder(columns);
-            boolean[] positive = new boolean[rows];
-            for (int i = 0; i < rows; i++) {
-                int[] cols = new int[columns];
-                double[] vals = new double[columns];
-                int n = 0;
-                for (int j = 0; j < columns; j++) {
-                    if (random.nextInt(3) == 0) {
-                        cols[n] = j;
-                        vals[n++] = random.nextDouble(-2.0, 2.0);
-                    }
-                }
-                builder.addRow(Arrays.copyOf(cols, n), Arrays.copyOf(vals, n));
-                positive[i] = random.nextBoolean();
-            }
-            positive[0] = true;
-            positive[1] = false;
-            return new Random(builder.build(), positive);
-        }
-
-        int[] labels() {
-            int[] labels = new int[positive.length];
-            for (int i = 0; i < labels.length; i++) {
-                labels[i] = positive[i] ? 1 : 0;
-            }
-            return labels;
-        }
-
-        double[] costs(double c) {
-            double[] cost = new double[positive.length];
-            Arrays.fill(cost, c);
-            return cost;
+        private static Solved empty(RandomProblem problem) {
+            return new Solved(new double[problem.x().columns() + 1], new double[problem.x().rows()]);
         }
     }
 }

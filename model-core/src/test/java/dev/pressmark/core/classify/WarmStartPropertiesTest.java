@@ -2,7 +2,6 @@ package dev.pressmark.core.classify;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import dev.pressmark.core.feature.SparseMatrix;
 import java.util.Arrays;
 import java.util.SplittableRandom;
 import net.jqwik.api.ForAll;
@@ -32,22 +31,22 @@ class WarmStartPropertiesTest {
             @ForAll @DoubleRange(min = 1.2, max = 5.0) double factor,
             @ForAll @DoubleRange(min = 0.2, max = 5.0) double scaleError) {
         // any positive start scale, not only the ratio of the Cs, must reach the optimum (clipped into the box)
-        Problem problem = Problem.draw(seed);
+        RandomProblem problem = RandomProblem.draw(seed, 3);
         for (SvmLoss loss : SvmLoss.values()) {
             SvmConfig config = SvmConfig.defaults().withLoss(loss).withTolerance(TOLERANCE).withMaxIterations(PLENTY);
-            double[] alpha = new double[problem.x.rows()];
+            double[] alpha = new double[problem.x().rows()];
             double c = firstC;
             for (int step = 0; step < steps; step++, c *= factor) {
                 double[] cost = problem.costs(c);
-                double[] warm = new double[problem.x.columns() + 1];
-                SolverRun warmRun = SvmSolver.solve(problem.x, problem.positive, cost, config, new SplittableRandom(seed),
+                double[] warm = new double[problem.x().columns() + 1];
+                SolverRun warmRun = SvmSolver.solve(problem.x(), problem.positive(), cost, config, new SplittableRandom(seed),
                         warm, alpha, step > 0 ? factor * scaleError : 0.0);
-                double[] cold = new double[problem.x.columns() + 1];
-                SolverRun coldRun = SvmSolver.solve(problem.x, problem.positive, cost, config, new SplittableRandom(seed),
-                        cold, new double[problem.x.rows()]);
+                double[] cold = new double[problem.x().columns() + 1];
+                SolverRun coldRun = SvmSolver.solve(problem.x(), problem.positive(), cost, config, new SplittableRandom(seed),
+                        cold, new double[problem.x().rows()]);
                 assertThat(warmRun.converged() && coldRun.converged()).isTrue();
-                double warmValue = SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, loss, warm);
-                double coldValue = SvmSolver.primalObjective(problem.x, problem.positive, cost, 1.0, loss, cold);
+                double warmValue = SvmSolver.primalObjective(problem.x(), problem.positive(), cost, 1.0, loss, warm);
+                double coldValue = SvmSolver.primalObjective(problem.x(), problem.positive(), cost, 1.0, loss, cold);
                 double bound = 2.0 * TOLERANCE * Arrays.stream(cost).sum() + ROUNDING * (1.0 + coldValue);
                 assertThat(Math.abs(warmValue - coldValue)).as("%s at c = %s", loss, c).isLessThanOrEqualTo(bound);
             }
@@ -59,23 +58,23 @@ class WarmStartPropertiesTest {
             @ForAll @DoubleRange(min = 0.01, max = 2.0) double firstC, @ForAll @IntRange(min = 2, max = 5) int steps,
             @ForAll @DoubleRange(min = 1.2, max = 5.0) double factor,
             @ForAll @DoubleRange(min = 0.2, max = 5.0) double scaleError) {
-        Problem problem = Problem.draw(seed);
+        RandomProblem problem = RandomProblem.draw(seed, 3);
         LogisticConfig config = LogisticConfig.defaults().withTolerance(TOLERANCE).withMaxIterations(PLENTY);
-        double[] alpha = new double[problem.x.rows()];
+        double[] alpha = new double[problem.x().rows()];
         double c = firstC;
         for (int step = 0; step < steps; step++, c *= factor) {
             double[] cost = problem.costs(c);
-            double[] warm = new double[problem.x.columns() + 1];
-            LogisticSolver.solve(problem.x, problem.positive, cost, config, new SplittableRandom(seed), warm, alpha,
+            double[] warm = new double[problem.x().columns() + 1];
+            LogisticSolver.solve(problem.x(), problem.positive(), cost, config, new SplittableRandom(seed), warm, alpha,
                     step > 0 ? factor * scaleError : 0.0);
             for (int i = 0; i < alpha.length; i++) {
                 assertThat(alpha[i]).isGreaterThan(0.0).isLessThan(cost[i]);
             }
-            double[] cold = new double[problem.x.columns() + 1];
-            LogisticSolver.solve(problem.x, problem.positive, cost, config, new SplittableRandom(seed), cold,
-                    new double[problem.x.rows()]);
-            double warmValue = LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, warm);
-            double coldValue = LogisticSolver.primalObjective(problem.x, problem.positive, cost, 1.0, cold);
+            double[] cold = new double[problem.x().columns() + 1];
+            LogisticSolver.solve(problem.x(), problem.positive(), cost, config, new SplittableRandom(seed), cold,
+                    new double[problem.x().rows()]);
+            double warmValue = LogisticSolver.primalObjective(problem.x(), problem.positive(), cost, 1.0, warm);
+            double coldValue = LogisticSolver.primalObjective(problem.x(), problem.positive(), cost, 1.0, cold);
             double bound = TOLERANCE * Arrays.stream(cost).sum() + ROUNDING * (1.0 + coldValue);
             assertThat(Math.abs(warmValue - coldValue)).as("c = %s", c).isLessThanOrEqualTo(bound);
         }
@@ -83,74 +82,30 @@ class WarmStartPropertiesTest {
 
     @Property(tries = 30)
     void the_trainers_warm_start_every_one_versus_rest_problem(@ForAll long seed) {
-        Problem problem = Problem.draw(seed);
+        RandomProblem problem = RandomProblem.draw(seed, 3);
         int[] labels = problem.threeClasses(seed);
         WarmStart svmPath = new WarmStart();
         WarmStart logisticPath = new WarmStart();
         for (double c : new double[] {0.1, 0.5, 2.0}) {
             SvmConfig svm = SvmConfig.defaults().withC(c).withTolerance(TOLERANCE).withMaxIterations(PLENTY);
-            SvmModel warm = new SvmTrainer(svm).train(problem.x, labels, 3, seed, svmPath);
-            SvmModel cold = new SvmTrainer(svm).train(problem.x, labels, 3, seed);
+            SvmModel warm = new SvmTrainer(svm).train(problem.x(), labels, 3, seed, svmPath);
+            SvmModel cold = new SvmTrainer(svm).train(problem.x(), labels, 3, seed);
             LogisticConfig logistic = LogisticConfig.defaults().withC(c).withTolerance(TOLERANCE).withMaxIterations(PLENTY);
-            LogisticModel warmLogistic = new LogisticTrainer(logistic).train(problem.x, labels, 3, seed, logisticPath);
-            LogisticModel coldLogistic = new LogisticTrainer(logistic).train(problem.x, labels, 3, seed);
+            LogisticModel warmLogistic = new LogisticTrainer(logistic).train(problem.x(), labels, 3, seed, logisticPath);
+            LogisticModel coldLogistic = new LogisticTrainer(logistic).train(problem.x(), labels, 3, seed);
             for (int k = 0; k < 3; k++) {
                 boolean[] positive = Objectives.positives(labels, k);
                 double[] cost = problem.costs(c);
                 double sum = Arrays.stream(cost).sum();
-                double coldValue = SvmSolver.primalObjective(problem.x, positive, cost, 1.0, svm.loss(), cold.weights().vector(k));
-                assertThat(Math.abs(SvmSolver.primalObjective(problem.x, positive, cost, 1.0, svm.loss(), warm.weights().vector(k))
+                double coldValue = SvmSolver.primalObjective(problem.x(), positive, cost, 1.0, svm.loss(), cold.weights().vector(k));
+                assertThat(Math.abs(SvmSolver.primalObjective(problem.x(), positive, cost, 1.0, svm.loss(), warm.weights().vector(k))
                         - coldValue)).isLessThanOrEqualTo(2.0 * TOLERANCE * sum + ROUNDING * (1.0 + coldValue));
-                double coldLogisticValue = LogisticSolver.primalObjective(problem.x, positive, cost, 1.0,
+                double coldLogisticValue = LogisticSolver.primalObjective(problem.x(), positive, cost, 1.0,
                         coldLogistic.weights().vector(k));
-                assertThat(Math.abs(LogisticSolver.primalObjective(problem.x, positive, cost, 1.0,
+                assertThat(Math.abs(LogisticSolver.primalObjective(problem.x(), positive, cost, 1.0,
                         warmLogistic.weights().vector(k)) - coldLogisticValue))
                         .isLessThanOrEqualTo(TOLERANCE * sum + ROUNDING * (1.0 + coldLogisticValue));
             }
-        }
-    }
-
-    /** A small random sparse binary problem: 2 to 40 rows, 1 to 15 columns, values in [-2, 2]. */
-    private record Problem(SparseMatrix x, boolean[] positive) {
-
-        static Problem draw(long seed) {
-            SplittableRandom random = new SplittableRandom(seed);
-            int rows = 3 + random.nextInt(38);
-            int columns = 1 + random.nextInt(15);
-            SparseMatrix.Builder builder = SparseMatrix.builder(columns);
-            boolean[] positive = new boolean[rows];
-            for (int i = 0; i < rows; i++) {
-                int[] cols = new int[columns];
-                double[] vals = new double[columns];
-                int n = 0;
-                for (int j = 0; j < columns; j++) {
-                    if (random.nextInt(3) == 0) {
-                        cols[n] = j;
-                        vals[n++] = random.nextDouble(-2.0, 2.0);
-                    }
-                }
-                builder.addRow(Arrays.copyOf(cols, n), Arrays.copyOf(vals, n));
-                positive[i] = random.nextBoolean();
-            }
-            positive[0] = true;
-            positive[1] = false;
-            return new Problem(builder.build(), positive);
-        }
-
-        double[] costs(double c) {
-            double[] cost = new double[positive.length];
-            Arrays.fill(cost, c);
-            return cost;
-        }
-
-        /** Three classes, each present at least once. */
-        int[] threeClasses(long seed) {
-            SplittableRandom random = new SplittableRandom(seed ^ 0x5DEECE66DL);
-            int[] labels = new int[positive.length];
-            for (int i = 0; i < labels.length; i++) {
-                labels[i] = i < 3 ? i : random.nextInt(3);
-            }
-            return labels;
         }
     }
 }
