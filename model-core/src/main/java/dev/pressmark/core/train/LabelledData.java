@@ -10,12 +10,11 @@ import com.fasterxml.jackson.dataformat.csv.CsvMapper;
 import com.fasterxml.jackson.dataformat.csv.CsvParser;
 import dev.pressmark.core.PressmarkException;
 import dev.pressmark.core.bundle.Sha256;
+import dev.pressmark.core.io.InputFiles;
 import dev.pressmark.core.io.StrictUtf8;
 import java.io.IOException;
 import java.io.StringReader;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -238,14 +237,7 @@ public record LabelledData(
      */
     public static LabelledData read(Path file, List<String> textColumns, String labelColumn, String groupColumn,
                                     String weightColumn, boolean dropIncomplete) {
-        byte[] bytes;
-        try {
-            bytes = Files.readAllBytes(file);
-        } catch (NoSuchFileException e) {
-            throw new PressmarkException("file-not-found", file + ": no such file");
-        } catch (IOException e) {
-            throw new PressmarkException("file-unreadable", file + ": cannot read: " + e.getMessage(), e);
-        }
+        byte[] bytes = InputFiles.readAllBytes(file);
         String text = StrictUtf8.decode(bytes, file.toString());
         FieldStart start = new FieldStart(text);
         try (JsonParser parser = CSV.createParser(new StringReader(text))) {

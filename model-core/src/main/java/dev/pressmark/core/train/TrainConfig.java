@@ -17,10 +17,8 @@ import com.fasterxml.jackson.databind.exc.ValueInstantiationException;
 import com.fasterxml.jackson.dataformat.yaml.YAMLFactory;
 import com.fasterxml.jackson.dataformat.yaml.YAMLMapper;
 import dev.pressmark.core.PressmarkException;
+import dev.pressmark.core.io.InputFiles;
 import dev.pressmark.core.feature.FeatureConfig;
-import java.io.IOException;
-import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -100,14 +98,7 @@ public record TrainConfig(
 
     /** Reads {@code file}; a relative {@code data.file} is resolved against the file's directory. */
     public static TrainConfig read(Path file) {
-        String text;
-        try {
-            text = Files.readString(file);
-        } catch (NoSuchFileException e) {
-            throw new PressmarkException("file-not-found", file + ": no such file");
-        } catch (IOException e) {
-            throw new PressmarkException("file-unreadable", file + ": cannot read: " + e.getMessage(), e);
-        }
+        String text = InputFiles.readString(file);
         TrainConfig config = parse(text, file.toString());
         Path base = file.toAbsolutePath().getParent();
         return config.withData(config.data.resolvedAgainst(base));

@@ -6,15 +6,13 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import com.fasterxml.jackson.dataformat.yaml.YAMLMapper;
 import dev.pressmark.core.PressmarkException;
+import dev.pressmark.core.io.InputFiles;
 import dev.pressmark.core.search.Candidate;
 import dev.pressmark.core.search.ConfigTree;
 import dev.pressmark.core.search.GridAxis;
 import dev.pressmark.core.search.SearchConfig;
 import dev.pressmark.core.search.SearchSummary;
 import dev.pressmark.core.search.YamlLines;
-import java.io.IOException;
-import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.HashMap;
@@ -67,14 +65,7 @@ public record TrainPlan(TrainConfig config, Search search) {
 
     /** Reads {@code file}; a relative {@code data.file} is resolved against the file's directory. */
     public static TrainPlan read(Path file) {
-        String text;
-        try {
-            text = Files.readString(file);
-        } catch (NoSuchFileException e) {
-            throw new PressmarkException("file-not-found", file + ": no such file");
-        } catch (IOException e) {
-            throw new PressmarkException("file-unreadable", file + ": cannot read: " + e.getMessage(), e);
-        }
+        String text = InputFiles.readString(file);
         TrainPlan plan = parse(text, file.toString());
         DataConfig data = plan.config.data().resolvedAgainst(file.toAbsolutePath().getParent());
         if (plan.search == null) {
