@@ -5,6 +5,7 @@ import dev.pressmark.core.feature.SparseMatrix;
 import dev.pressmark.core.tokenize.CharNgramTokenizer;
 import dev.pressmark.core.tokenize.Tokenizer;
 import dev.pressmark.core.tokenize.ViewsTokenizer;
+import dev.pressmark.core.tokenize.WordPieceEncoder;
 import dev.pressmark.core.tokenize.WordPieceVocabulary;
 import dev.pressmark.core.feature.SpanIndex;
 import dev.pressmark.core.feature.TokenSource;
@@ -26,6 +27,8 @@ public final class TextPipeline {
     private final FeatureSpace features;
     /** Per text column and view, the features of that view's tokens; built on first use. */
     private volatile SpanIndex[][] spanIndex;
+    /** Per text column and WordPiece view, the feature of each vocabulary id; built with {@link #spanIndex}. */
+    private volatile int[][][] featureOfId;
 
     public TextPipeline(List<TokenizerSpec> views, Tokenizer tokenizer, FeatureSpace features) {
         this.views = List.copyOf(views);
@@ -50,17 +53,44 @@ public final class TextPipeline {
 
     /** A new encoder of rows of text straight into feature rows; for one thread at a time. */
     public RowEncoder rowEncoder() {
-        SpanIndex[][] index = spanIndex;
-        if (index == null) {
-            index = buildSpanIndex();
-            spanIndex = index;
-        }
         List<Tokenizer> viewTokenizers = viewTokenizers();
+        int[][][] ids = featureOfId;
+        SpanIndex[][] index = spanIndex;
+        if (ids == null || index == null) {
+            index = buildSpanIndex();
+            ids = featuresOfIds(viewTokenizers, index);
+            spanIndex = index;
+            featureOfId = ids;
+        }
         boolean[] wordPiece = new boolean[views.size()];
         for (int v = 0; v < wordPiece.length; v++) {
             wordPiece[v] = views.get(v).isWordPiece();
         }
-        return new RowEncoder(features.encoder(), viewTokenizers, index, wordPiece);
+        return new RowEncoder(features.encoder(), viewTokenizers, index, ids, wordPiece);
+    }
+
+    /**
+     * Per text column and view, for each view that is a WordPiece encoder itself (not n-grams of
+     * its pieces), the feature of each vocabulary id: what the
+     * span index gives for the id's token ({@link SpanIndex#MISSING} for a token the features left
+     * out); null for the other views.
+     */
+    private static int[][][] featuresOfIds(List<Tokenizer> viewTokenizers, SpanIndex[][] index) {
+        int[][][] ids = new int[index.length][viewTokenizers.size()][];
+        for (int c = 0; c < index.length; c++) {
+            for (int v = 0; v < viewTokenizers.size(); v++) {
+                if (viewTokenizers.get(v) instanceof WordPieceEncoder wordPiece) {
+                    WordPieceVocabulary vocabulary = wordPiece.vocabulary();
+                    int[] features = new int[vocabulary.size()];
+                    for (int id = 0; id < features.length; id++) {
+                        String token = vocabulary.token(id);
+                        features[id] = index[c][v].get(token, 0, token.length());
+                    }
+                    ids[c][v] = features;
+                }
+            }
+        }
+        return ids;
     }
 
     private SpanIndex[][] buildSpanIndex() {

@@ -15,7 +15,8 @@ import java.util.List;
  *
  * <p>Matching walks a {@link SubwordTrie}, so each position costs at most the length of the
  * longest token, independent of the vocabulary size. Instances are immutable and thread-safe; the
- * id path allocates one scratch buffer per call and nothing per token.
+ * id path allocates one scratch buffer per call (none when the caller keeps a {@link Scratch}) and
+ * nothing per token.
  */
 public final class WordPieceEncoder implements Tokenizer {
 
@@ -62,13 +63,42 @@ public final class WordPieceEncoder implements Tokenizer {
 
     /** Appends the token ids of {@code text} to {@code out}. */
     public void encodeIds(CharSequence text, IntList out) {
-        StringBuilder normalized = new StringBuilder(text.length() + 16);
+        encodeIds(text, out, new Scratch());
+    }
+
+    /**
+     * Appends the token ids of {@code text} to {@code out}, normalising into {@code scratch}, which
+     * a caller that encodes many texts on one thread keeps from text to text.
+     */
+    public void encodeIds(CharSequence text, IntList out, Scratch scratch) {
+        StringBuilder normalized = scratch.normalized;
+        normalized.setLength(0);
         normalizer.normalize(text, normalized);
         int n = normalized.length();
+        char[] chars = scratch.chars(n);
+        normalized.getChars(0, n, chars, 0);
         for (int start = PreTokenizer.wordStart(normalized, 0); start < n; ) {
             int end = PreTokenizer.wordEnd(normalized, start);
-            encodeWord(normalized, start, end, out);
+            encodeWord(chars, start, end, out);
             start = PreTokenizer.wordStart(normalized, end);
+        }
+    }
+
+    /**
+     * The buffers of {@link #encodeIds(CharSequence, IntList, Scratch)}: the normalised text, and
+     * its characters in an array, which the greedy match reads several times over without the
+     * bounds and coder checks of {@link StringBuilder#charAt}. For one thread at a time.
+     */
+    public static final class Scratch {
+
+        private final StringBuilder normalized = new StringBuilder(64);
+        private char[] chars = new char[64];
+
+        char[] chars(int length) {
+            if (chars.length < length) {
+                chars = new char[Math.max(length, 2 * chars.length)];
+            }
+            return chars;
         }
     }
 
@@ -101,7 +131,15 @@ public final class WordPieceEncoder implements Tokenizer {
      * greedy longest match first, or the unknown token when the word cannot be covered.
      */
     public void encodeWord(CharSequence text, int start, int end, IntList out) {
-        if (end - start > maxWordChars && Character.codePointCount(text, start, end) > maxWordChars) {
+        char[] chars = new char[end - start];
+        for (int i = start; i < end; i++) {
+            chars[i - start] = text.charAt(i);
+        }
+        encodeWord(chars, 0, chars.length, out);
+    }
+
+    private void encodeWord(char[] text, int start, int end, IntList out) {
+        if (end - start > maxWordChars && Character.codePointCount(text, start, end - start) > maxWordChars) {
             out.add(vocabulary.unkId());
             return;
         }
@@ -113,12 +151,12 @@ public final class WordPieceEncoder implements Tokenizer {
             int matchedEnd = position;
             int node = root;
             for (int i = position; i < end; i++) {
-                node = trie.child(node, text.charAt(i));
+                node = trie.child(node, text[i]);
                 if (node == SubwordTrie.NONE) {
                     break;
                 }
                 int token = trie.token(node);
-                if (token != SubwordTrie.NONE && (i + 1 == end || !Character.isLowSurrogate(text.charAt(i + 1)))) {
+                if (token != SubwordTrie.NONE && (i + 1 == end || !Character.isLowSurrogate(text[i + 1]))) {
                     matchedToken = token;
                     matchedEnd = i + 1;
                 }
