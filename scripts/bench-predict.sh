@@ -11,6 +11,10 @@
 #       connection (wrk on CPU 1) posting 1,000 of the same texts per request; items/s per core from
 #       the server's own time per request (access log, median), as scripts/bench-http.sh measures it
 #   (d) the ratio (b) / (c): local items/s per core against the service's
+#   (e) steady state: (b) again on the table written five times over (5,000,000 rows); the
+#       4,000,000 rows past the first million (with --quick: 400,000 past 100,000), over the difference of the median wall times, give
+#       the rate once the JIT has compiled the scoring path, as the service's figure is taken after
+#       its warm-up; and (e) / (c)
 #
 # The model, by default: the bundle of scripts/bench-http.sh (scripts/bench-train.yaml: invented
 # listing titles, WordPiece 1,500, 800 features, a linear SVM with Platt probabilities, 4 labels,
@@ -132,6 +136,13 @@ echo "bench-predict: (b) the same on CPU 0 alone, --threads 1, $runs runs" >&2
 PREDICT_ARGS=(--threads 1)
 for i in $(seq "$runs"); do predict_run one taskset -c 0; done
 sed 3q scored.csv > scored-head.txt
+echo "bench-predict: (e) the same on the table five times over ($((5 * rows)) rows), $runs runs" >&2
+mv table.csv table1.csv
+{ cat table1.csv; for i in 2 3 4 5; do tail -n +2 table1.csv; done; } > table.csv
+rows=$((5 * rows))
+for i in $(seq "$runs"); do predict_run five taskset -c 0; done
+rows=$((rows / 5))
+mv table1.csv table.csv
 
 # --- (c) the HTTP service ----------------------------------------------------------------------
 echo "bench-predict: (c) the HTTP service, $BATCH_ITEMS-item requests" >&2
@@ -166,10 +177,12 @@ grep -q 'Non-2xx' batch.txt && die "wrk saw answers other than 2xx"
 # --- report ------------------------------------------------------------------------------------
 read -r a_wall a_user a_sys a_rss a_load a_rate < <(median_line two.runs)
 read -r b_wall b_user b_sys b_rss b_load b_rate < <(median_line one.runs)
+read -r e_wall e_user e_sys e_rss e_load e_rate < <(median_line five.runs)
 calc() { awk "BEGIN { printf \"$1\", $2 }"; }
 a_rows_s="$(calc '%.0f' "$rows / $a_wall")"
 b_rows_s="$(calc '%.0f' "$rows / $b_wall")"
 http_items_s="$(calc '%.0f' "$BATCH_ITEMS * 1000 / $batch_p50")"
+e_steady="$(calc '%.0f' "4 * $rows / ($e_wall - $b_wall)")"
 report="$(cat <<REPORT
 ## pressmark batch scoring benchmark ($rows rows, model $model)
 
@@ -187,6 +200,9 @@ Each predict line: wall s, user s, sys s, max RSS KiB, load average (1/5/15 min)
 | (c) HTTP, $BATCH_ITEMS items per request on CPU 0: server time p50 ($n requests, access log) | $batch_p50 ms = $http_items_s items/s (wrk: $wrk_rps requests/s; load $http_load) | |
 | (d) local per core / HTTP per core, end to end | $(calc '%.2f' "$b_rows_s / $http_items_s") | >= 0.8 |
 | (d) local per core / HTTP per core, after the bundle load | $(calc '%.2f' "$b_rate / $http_items_s") | |
+| (e) $((5 * rows)) rows on CPU 0, --threads 1, end to end (median of $runs) | $(calc '%.0f' "5 * $rows / $e_wall") rows/s ($e_wall s wall; peak RSS $(calc '%.0f' "$e_rss / 1024") MiB; load $e_load) | |
+| (e) steady state: the $((4 * rows)) rows past the first $rows, $((4 * rows)) / ($e_wall s - $b_wall s) | $e_steady rows/s | |
+| (e) / (c): steady state per core against the service per core (both after warm-up) | $(calc '%.2f' "$e_steady / $http_items_s") | >= 0.8 |
 
 All predict runs (a):
 \`\`\`
@@ -195,6 +211,10 @@ $(cat two.runs)
 All predict runs (b):
 \`\`\`
 $(cat one.runs)
+\`\`\`
+All predict runs (e):
+\`\`\`
+$(cat five.runs)
 \`\`\`
 \`\`\`
 ./pressmark predict model.pmb --data table.csv --out scored.csv --force --threads 2
