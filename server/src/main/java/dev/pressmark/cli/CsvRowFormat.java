@@ -1,7 +1,6 @@
 package dev.pressmark.cli;
 
 import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.core.io.NumberOutput;
 import com.fasterxml.jackson.databind.ObjectWriter;
 import com.fasterxml.jackson.dataformat.csv.CsvMapper;
 import com.fasterxml.jackson.dataformat.csv.CsvSchema;
@@ -54,9 +53,9 @@ final class CsvRowFormat implements RowFormat {
                 out.value(value);
             }
             out.value(labels.get(scored.label(i)));
-            out.value(NumberOutput.toString(scored.score(i), true));
+            out.number(scored.score(i));
             for (int k = 0; probabilities && k < labels.size(); k++) {
-                out.value(NumberOutput.toString(scored.probability(i, k), true));
+                out.number(scored.probability(i, k));
             }
             out.endRow();
         }

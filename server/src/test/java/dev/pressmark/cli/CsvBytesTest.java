@@ -30,6 +30,38 @@ class CsvBytesTest {
         assertThat(ours(rows)).isEqualTo(jacksons(rows));
     }
 
+    /**
+     * A number field is the bytes Jackson's CSV writer writes for the number's shortest digits
+     * (the string {@code predict} wrote before numbers had a path of their own), and is never
+     * quoted. Doubles of every kind: random bits (NaN payloads, subnormals, both infinities,
+     * -0.0), probabilities, and the longest forms.
+     */
+    @Property(tries = 1000)
+    void writes_a_number_as_jackson_writes_its_shortest_digits(@ForAll("doubles") double number, @ForAll boolean first)
+            throws Exception {
+        String digits = com.fasterxml.jackson.core.io.NumberOutput.toString(number, true);
+        List<List<String>> row = first ? List.of(List.of(digits, "x")) : List.of(List.of("x", digits));
+        CsvBytes out = new CsvBytes(1);
+        if (first) {
+            out.number(number);
+            out.value("x");
+        } else {
+            out.value("x");
+            out.number(number);
+        }
+        out.endRow();
+        assertThat(out.toByteArray()).isEqualTo(jacksons(row));
+    }
+
+    @Provide
+    Arbitrary<Double> doubles() {
+        return Arbitraries.oneOf(
+                Arbitraries.longs().map(Double::longBitsToDouble),
+                Arbitraries.doubles().between(0, 1),
+                Arbitraries.of(-Double.MIN_NORMAL, -Double.MAX_VALUE, Double.MIN_VALUE, -0.0, Double.NaN,
+                        Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY, -2.2250738585072014E-308, 1e-7, 1e21));
+    }
+
     @Test
     void quotes_as_jackson_does_at_the_length_where_it_stops_looking() throws Exception {
         String safe24 = "a".repeat(CsvBytes.MAX_QUOTE_CHECK_CHARS);
