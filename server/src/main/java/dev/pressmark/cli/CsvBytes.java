@@ -1,6 +1,6 @@
 package dev.pressmark.cli;
 
-import com.fasterxml.jackson.core.io.NumberOutput;
+import dev.pressmark.core.io.DoubleDigits;
 import java.util.Arrays;
 
 /**
@@ -44,23 +44,19 @@ final class CsvBytes {
     }
 
     /**
-     * Appends {@code number} as the next field of the current row, in the digits of
-     * {@link NumberOutput#toString(double, boolean)}, Jackson's shortest-digits writer: what
-     * {@link #value} would append for that string, without looking for chars that need quotes.
-     * There are none: the writer gives at most 24 chars ({@code -2.2250738585072014E-308}), all
-     * ASCII digits, {@code .}, {@code -}, {@code E} or letters of {@code NaN} and {@code Infinity}.
+     * Appends {@code number} as the next field of the current row, in its shortest digits
+     * ({@link DoubleDigits}, the digits of Jackson's writer that the HTTP answers use): what
+     * {@link #value} would append for that text, without looking for chars that need quotes. There
+     * are none: at most {@value DoubleDigits#MAX_BYTES} chars, all ASCII digits, {@code .},
+     * {@code -}, {@code E} or letters of {@code NaN} and {@code Infinity}.
      */
     void number(double number) {
-        String digits = NumberOutput.toString(number, true);
-        int length = digits.length();
-        ensure(length + 1);
+        ensure(DoubleDigits.MAX_BYTES + 1);
         if (rowStarted) {
             bytes[size++] = ',';
         }
         rowStarted = true;
-        for (int i = 0; i < length; i++) {
-            bytes[size++] = (byte) digits.charAt(i);
-        }
+        size = DoubleDigits.write(number, bytes, size);
     }
 
     /** Ends the current row with a line feed. */

@@ -10,11 +10,12 @@ import java.util.List;
 
 /**
  * CSV results: the input's columns, then {@code label}, {@code score} and, when the model gives
- * probabilities, {@code p:<label>} per label. Numbers are written as the HTTP service writes them:
- * the shortest digits that read back as the same double (Jackson's fast writer, Giulietti's
- * Schubfach), in {@link Double#toString(double)}'s layout. JDK 17's own {@code Double.toString}
- * took some 40 % of the CPU of a batch and sometimes writes a digit more than needed. The header
- * is Jackson's CSV writer's; the rows are {@link CsvBytes}', which quotes as that writer does.
+ * probabilities, {@code p:<label>} per label. Numbers are written with the digits the HTTP service
+ * writes: the shortest that read back as the same double (Giulietti's Schubfach), in
+ * {@link Double#toString(double)}'s layout, straight into the row's bytes by
+ * {@link dev.pressmark.core.io.DoubleDigits}. JDK 17's own {@code Double.toString} took some 40 %
+ * of the CPU of a batch and sometimes writes a digit more than needed. The header is Jackson's CSV
+ * writer's; the rows are {@link CsvBytes}', which quotes as that writer does.
  */
 final class CsvRowFormat implements RowFormat {
 
