@@ -27,7 +27,8 @@
 # Either table has an id column before the text.
 #
 # predict runs through the ./pressmark launcher, as a user runs it (its JVM options for predict,
-# the serial collector, included); JAVA_OPTS reach it as PRESSMARK_JAVA_OPTS.
+# the serial collector and the class-data archive, included); JAVA_OPTS reach it as
+# PRESSMARK_JAVA_OPTS.
 #
 # Usage: scripts/bench-predict.sh [--quick] [--places | --views] [--out FILE]
 #   --quick  100,000 rows, 1 run, 3 s of wrk after 3 s of warm-up: shows the set-up works
@@ -129,6 +130,11 @@ predict_run() {
   echo "$(cat "$name.time") $(load | tr ' ' '/') $(grep -o '([0-9,]* rows/s)' "$name.err" | tr -d '(),' | cut -d' ' -f1)" >> "$name.runs"
 }
 median_line() { sort -n -k1,1 "$1" | sed -n "$(( ($(wc -l < "$1") + 1) / 2 ))p"; }
+# A first one-row run records the launcher's class-data archive for predict (as a user's first
+# run does), so that every measured run maps it alike.
+head -n 2 table.csv > one-row.csv
+env PRESSMARK_JAVA_OPTS="${JAVA_OPTS:-}" "$root/pressmark" predict model.pmb --data one-row.csv --out one-row.out --force 2> one-row.err \
+  || { cat one-row.err >&2; die "predict failed"; }
 echo "bench-predict: (a) predict --data, $rows rows, --threads 2, $runs runs" >&2
 PREDICT_ARGS=(--threads 2)
 for i in $(seq "$runs"); do predict_run two; done
