@@ -127,14 +127,42 @@ public final class PressmarkScorer implements AutoCloseable {
         if (Arrays.asList(frame.columns()).contains(name)) {
             throw new IllegalArgumentException("the DataFrame already has a column \"" + name + "\"; name the prediction column otherwise");
         }
+        StructType scored = frame.schema().add(name, PredictionColumn.TYPE, true);
+        return frame.mapPartitions(new PartitionScorer(shipped, sha256, new StructLayout(labels, version), inputColumns(frame),
+                maxTokensPerField), Encoders.row(scored));
+    }
+
+    /**
+     * {@code frame} with the prediction as flat text columns after its own: {@code label},
+     * {@code score}, {@code p:<label>} per label when the model gives probabilities, and
+     * {@code version}, numbers in the shortest digits that read back as the same double (as
+     * {@code pressmark predict --data} writes them); all null for a row with a null text. For a
+     * table that holds no structs, such as CSV; fills the columns straight from each batch's
+     * scores. Fails at once when {@code frame} already has one of these columns.
+     */
+    Dataset<Row> scoreFlat(Dataset<Row> frame) {
+        int[] inputColumns = inputColumns(frame);
+        FlatLayout layout = new FlatLayout(labels, probabilities, version);
+        StructType scored = frame.schema();
+        for (StructField field : layout.fields()) {
+            if (Arrays.asList(frame.columns()).contains(field.name())) {
+                throw new IllegalArgumentException("the input already has a column \"" + field.name()
+                        + "\", which the CSV output adds; rename it or write parquet");
+            }
+            scored = scored.add(field);
+        }
+        return frame.mapPartitions(new PartitionScorer(shipped, sha256, layout, inputColumns, maxTokensPerField), Encoders.row(scored));
+    }
+
+    /** Per input field of the bundle, in its order, the index in {@code frame} of the text column it is read from. */
+    private int[] inputColumns(Dataset<Row> frame) {
         int[] inputColumns = new int[inputFields.size()];
         for (int f = 0; f < inputColumns.length; f++) {
             String column = columns.get(inputFields.get(f));
             requireTextColumn(frame, inputFields.get(f), column);
             inputColumns[f] = frame.schema().fieldIndex(column);
         }
-        StructType scored = frame.schema().add(name, PredictionColumn.TYPE, true);
-        return frame.mapPartitions(new PartitionScorer(shipped, sha256, version, inputColumns, maxTokensPerField), Encoders.row(scored));
+        return inputColumns;
     }
 
     /** The prediction of each row of {@code frame}, as a column to select or add. */

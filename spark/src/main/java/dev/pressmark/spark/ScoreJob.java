@@ -4,17 +4,10 @@ import dev.pressmark.core.PressmarkException;
 import dev.pressmark.store.BundleStore;
 import java.io.IOException;
 import java.io.PrintStream;
-import java.util.ArrayList;
-import java.util.Arrays;
-import java.util.List;
-import java.util.LinkedHashMap;
-import java.util.Map;
 import org.apache.hadoop.fs.FileSystem;
-import org.apache.spark.sql.Column;
 import org.apache.spark.sql.Dataset;
 import org.apache.spark.sql.Row;
 import org.apache.spark.sql.SparkSession;
-import org.apache.spark.sql.functions;
 
 /**
  * The job {@code spark-submit} runs: reads a table, scores it with a stored version and writes
@@ -71,8 +64,8 @@ public final class ScoreJob {
                 scorer = scorer.withColumn(mapping.getKey(), mapping.getValue());
             }
             try (PressmarkScorer closing = scorer) {
-                Dataset<Row> scored = closing.score(read(spark, options));
-                write(options.format() == ScoreOptions.Format.CSV ? flattened(scored, closing) : scored, options);
+                Dataset<Row> input = read(spark, options);
+                write(options.format() == ScoreOptions.Format.CSV ? closing.scoreFlat(input) : closing.score(input), options);
             }
             return 0;
         } catch (PressmarkException | IllegalArgumentException e) {
@@ -96,32 +89,6 @@ public final class ScoreJob {
         } else {
             scored.write().parquet(options.output());
         }
-    }
-
-    /** The prediction struct as flat columns: {@code label}, {@code score}, {@code p:<label>} per label, {@code version}. */
-    private static Dataset<Row> flattened(Dataset<Row> scored, PressmarkScorer scorer) {
-        List<String> inputs = new ArrayList<>(Arrays.asList(scored.columns()));
-        inputs.remove(PredictionColumn.DEFAULT_NAME);
-        Map<String, Column> added = new LinkedHashMap<>();
-        String p = PredictionColumn.DEFAULT_NAME + ".";
-        added.put(PredictionColumn.LABEL, functions.col(p + PredictionColumn.LABEL));
-        added.put(PredictionColumn.SCORE, functions.col(p + PredictionColumn.SCORE));
-        if (scorer.hasProbabilities()) {
-            for (String label : scorer.labels()) {
-                added.put("p:" + label, functions.element_at(functions.col(p + PredictionColumn.PROBABILITIES), functions.lit(label)));
-            }
-        }
-        added.put(PredictionColumn.VERSION, functions.col(p + PredictionColumn.VERSION));
-        List<Column> columns = new ArrayList<>();
-        inputs.forEach(name -> columns.add(scored.col("`" + name.replace("`", "``") + "`")));
-        added.forEach((name, column) -> {
-            if (inputs.contains(name)) {
-                throw new IllegalArgumentException("the input already has a column \"" + name + "\", which the CSV output adds; "
-                        + "rename it or write parquet");
-            }
-            columns.add(column.as(name));
-        });
-        return scored.select(columns.toArray(Column[]::new));
     }
 
     private static void requireAbsent(SparkSession spark, String output) {
