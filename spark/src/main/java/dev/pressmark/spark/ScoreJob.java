@@ -23,11 +23,19 @@ public final class ScoreJob {
                      [--column FIELD=COLUMN]... [--max-tokens-per-field N]
               --model   the stored model, its active version unless :TAG is given
               --store   sqlite:PATH or jdbc:postgresql://HOST[:PORT]/DATABASE (default: env PRESSMARK_STORE)
-              --input   the table to score, in --format; CSV needs a header row and no line break inside a field
+              --input   the table to score, in --format; CSV (RFC 4180 quotes) needs a header row and no line break inside a field
               --output  where the scored table goes, in --format; it must not exist
               --format  parquet (default) or csv
               --column  read the bundle's input field FIELD from COLUMN (default: the column named FIELD)
               --max-tokens-per-field  tokens of each field that are scored (default 512, as the HTTP service)""";
+
+    /**
+     * RFC 4180 quoting, as {@code pressmark predict --data} reads and writes it: a quote inside a
+     * quoted field is doubled. Spark's CSV default escapes it with a backslash instead, and so
+     * splits {@code "a ""b"", c"} into two fields. Its writer's default of trimming the spaces
+     * around each value is turned off too, so that input columns are carried through as read.
+     */
+    private static final String CSV_QUOTE = "\"";
 
     private ScoreJob() {
     }
@@ -79,13 +87,15 @@ public final class ScoreJob {
 
     private static Dataset<Row> read(SparkSession spark, ScoreOptions options) {
         return options.format() == ScoreOptions.Format.CSV
-                ? spark.read().option("header", "true").csv(options.input())
+                ? spark.read().option("header", "true").option("escape", CSV_QUOTE).csv(options.input())
                 : spark.read().parquet(options.input());
     }
 
     private static void write(Dataset<Row> scored, ScoreOptions options) {
         if (options.format() == ScoreOptions.Format.CSV) {
-            scored.write().option("header", "true").csv(options.output());
+            scored.write().option("header", "true").option("escape", CSV_QUOTE)
+                    .option("ignoreLeadingWhiteSpace", "false").option("ignoreTrailingWhiteSpace", "false")
+                    .csv(options.output());
         } else {
             scored.write().parquet(options.output());
         }
