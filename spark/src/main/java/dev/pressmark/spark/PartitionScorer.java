@@ -9,7 +9,6 @@ import java.util.NoSuchElementException;
 import org.apache.spark.api.java.function.MapPartitionsFunction;
 import org.apache.spark.broadcast.Broadcast;
 import org.apache.spark.sql.Row;
-import org.apache.spark.sql.RowFactory;
 
 /**
  * Scores a partition a batch of rows at a time with {@link Bundle#score}, the batch path of
@@ -58,11 +57,14 @@ final class PartitionScorer implements MapPartitionsFunction<Row, Row> {
         private final int[] scoredIndex = new int[BATCH_ROWS];
         private final List<String[]> texts = new ArrayList<>(BATCH_ROWS);
         private int next;
+        /** The layout's header row until it has been given out; given out only before a partition's first row. */
+        private Row header;
 
         Batches(Bundle bundle, Iterator<Row> input) {
             this.bundle = bundle;
             this.input = input;
             this.scored = new ScoredRows(BATCH_ROWS, bundle.labels().size(), bundle.hasProbabilities());
+            this.header = layout.header();
         }
 
         @Override
@@ -75,6 +77,14 @@ final class PartitionScorer implements MapPartitionsFunction<Row, Row> {
 
         @Override
         public Row next() {
+            if (header != null) {
+                if (!input.hasNext()) {
+                    throw new NoSuchElementException("no rows left in this partition");
+                }
+                Row first = header;
+                header = null;
+                return first;
+            }
             if (next == batch.size()) {
                 if (!input.hasNext()) {
                     throw new NoSuchElementException("no rows left in this partition");
@@ -82,12 +92,7 @@ final class PartitionScorer implements MapPartitionsFunction<Row, Row> {
                 readAndScore();
             }
             Row row = batch.get(next);
-            Object[] values = new Object[row.length() + layout.width()];
-            for (int c = 0; c < row.length(); c++) {
-                values[c] = row.get(c);
-            }
-            layout.append(values, row.length(), scored, scoredIndex[next++]);
-            return RowFactory.create(values);
+            return layout.row(row, scored, scoredIndex[next++]);
         }
 
         private void readAndScore() {

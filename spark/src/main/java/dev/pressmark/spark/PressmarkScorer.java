@@ -23,6 +23,7 @@ import org.apache.spark.sql.api.java.UDF7;
 import org.apache.spark.sql.api.java.UDF8;
 import org.apache.spark.sql.expressions.UserDefinedFunction;
 import org.apache.spark.sql.functions;
+import org.apache.spark.sql.types.DataTypes;
 import org.apache.spark.sql.types.StringType;
 import org.apache.spark.sql.types.StructField;
 import org.apache.spark.sql.types.StructType;
@@ -133,25 +134,24 @@ public final class PressmarkScorer implements AutoCloseable {
     }
 
     /**
-     * {@code frame} with the prediction as flat text columns after its own: {@code label},
-     * {@code score}, {@code p:<label>} per label when the model gives probabilities, and
-     * {@code version}, numbers in the shortest digits that read back as the same double (as
-     * {@code pressmark predict --data} writes them); all null for a row with a null text. For a
-     * table that holds no structs, such as CSV; fills the columns straight from each batch's
-     * scores. Fails at once when {@code frame} already has one of these columns.
+     * {@code frame} scored as the lines of a CSV file: one text column, each row the input's values
+     * then {@code label}, {@code score}, {@code p:<label>} per label when the model gives
+     * probabilities, and {@code version}, as {@link CsvLineLayout} writes them; each non-empty
+     * partition starts with the header line. Fails at once when {@code frame} already has one of
+     * the columns the prediction adds.
      */
-    Dataset<Row> scoreFlat(Dataset<Row> frame) {
+    Dataset<Row> scoreAsCsvLines(Dataset<Row> frame) {
         int[] inputColumns = inputColumns(frame);
-        FlatLayout layout = new FlatLayout(labels, probabilities, version);
-        StructType scored = frame.schema();
-        for (StructField field : layout.fields()) {
-            if (Arrays.asList(frame.columns()).contains(field.name())) {
-                throw new IllegalArgumentException("the input already has a column \"" + field.name()
+        List<String> names = Arrays.asList(frame.columns());
+        for (String added : CsvLineLayout.predictionColumns(labels, probabilities)) {
+            if (names.contains(added)) {
+                throw new IllegalArgumentException("the input already has a column \"" + added
                         + "\", which the CSV output adds; rename it or write parquet");
             }
-            scored = scored.add(field);
         }
-        return frame.mapPartitions(new PartitionScorer(shipped, sha256, layout, inputColumns, maxTokensPerField), Encoders.row(scored));
+        CsvLineLayout layout = new CsvLineLayout(names, labels, probabilities, version);
+        StructType line = new StructType().add("value", DataTypes.StringType, false);
+        return frame.mapPartitions(new PartitionScorer(shipped, sha256, layout, inputColumns, maxTokensPerField), Encoders.row(line));
     }
 
     /** Per input field of the bundle, in its order, the index in {@code frame} of the text column it is read from. */

@@ -30,10 +30,10 @@ public final class ScoreJob {
               --max-tokens-per-field  tokens of each field that are scored (default 512, as the HTTP service)""";
 
     /**
-     * RFC 4180 quoting, as {@code pressmark predict --data} reads and writes it: a quote inside a
-     * quoted field is doubled. Spark's CSV default escapes it with a backslash instead, and so
-     * splits {@code "a ""b"", c"} into two fields. Its writer's default of trimming the spaces
-     * around each value is turned off too, so that input columns are carried through as read.
+     * RFC 4180 quoting, as {@code pressmark predict --data} reads it: a quote inside a quoted field
+     * is doubled. Spark's CSV default escapes it with a backslash instead, and so splits
+     * {@code "a ""b"", c"} into two fields. The output is written as lines of text
+     * ({@link CsvLineLayout}), quoted as {@code predict --data} quotes them.
      */
     private static final String CSV_QUOTE = "\"";
 
@@ -73,7 +73,11 @@ public final class ScoreJob {
             }
             try (PressmarkScorer closing = scorer) {
                 Dataset<Row> input = read(spark, options);
-                write(options.format() == ScoreOptions.Format.CSV ? closing.scoreFlat(input) : closing.score(input), options);
+                if (options.format() == ScoreOptions.Format.CSV) {
+                    closing.scoreAsCsvLines(input).write().text(options.output());
+                } else {
+                    closing.score(input).write().parquet(options.output());
+                }
             }
             return 0;
         } catch (PressmarkException | IllegalArgumentException e) {
@@ -89,16 +93,6 @@ public final class ScoreJob {
         return options.format() == ScoreOptions.Format.CSV
                 ? spark.read().option("header", "true").option("escape", CSV_QUOTE).csv(options.input())
                 : spark.read().parquet(options.input());
-    }
-
-    private static void write(Dataset<Row> scored, ScoreOptions options) {
-        if (options.format() == ScoreOptions.Format.CSV) {
-            scored.write().option("header", "true").option("escape", CSV_QUOTE)
-                    .option("ignoreLeadingWhiteSpace", "false").option("ignoreTrailingWhiteSpace", "false")
-                    .csv(options.output());
-        } else {
-            scored.write().parquet(options.output());
-        }
     }
 
     private static void requireAbsent(SparkSession spark, String output) {

@@ -2,19 +2,23 @@ package dev.pressmark.spark;
 
 import dev.pressmark.core.bundle.ScoredRows;
 import java.io.Serializable;
+import org.apache.spark.sql.Row;
 
 /**
- * What {@link PartitionScorer} appends to each input row: the prediction of one row of a scored
- * batch, as one struct column or as flat columns. Made on the driver and shipped with the task.
+ * How {@link PartitionScorer} lays out each scored row: the input row's values followed by the
+ * prediction as one struct column, or the whole row as one CSV line. Made on the driver and
+ * shipped with the task.
  */
 interface ScoredLayout extends Serializable {
 
-    /** How many values each row gets. */
-    int width();
-
     /**
-     * Writes row {@code k} of {@code scored} into {@code values} from index {@code at} on; leaves
-     * the nulls there when {@code k} is -1 (a row with a null text, which is not scored).
+     * The output row for {@code input}, whose prediction is row {@code k} of {@code scored}, or
+     * which has none when {@code k} is -1 (a row with a null text, which is not scored).
      */
-    void append(Object[] values, int at, ScoredRows scored, int k);
+    Row row(Row input, ScoredRows scored, int k);
+
+    /** A row each non-empty partition starts with, or null for none. */
+    default Row header() {
+        return null;
+    }
 }

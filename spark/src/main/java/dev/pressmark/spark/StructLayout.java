@@ -4,6 +4,7 @@ import dev.pressmark.core.bundle.ScoredRows;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import org.apache.spark.sql.Row;
 import org.apache.spark.sql.RowFactory;
 import scala.jdk.javaapi.CollectionConverters;
 
@@ -21,15 +22,18 @@ final class StructLayout implements ScoredLayout {
     }
 
     @Override
-    public int width() {
-        return 1;
+    public Row row(Row input, ScoredRows scored, int k) {
+        Object[] values = new Object[input.length() + 1];
+        for (int c = 0; c < input.length(); c++) {
+            values[c] = input.get(c);
+        }
+        if (k >= 0) {
+            values[input.length()] = prediction(scored, k);
+        }
+        return RowFactory.create(values);
     }
 
-    @Override
-    public void append(Object[] values, int at, ScoredRows scored, int k) {
-        if (k < 0) {
-            return;
-        }
+    private Row prediction(ScoredRows scored, int k) {
         scala.collection.Map<String, Object> probabilities = null;
         if (scored.hasProbabilities()) {
             Map<String, Object> byLabel = new LinkedHashMap<>(labels.size() * 2);
@@ -39,6 +43,6 @@ final class StructLayout implements ScoredLayout {
             // the row encoder reads a map column as a Scala map
             probabilities = CollectionConverters.asScala(byLabel);
         }
-        values[at] = RowFactory.create(labels.get(scored.label(k)), scored.score(k), probabilities, version);
+        return RowFactory.create(labels.get(scored.label(k)), scored.score(k), probabilities, version);
     }
 }
