@@ -9,7 +9,9 @@
 #
 # The local command runs through ./pressmark (its JVM options) with --threads 1, so its rows/s is
 # per core. BENCH_REF_JOB=JAR also times the job from another pressmark-spark.jar (an earlier
-# build, say) in the same run, for a before/after ratio under the same load.
+# build, say) in the same run, for a before/after ratio under the same load. Each job's `local[1]`
+# CSV output is compared with the local command's (`--out`, an untimed run): equal when every line,
+# less the job's last column (`version`), is the same bytes.
 set -euo pipefail
 root="$(cd "$(dirname "$0")/.." && pwd)"
 rows="${1:-1000000}"
@@ -59,6 +61,7 @@ spark_job() { # JAR MASTER INPUT OUTPUT
 load() { cut -d' ' -f1-3 /proc/loadavg; }
 
 local_s=$(seconds taskset -c 0 "$root/pressmark" predict routing.pmb --data titles.csv --threads 1); local_load=$(load)
+"$root/pressmark" predict routing.pmb --data titles.csv --threads 1 --out local.csv 2> /dev/null
 python3 - <<'PY'
 lines = open("titles.csv", encoding="utf-8").read().splitlines()
 header, body = lines[0], lines[1:]
@@ -76,7 +79,9 @@ measure_job() {
   s1=$(seconds spark_job "$1" 'local[1]' titles.csv out-1); l1=$(load | tr ' ' '/')
   f2=$(seconds spark_job "$1" 'local[2]' one.csv out-one-2)
   s2=$(seconds spark_job "$1" 'local[2]' titles4 out-2); l2=$(load | tr ' ' '/')
-  echo "$2 $f1 $s1 $l1 $f2 $s2 $l2 $(cat out-1/part-*.csv | grep -c '' || true)" >> jobs.txt
+  local same=differs
+  if cat out-1/part-* | sed 's/,[^,]*$//' | cmp -s - local.csv; then same=equal; fi
+  echo "$2 $f1 $s1 $l1 $f2 $s2 $l2 $(cat out-1/part-* | grep -c '' || true) $same" >> jobs.txt
 }
 if [ -n "${BENCH_REF_JOB:-}" ]; then measure_job "$BENCH_REF_JOB" reference; fi
 measure_job "$job" this
@@ -89,7 +94,7 @@ print("|---|---|---|---|---|")
 print(f"| `pressmark predict --data --threads 1` on CPU 0 | {local:.2f} | {rate(local)} | {rate(local)} | {sys.argv[3]} |")
 ratios = []
 for line in open("jobs.txt"):
-    name, fixed1, spark1, load1, fixed2, spark2, load2, lines = line.split()
+    name, fixed1, spark1, load1, fixed2, spark2, load2, lines, same = line.split()
     fixed1, spark1, fixed2, spark2 = map(float, (fixed1, spark1, fixed2, spark2))
     load1, load2 = load1.replace("/", " "), load2.replace("/", " ")
     print(f"| {name}: Spark job, `local[1]`, end to end | {spark1:.2f} | {rate(spark1)} | {rate(spark1)} | {load1} |")
@@ -98,7 +103,8 @@ for line in open("jobs.txt"):
     print(f"| {name}: Spark job, `local[2]`, less its one-row run ({fixed2:.2f} s) | {spark2 - fixed2:.2f} | {rate(spark2 - fixed2)} | {rows / (spark2 - fixed2) / 2:,.0f} | |")
     ratios.append(f"{name}: Spark per core / local predict per core, end to end: local[1] {local / spark1:.2f}x, local[2] {local / spark2 / 2:.2f}x; "
                   f"scoring only: local[1] {local / (spark1 - fixed1):.2f}x, local[2] {local / (spark2 - fixed2) / 2:.2f}x "
-                  f"(CSV lines written by local[1], header included: {lines})")
+                  f"(CSV lines written by local[1], header included: {lines}; less the version column, "
+                  f"{'byte for byte' if same == 'equal' else 'not'} the local command's output)")
 print()
 for r in ratios:
     print(r)
