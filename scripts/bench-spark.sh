@@ -12,6 +12,11 @@
 # build, say) in the same run, for a before/after ratio under the same load. Each job's `local[1]`
 # CSV output is compared with the local command's (`--out`, an untimed run): equal when every line,
 # less the job's last column (`version`), is the same bytes.
+#
+# BENCH_WARM_RUNS=N also runs each job N times in one JVM (`local[1]`, a new Spark session per run)
+# and prints the process's CPU seconds per run: past the first two, the JIT has compiled the hot
+# code, so the figure is the job's own CPU for the rows with little start-up in it; CPU seconds
+# are what a busy machine disturbs least.
 set -euo pipefail
 root="$(cd "$(dirname "$0")/.." && pwd)"
 rows="${1:-1000000}"
@@ -85,6 +90,36 @@ measure_job() {
 }
 if [ -n "${BENCH_REF_JOB:-}" ]; then measure_job "$BENCH_REF_JOB" reference; fi
 measure_job "$job" this
+cat > Warm.java <<'JAVA'
+import java.lang.management.ManagementFactory;
+/** ScoreJob.main ARGS[1].. run ARGS[0] times in this JVM; prints the process's CPU seconds per run. */
+public class Warm {
+    public static void main(String[] args) throws Exception {
+        var os = (com.sun.management.OperatingSystemMXBean) ManagementFactory.getOperatingSystemMXBean();
+        StringBuilder runs = new StringBuilder();
+        for (int i = 0; i < Integer.parseInt(args[0]); i++) {
+            String[] job = java.util.Arrays.copyOfRange(args, 1, args.length + 2);
+            job[job.length - 2] = "--output";
+            job[job.length - 1] = "warm-" + i;
+            long cpu = os.getProcessCpuTime();
+            Class.forName("dev.pressmark.spark.ScoreJob").getMethod("main", String[].class).invoke(null, (Object) job);
+            runs.append(String.format(" %.2f", (os.getProcessCpuTime() - cpu) / 1e9));
+        }
+        System.out.println(runs.toString().strip());
+    }
+}
+JAVA
+warm() { # JAR NAME: CPU seconds of each run
+  rm -rf warm-*
+  echo "$2: $(java $opts -Dspark.master='local[1]' -Dspark.driver.host=127.0.0.1 -Dspark.ui.enabled=false -cp "$1:$spark_cp" Warm.java \
+      "$BENCH_WARM_RUNS" --model routing:v2 --store "$store" --input titles.csv --format csv 2> run.log | tail -1) (load $(load))" >> warm.txt
+}
+if [ -n "${BENCH_WARM_RUNS:-}" ]; then
+  for round in 1 2; do
+    if [ -n "${BENCH_REF_JOB:-}" ]; then warm "$BENCH_REF_JOB" reference; fi
+    warm "$job" this
+  done
+fi
 python3 - "$rows" "$local_s" "$local_load" <<'PY'
 import sys
 rows = int(sys.argv[1]); local = float(sys.argv[2])
@@ -109,3 +144,8 @@ print()
 for r in ratios:
     print(r)
 PY
+if [ -f warm.txt ]; then
+  echo
+  echo "CPU seconds of each of $BENCH_WARM_RUNS runs of the job on $rows rows in one JVM, local[1], two rounds:"
+  cat warm.txt
+fi
