@@ -6,6 +6,7 @@ import java.util.ArrayList;
 import java.util.Iterator;
 import java.util.List;
 import java.util.NoSuchElementException;
+import org.apache.spark.TaskContext;
 import org.apache.spark.api.java.function.MapPartitionsFunction;
 import org.apache.spark.broadcast.Broadcast;
 import org.apache.spark.sql.Row;
@@ -43,7 +44,9 @@ final class PartitionScorer implements MapPartitionsFunction<Row, Row> {
 
     @Override
     public Iterator<Row> call(Iterator<Row> rows) {
-        return new Batches(BundleCache.get(sha256, bytes::value), rows);
+        TaskContext task = TaskContext.get();
+        boolean firstPartition = task == null || task.partitionId() == 0;
+        return new Batches(BundleCache.get(sha256, bytes::value), rows, firstPartition);
     }
 
     /** The scored rows of one partition, read and scored a batch at a time as they are asked for. */
@@ -57,30 +60,37 @@ final class PartitionScorer implements MapPartitionsFunction<Row, Row> {
         private final int[] scoredIndex = new int[BATCH_ROWS];
         private final List<String[]> texts = new ArrayList<>(BATCH_ROWS);
         private int next;
-        /** The layout's header row until it has been given out; given out only before a partition's first row. */
+        /**
+         * The layout's header row until it has been given out: before a partition's first row, and
+         * in the first partition even when it has none, so that a table without rows still gets a
+         * file with its header, as Spark's CSV writer writes one.
+         */
         private Row header;
+        private final boolean headerEvenIfEmpty;
 
-        Batches(Bundle bundle, Iterator<Row> input) {
+        Batches(Bundle bundle, Iterator<Row> input, boolean firstPartition) {
             this.bundle = bundle;
             this.input = input;
             this.scored = new ScoredRows(BATCH_ROWS, bundle.labels().size(), bundle.hasProbabilities());
             this.header = layout.header();
+            this.headerEvenIfEmpty = firstPartition;
         }
 
         @Override
         public boolean hasNext() {
-            if (next < batch.size()) {
+            if (next < batch.size() || headerDue()) {
                 return true;
             }
             return input.hasNext();
         }
 
+        private boolean headerDue() {
+            return header != null && (headerEvenIfEmpty || input.hasNext());
+        }
+
         @Override
         public Row next() {
-            if (header != null) {
-                if (!input.hasNext()) {
-                    throw new NoSuchElementException("no rows left in this partition");
-                }
+            if (headerDue()) {
                 Row first = header;
                 header = null;
                 return first;

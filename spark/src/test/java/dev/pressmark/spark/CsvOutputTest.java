@@ -118,6 +118,17 @@ class CsvOutputTest {
         }
     }
 
+    @Test
+    void a_table_without_rows_gives_a_file_with_the_header_alone() throws IOException {
+        Table out = score("routing:v1", "empty", List.of());
+
+        List<String> header = new ArrayList<>(List.of("title", "label", "score"));
+        Bundle.read(subwords).labels().forEach(label -> header.add("p:" + label));
+        header.add("version");
+        assertThat(out.header()).containsExactlyElementsOf(header);
+        assertThat(out.rows()).isEmpty();
+    }
+
     /**
      * {@code cell} reads back as exactly {@code value}, and no decimal with fewer significant digits
      * does: the nearest decimal of each shorter length is tried (the decimals that read back as
