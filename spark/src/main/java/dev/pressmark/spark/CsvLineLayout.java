@@ -10,8 +10,8 @@ import org.apache.spark.sql.RowFactory;
 /**
  * Each scored row as one line of CSV, for a text table (the job's {@code --format csv}): the
  * input's values, then {@code label}, {@code score}, {@code p:<label>} per label when the model
- * gives probabilities, and {@code version}, filled straight from the batch's scores; each
- * non-empty partition starts with the header line. The line is what {@code pressmark predict
+ * gives probabilities, and {@code version}, filled straight from the batch's scores; the header
+ * line goes first in each partition ({@link PartitionScorer} says which). The line is what {@code pressmark predict
  * --data} writes for the same row (its {@code CsvRowFormat}), with the version after it:
  *
  * <ul>
@@ -96,7 +96,7 @@ final class CsvLineLayout implements ScoredLayout {
         return RowFactory.create(ended(line));
     }
 
-    /** Appends {@code value} (null: nothing) and the separator after it to {@code line}. */
+    /** Appends {@code value} (null: an empty field) and the separator after it to {@code line}. */
     private static void field(StringBuilder line, String value) {
         if (value == null) {
             line.append(',');
