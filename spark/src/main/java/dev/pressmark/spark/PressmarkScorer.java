@@ -136,8 +136,8 @@ public final class PressmarkScorer implements AutoCloseable {
     /**
      * {@code frame} scored as the lines of a CSV file: one text column, each row the input's values
      * then {@code label}, {@code score}, {@code p:<label>} per label when the model gives
-     * probabilities, and {@code version}, as {@link CsvLineLayout} writes them; each non-empty
-     * partition starts with the header line. Fails at once when {@code frame} already has one of
+     * probabilities, and {@code version}, as {@link CsvLineLayout} writes them; the header line
+     * starts each non-empty partition and the first one. Fails at once when {@code frame} already has one of
      * the columns the prediction adds.
      */
     Dataset<Row> scoreAsCsvLines(Dataset<Row> frame) {
