@@ -75,6 +75,7 @@ public final class ScoreJob {
                 Dataset<Row> input = read(spark, options);
                 if (options.format() == ScoreOptions.Format.CSV) {
                     closing.scoreAsCsvLines(input).write().text(options.output());
+                    nameAsCsv(spark, options.output());
                 } else {
                     closing.score(input).write().parquet(options.output());
                 }
@@ -104,6 +105,31 @@ public final class ScoreJob {
             }
         } catch (IOException e) {
             throw new IllegalArgumentException("--output " + output + ": cannot check it: " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * Spark's text writer names its part files {@code .txt} and has no option for another
+     * extension; the job's lines are CSV, so once the output is complete its part files are
+     * renamed to {@code .csv}. A rename that fails leaves the file as it was and says which.
+     */
+    private static void nameAsCsv(SparkSession spark, String output) {
+        org.apache.hadoop.fs.Path dir = new org.apache.hadoop.fs.Path(output);
+        try {
+            FileSystem fs = dir.getFileSystem(spark.sparkContext().hadoopConfiguration());
+            for (org.apache.hadoop.fs.FileStatus file : fs.listStatus(dir)) {
+                String name = file.getPath().getName();
+                if (name.startsWith("part-") && name.endsWith(".txt")) {
+                    org.apache.hadoop.fs.Path csv = new org.apache.hadoop.fs.Path(dir, name.substring(0, name.length() - 4) + ".csv");
+                    if (!fs.rename(file.getPath(), csv)) {
+                        throw new IllegalArgumentException("--output " + output + ": written, but " + name + " could not be renamed to "
+                                + csv.getName());
+                    }
+                }
+            }
+        } catch (IOException e) {
+            throw new IllegalArgumentException("--output " + output + ": written, but its part files could not be renamed to .csv: "
+                    + e.getMessage(), e);
         }
     }
 

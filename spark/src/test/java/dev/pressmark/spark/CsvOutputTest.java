@@ -172,6 +172,7 @@ class CsvOutputTest {
         try (Stream<Path> files = Files.list(out)) {
             parts = files.filter(file -> file.getFileName().toString().startsWith("part-")).sorted().toList();
         }
+        assertThat(parts).isNotEmpty().allSatisfy(part -> assertThat(part.getFileName().toString()).endsWith(".csv"));
         CsvMapper csv = new CsvMapper().enable(CsvParser.Feature.WRAP_AS_ARRAY);
         for (Path part : parts) {
             try (MappingIterator<List<String>> lines = csv.readerForListOf(String.class).readValues(part.toFile())) {
