@@ -9,7 +9,14 @@
 #
 # The local command runs through ./pressmark (its JVM options) with --threads 1, so its rows/s is
 # per core. BENCH_REF_JOB=JAR also times the job from another pressmark-spark.jar (an earlier
-# build, say) in the same run, for a before/after ratio under the same load.
+# build, say) in the same run, for a before/after ratio under the same load. Each job's `local[1]`
+# CSV output is compared with the local command's (`--out`, an untimed run): equal when every line,
+# less the job's last column (`version`), is the same bytes.
+#
+# BENCH_WARM_RUNS=N also runs each job N times in one JVM (`local[1]`, a new Spark session per run)
+# and prints the process's CPU seconds per run: past the first two, the JIT has compiled the hot
+# code, so the figure is the job's own CPU for the rows with little start-up in it; CPU seconds
+# are what a busy machine disturbs least.
 set -euo pipefail
 root="$(cd "$(dirname "$0")/.." && pwd)"
 rows="${1:-1000000}"
@@ -59,6 +66,7 @@ spark_job() { # JAR MASTER INPUT OUTPUT
 load() { cut -d' ' -f1-3 /proc/loadavg; }
 
 local_s=$(seconds taskset -c 0 "$root/pressmark" predict routing.pmb --data titles.csv --threads 1); local_load=$(load)
+"$root/pressmark" predict routing.pmb --data titles.csv --threads 1 --out local.csv 2> /dev/null
 python3 - <<'PY'
 lines = open("titles.csv", encoding="utf-8").read().splitlines()
 header, body = lines[0], lines[1:]
@@ -76,10 +84,42 @@ measure_job() {
   s1=$(seconds spark_job "$1" 'local[1]' titles.csv out-1); l1=$(load | tr ' ' '/')
   f2=$(seconds spark_job "$1" 'local[2]' one.csv out-one-2)
   s2=$(seconds spark_job "$1" 'local[2]' titles4 out-2); l2=$(load | tr ' ' '/')
-  echo "$2 $f1 $s1 $l1 $f2 $s2 $l2 $(cat out-1/part-*.csv | grep -c '' || true)" >> jobs.txt
+  local same=differs
+  if cat out-1/part-* | sed 's/,[^,]*$//' | cmp -s - local.csv; then same=equal; fi
+  echo "$2 $f1 $s1 $l1 $f2 $s2 $l2 $(cat out-1/part-* | grep -c '' || true) $same" >> jobs.txt
 }
 if [ -n "${BENCH_REF_JOB:-}" ]; then measure_job "$BENCH_REF_JOB" reference; fi
 measure_job "$job" this
+cat > Warm.java <<'JAVA'
+import java.lang.management.ManagementFactory;
+/** ScoreJob.main ARGS[1].. run ARGS[0] times in this JVM; prints the process's CPU seconds per run. */
+public class Warm {
+    public static void main(String[] args) throws Exception {
+        var os = (com.sun.management.OperatingSystemMXBean) ManagementFactory.getOperatingSystemMXBean();
+        StringBuilder runs = new StringBuilder();
+        for (int i = 0; i < Integer.parseInt(args[0]); i++) {
+            String[] job = java.util.Arrays.copyOfRange(args, 1, args.length + 2);
+            job[job.length - 2] = "--output";
+            job[job.length - 1] = "warm-" + i;
+            long cpu = os.getProcessCpuTime();
+            Class.forName("dev.pressmark.spark.ScoreJob").getMethod("main", String[].class).invoke(null, (Object) job);
+            runs.append(String.format(" %.2f", (os.getProcessCpuTime() - cpu) / 1e9));
+        }
+        System.out.println(runs.toString().strip());
+    }
+}
+JAVA
+warm() { # JAR NAME: CPU seconds of each run
+  rm -rf warm-*
+  echo "$2: $(java $opts -Dspark.master='local[1]' -Dspark.driver.host=127.0.0.1 -Dspark.ui.enabled=false -cp "$1:$spark_cp" Warm.java \
+      "$BENCH_WARM_RUNS" --model routing:v2 --store "$store" --input titles.csv --format csv 2> run.log | tail -1) (load $(load))" >> warm.txt
+}
+if [ -n "${BENCH_WARM_RUNS:-}" ]; then
+  for round in 1 2; do
+    if [ -n "${BENCH_REF_JOB:-}" ]; then warm "$BENCH_REF_JOB" reference; fi
+    warm "$job" this
+  done
+fi
 python3 - "$rows" "$local_s" "$local_load" <<'PY'
 import sys
 rows = int(sys.argv[1]); local = float(sys.argv[2])
@@ -89,7 +129,7 @@ print("|---|---|---|---|---|")
 print(f"| `pressmark predict --data --threads 1` on CPU 0 | {local:.2f} | {rate(local)} | {rate(local)} | {sys.argv[3]} |")
 ratios = []
 for line in open("jobs.txt"):
-    name, fixed1, spark1, load1, fixed2, spark2, load2, lines = line.split()
+    name, fixed1, spark1, load1, fixed2, spark2, load2, lines, same = line.split()
     fixed1, spark1, fixed2, spark2 = map(float, (fixed1, spark1, fixed2, spark2))
     load1, load2 = load1.replace("/", " "), load2.replace("/", " ")
     print(f"| {name}: Spark job, `local[1]`, end to end | {spark1:.2f} | {rate(spark1)} | {rate(spark1)} | {load1} |")
@@ -98,8 +138,14 @@ for line in open("jobs.txt"):
     print(f"| {name}: Spark job, `local[2]`, less its one-row run ({fixed2:.2f} s) | {spark2 - fixed2:.2f} | {rate(spark2 - fixed2)} | {rows / (spark2 - fixed2) / 2:,.0f} | |")
     ratios.append(f"{name}: Spark per core / local predict per core, end to end: local[1] {local / spark1:.2f}x, local[2] {local / spark2 / 2:.2f}x; "
                   f"scoring only: local[1] {local / (spark1 - fixed1):.2f}x, local[2] {local / (spark2 - fixed2) / 2:.2f}x "
-                  f"(CSV lines written by local[1], header included: {lines})")
+                  f"(CSV lines written by local[1], header included: {lines}; less the version column, "
+                  f"{'byte for byte' if same == 'equal' else 'not'} the local command's output)")
 print()
 for r in ratios:
     print(r)
 PY
+if [ -f warm.txt ]; then
+  echo
+  echo "CPU seconds of each of $BENCH_WARM_RUNS runs of the job on $rows rows in one JVM, local[1], two rounds:"
+  cat warm.txt
+fi

@@ -4,23 +4,21 @@ import dev.pressmark.core.bundle.Bundle;
 import dev.pressmark.core.bundle.ScoredRows;
 import java.util.ArrayList;
 import java.util.Iterator;
-import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Map;
 import java.util.NoSuchElementException;
+import org.apache.spark.TaskContext;
 import org.apache.spark.api.java.function.MapPartitionsFunction;
 import org.apache.spark.broadcast.Broadcast;
 import org.apache.spark.sql.Row;
-import org.apache.spark.sql.RowFactory;
-import scala.jdk.javaapi.CollectionConverters;
 
 /**
  * Scores a partition a batch of rows at a time with {@link Bundle#score}, the batch path of
  * {@code pressmark predict --data}: one call per {@value #BATCH_ROWS} rows instead of a one-item
  * {@code Bundle.predict} per row, no map of texts, {@code Prediction} or feature matrix per row.
- * Each output row is the input row's values followed by the {@link PredictionColumn#TYPE} struct,
- * the same numbers as {@link PredictFunction} gives (Bundle.score and Bundle.predict decide in one
- * place). A row with a null text gets a null prediction, as the SQL function gives it.
+ * Each output row is the input row's values followed by the prediction as its {@link ScoredLayout}
+ * lays it out (the {@link PredictionColumn#TYPE} struct, or flat columns for CSV): the same numbers
+ * as {@link PredictFunction} gives (Bundle.score and Bundle.predict decide in one place). A row
+ * with a null text gets a null prediction, as the SQL function gives it.
  */
 final class PartitionScorer implements MapPartitionsFunction<Row, Row> {
 
@@ -31,22 +29,24 @@ final class PartitionScorer implements MapPartitionsFunction<Row, Row> {
 
     private final Broadcast<byte[]> bytes;
     private final String sha256;
-    private final String version;
+    private final ScoredLayout layout;
     /** Per input field of the bundle, in its order, the index of the column that holds its text. */
     private final int[] inputColumns;
     private final int maxTokensPerField;
 
-    PartitionScorer(Broadcast<byte[]> bytes, String sha256, String version, int[] inputColumns, int maxTokensPerField) {
+    PartitionScorer(Broadcast<byte[]> bytes, String sha256, ScoredLayout layout, int[] inputColumns, int maxTokensPerField) {
         this.bytes = bytes;
         this.sha256 = sha256;
-        this.version = version;
+        this.layout = layout;
         this.inputColumns = inputColumns.clone();
         this.maxTokensPerField = maxTokensPerField;
     }
 
     @Override
     public Iterator<Row> call(Iterator<Row> rows) {
-        return new Batches(BundleCache.get(sha256, bytes::value), rows);
+        TaskContext task = TaskContext.get();
+        boolean firstPartition = task == null || task.partitionId() == 0;
+        return new Batches(BundleCache.get(sha256, bytes::value), rows, firstPartition);
     }
 
     /** The scored rows of one partition, read and scored a batch at a time as they are asked for. */
@@ -55,30 +55,46 @@ final class PartitionScorer implements MapPartitionsFunction<Row, Row> {
         private final Bundle bundle;
         private final Iterator<Row> input;
         private final ScoredRows scored;
-        private final List<String> labels;
         private final List<Row> batch = new ArrayList<>(BATCH_ROWS);
         /** Per row of {@link #batch}, its index among the rows scored, or -1 for a row with a null text. */
         private final int[] scoredIndex = new int[BATCH_ROWS];
         private final List<String[]> texts = new ArrayList<>(BATCH_ROWS);
         private int next;
+        /**
+         * The layout's header row until it has been given out: before a partition's first row, and
+         * in the first partition even when it has none, so that a table without rows still gets a
+         * file with its header, as Spark's CSV writer writes one.
+         */
+        private Row header;
+        private final boolean headerEvenIfEmpty;
 
-        Batches(Bundle bundle, Iterator<Row> input) {
+        Batches(Bundle bundle, Iterator<Row> input, boolean firstPartition) {
             this.bundle = bundle;
             this.input = input;
-            this.labels = bundle.labels();
-            this.scored = new ScoredRows(BATCH_ROWS, labels.size(), bundle.hasProbabilities());
+            this.scored = new ScoredRows(BATCH_ROWS, bundle.labels().size(), bundle.hasProbabilities());
+            this.header = layout.header();
+            this.headerEvenIfEmpty = firstPartition;
         }
 
         @Override
         public boolean hasNext() {
-            if (next < batch.size()) {
+            if (next < batch.size() || headerDue()) {
                 return true;
             }
             return input.hasNext();
         }
 
+        private boolean headerDue() {
+            return header != null && (headerEvenIfEmpty || input.hasNext());
+        }
+
         @Override
         public Row next() {
+            if (headerDue()) {
+                Row first = header;
+                header = null;
+                return first;
+            }
             if (next == batch.size()) {
                 if (!input.hasNext()) {
                     throw new NoSuchElementException("no rows left in this partition");
@@ -86,8 +102,7 @@ final class PartitionScorer implements MapPartitionsFunction<Row, Row> {
                 readAndScore();
             }
             Row row = batch.get(next);
-            int k = scoredIndex[next++];
-            return withPrediction(row, k < 0 ? null : prediction(k));
+            return layout.row(row, scored, scoredIndex[next++]);
         }
 
         private void readAndScore() {
@@ -115,28 +130,6 @@ final class PartitionScorer implements MapPartitionsFunction<Row, Row> {
             }
             texts.add(text);
             return texts.size() - 1;
-        }
-
-        private Row prediction(int k) {
-            scala.collection.Map<String, Object> probabilities = null;
-            if (scored.hasProbabilities()) {
-                Map<String, Object> byLabel = new LinkedHashMap<>(labels.size() * 2);
-                for (int l = 0; l < labels.size(); l++) {
-                    byLabel.put(labels.get(l), scored.probability(k, l));
-                }
-                // the row encoder reads a map column as a Scala map
-                probabilities = CollectionConverters.asScala(byLabel);
-            }
-            return RowFactory.create(labels.get(scored.label(k)), scored.score(k), probabilities, version);
-        }
-
-        private Row withPrediction(Row row, Row prediction) {
-            Object[] values = new Object[row.length() + 1];
-            for (int c = 0; c < row.length(); c++) {
-                values[c] = row.get(c);
-            }
-            values[row.length()] = prediction;
-            return RowFactory.create(values);
         }
     }
 }

@@ -23,6 +23,7 @@ import org.apache.spark.sql.api.java.UDF7;
 import org.apache.spark.sql.api.java.UDF8;
 import org.apache.spark.sql.expressions.UserDefinedFunction;
 import org.apache.spark.sql.functions;
+import org.apache.spark.sql.types.DataTypes;
 import org.apache.spark.sql.types.StringType;
 import org.apache.spark.sql.types.StructField;
 import org.apache.spark.sql.types.StructType;
@@ -127,14 +128,41 @@ public final class PressmarkScorer implements AutoCloseable {
         if (Arrays.asList(frame.columns()).contains(name)) {
             throw new IllegalArgumentException("the DataFrame already has a column \"" + name + "\"; name the prediction column otherwise");
         }
+        StructType scored = frame.schema().add(name, PredictionColumn.TYPE, true);
+        return frame.mapPartitions(new PartitionScorer(shipped, sha256, new StructLayout(labels, version), inputColumns(frame),
+                maxTokensPerField), Encoders.row(scored));
+    }
+
+    /**
+     * {@code frame} scored as the lines of a CSV file: one text column, each row the input's values
+     * then {@code label}, {@code score}, {@code p:<label>} per label when the model gives
+     * probabilities, and {@code version}, as {@link CsvLineLayout} writes them; the header line
+     * starts each non-empty partition and the first one. Fails at once when {@code frame} already has one of
+     * the columns the prediction adds.
+     */
+    Dataset<Row> scoreAsCsvLines(Dataset<Row> frame) {
+        int[] inputColumns = inputColumns(frame);
+        List<String> names = Arrays.asList(frame.columns());
+        for (String added : CsvLineLayout.predictionColumns(labels, probabilities)) {
+            if (names.contains(added)) {
+                throw new IllegalArgumentException("the input already has a column \"" + added
+                        + "\", which the CSV output adds; rename it or write parquet");
+            }
+        }
+        CsvLineLayout layout = new CsvLineLayout(names, labels, probabilities, version);
+        StructType line = new StructType().add("value", DataTypes.StringType, false);
+        return frame.mapPartitions(new PartitionScorer(shipped, sha256, layout, inputColumns, maxTokensPerField), Encoders.row(line));
+    }
+
+    /** Per input field of the bundle, in its order, the index in {@code frame} of the text column it is read from. */
+    private int[] inputColumns(Dataset<Row> frame) {
         int[] inputColumns = new int[inputFields.size()];
         for (int f = 0; f < inputColumns.length; f++) {
             String column = columns.get(inputFields.get(f));
             requireTextColumn(frame, inputFields.get(f), column);
             inputColumns[f] = frame.schema().fieldIndex(column);
         }
-        StructType scored = frame.schema().add(name, PredictionColumn.TYPE, true);
-        return frame.mapPartitions(new PartitionScorer(shipped, sha256, version, inputColumns, maxTokensPerField), Encoders.row(scored));
+        return inputColumns;
     }
 
     /** The prediction of each row of {@code frame}, as a column to select or add. */

@@ -4,17 +4,10 @@ import dev.pressmark.core.PressmarkException;
 import dev.pressmark.store.BundleStore;
 import java.io.IOException;
 import java.io.PrintStream;
-import java.util.ArrayList;
-import java.util.Arrays;
-import java.util.List;
-import java.util.LinkedHashMap;
-import java.util.Map;
 import org.apache.hadoop.fs.FileSystem;
-import org.apache.spark.sql.Column;
 import org.apache.spark.sql.Dataset;
 import org.apache.spark.sql.Row;
 import org.apache.spark.sql.SparkSession;
-import org.apache.spark.sql.functions;
 
 /**
  * The job {@code spark-submit} runs: reads a table, scores it with a stored version and writes
@@ -30,11 +23,19 @@ public final class ScoreJob {
                      [--column FIELD=COLUMN]... [--max-tokens-per-field N]
               --model   the stored model, its active version unless :TAG is given
               --store   sqlite:PATH or jdbc:postgresql://HOST[:PORT]/DATABASE (default: env PRESSMARK_STORE)
-              --input   the table to score, in --format; CSV needs a header row and no line break inside a field
+              --input   the table to score, in --format; CSV (RFC 4180 quotes) needs a header row and no line break inside a field
               --output  where the scored table goes, in --format; it must not exist
               --format  parquet (default) or csv
               --column  read the bundle's input field FIELD from COLUMN (default: the column named FIELD)
               --max-tokens-per-field  tokens of each field that are scored (default 512, as the HTTP service)""";
+
+    /**
+     * RFC 4180 quoting, as {@code pressmark predict --data} reads it: a quote inside a quoted field
+     * is doubled. Spark's CSV default escapes it with a backslash instead, and so splits
+     * {@code "a ""b"", c"} into two fields. The output is written as lines of text
+     * ({@link CsvLineLayout}), quoted as {@code predict --data} quotes them.
+     */
+    private static final String CSV_QUOTE = "\"";
 
     private ScoreJob() {
     }
@@ -71,8 +72,13 @@ public final class ScoreJob {
                 scorer = scorer.withColumn(mapping.getKey(), mapping.getValue());
             }
             try (PressmarkScorer closing = scorer) {
-                Dataset<Row> scored = closing.score(read(spark, options));
-                write(options.format() == ScoreOptions.Format.CSV ? flattened(scored, closing) : scored, options);
+                Dataset<Row> input = read(spark, options);
+                if (options.format() == ScoreOptions.Format.CSV) {
+                    closing.scoreAsCsvLines(input).write().text(options.output());
+                    nameAsCsv(spark, options.output());
+                } else {
+                    closing.score(input).write().parquet(options.output());
+                }
             }
             return 0;
         } catch (PressmarkException | IllegalArgumentException e) {
@@ -86,42 +92,8 @@ public final class ScoreJob {
 
     private static Dataset<Row> read(SparkSession spark, ScoreOptions options) {
         return options.format() == ScoreOptions.Format.CSV
-                ? spark.read().option("header", "true").csv(options.input())
+                ? spark.read().option("header", "true").option("escape", CSV_QUOTE).csv(options.input())
                 : spark.read().parquet(options.input());
-    }
-
-    private static void write(Dataset<Row> scored, ScoreOptions options) {
-        if (options.format() == ScoreOptions.Format.CSV) {
-            scored.write().option("header", "true").csv(options.output());
-        } else {
-            scored.write().parquet(options.output());
-        }
-    }
-
-    /** The prediction struct as flat columns: {@code label}, {@code score}, {@code p:<label>} per label, {@code version}. */
-    private static Dataset<Row> flattened(Dataset<Row> scored, PressmarkScorer scorer) {
-        List<String> inputs = new ArrayList<>(Arrays.asList(scored.columns()));
-        inputs.remove(PredictionColumn.DEFAULT_NAME);
-        Map<String, Column> added = new LinkedHashMap<>();
-        String p = PredictionColumn.DEFAULT_NAME + ".";
-        added.put(PredictionColumn.LABEL, functions.col(p + PredictionColumn.LABEL));
-        added.put(PredictionColumn.SCORE, functions.col(p + PredictionColumn.SCORE));
-        if (scorer.hasProbabilities()) {
-            for (String label : scorer.labels()) {
-                added.put("p:" + label, functions.element_at(functions.col(p + PredictionColumn.PROBABILITIES), functions.lit(label)));
-            }
-        }
-        added.put(PredictionColumn.VERSION, functions.col(p + PredictionColumn.VERSION));
-        List<Column> columns = new ArrayList<>();
-        inputs.forEach(name -> columns.add(scored.col("`" + name.replace("`", "``") + "`")));
-        added.forEach((name, column) -> {
-            if (inputs.contains(name)) {
-                throw new IllegalArgumentException("the input already has a column \"" + name + "\", which the CSV output adds; "
-                        + "rename it or write parquet");
-            }
-            columns.add(column.as(name));
-        });
-        return scored.select(columns.toArray(Column[]::new));
     }
 
     private static void requireAbsent(SparkSession spark, String output) {
@@ -133,6 +105,31 @@ public final class ScoreJob {
             }
         } catch (IOException e) {
             throw new IllegalArgumentException("--output " + output + ": cannot check it: " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * Spark's text writer names its part files {@code .txt} and has no option for another
+     * extension; the job's lines are CSV, so once the output is complete its part files are
+     * renamed to {@code .csv}. A rename that fails leaves the file as it was and says which.
+     */
+    private static void nameAsCsv(SparkSession spark, String output) {
+        org.apache.hadoop.fs.Path dir = new org.apache.hadoop.fs.Path(output);
+        try {
+            FileSystem fs = dir.getFileSystem(spark.sparkContext().hadoopConfiguration());
+            for (org.apache.hadoop.fs.FileStatus file : fs.listStatus(dir)) {
+                String name = file.getPath().getName();
+                if (name.startsWith("part-") && name.endsWith(".txt")) {
+                    org.apache.hadoop.fs.Path csv = new org.apache.hadoop.fs.Path(dir, name.substring(0, name.length() - 4) + ".csv");
+                    if (!fs.rename(file.getPath(), csv)) {
+                        throw new IllegalArgumentException("--output " + output + ": written, but " + name + " could not be renamed to "
+                                + csv.getName());
+                    }
+                }
+            }
+        } catch (IOException e) {
+            throw new IllegalArgumentException("--output " + output + ": written, but its part files could not be renamed to .csv: "
+                    + e.getMessage(), e);
         }
     }
 

@@ -15,6 +15,7 @@ import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import java.util.Map;
 
 /**
  * Real bundles trained on the demo's invented listing titles, as {@code pressmark train} makes
@@ -50,6 +51,26 @@ final class TrainedBundles {
         return train(dir, "[{kind: words}, {kind: char-ngrams, min_n: 2, max_n: 3}]", "none");
     }
 
+    /**
+     * As {@link #subwords}, trained on the same titles with each department renamed by
+     * {@code labels} (departments it does not name keep their own name).
+     */
+    static byte[] subwordsWithLabels(Path dir, Map<String, String> labels) {
+        try {
+            Path data = dir.resolve("relabelled.csv");
+            try (Writer out = Files.newBufferedWriter(data, StandardCharsets.UTF_8)) {
+                out.write("title,department\r\n");
+                for (ListingTitles.Listing listing : ListingTitles.generate(ROWS, SEED)) {
+                    String label = labels.getOrDefault(listing.department(), listing.department());
+                    out.write(quoted(listing.title()) + "," + quoted(label) + "\r\n");
+                }
+            }
+            return trainOn(data, "{kind: wordpiece, vocab_size: 600}", "platt");
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
     /** Titles the bundles have never seen: the same generator under another seed. */
     static List<String> unseenTitles(int count) {
         List<String> titles = new ArrayList<>(count);
@@ -67,11 +88,20 @@ final class TrainedBundles {
                     ListingTitles.writeCsv(ListingTitles.generate(ROWS, SEED), out);
                 }
             }
-            TrainPlan plan = TrainPlan.parse(String.format(Locale.ROOT, CONFIG, SEED, tokenizer, probabilities), "test config");
-            LabelledData rows = LabelledData.read(data, plan.config().data().text(), plan.config().data().label(), false);
-            return BundleTrainer.train(plan, rows, CREATED, Progress.NONE).bytes();
+            return trainOn(data, tokenizer, probabilities);
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
+    }
+
+    /** RFC 4180: in quotes, a quote doubled. */
+    static String quoted(String value) {
+        return '"' + value.replace("\"", "\"\"") + '"';
+    }
+
+    private static byte[] trainOn(Path data, String tokenizer, String probabilities) {
+        TrainPlan plan = TrainPlan.parse(String.format(Locale.ROOT, CONFIG, SEED, tokenizer, probabilities), "test config");
+        LabelledData rows = LabelledData.read(data, plan.config().data().text(), plan.config().data().label(), false);
+        return BundleTrainer.train(plan, rows, CREATED, Progress.NONE).bytes();
     }
 }
