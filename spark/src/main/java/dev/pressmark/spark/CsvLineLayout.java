@@ -1,7 +1,7 @@
 package dev.pressmark.spark;
 
-import com.fasterxml.jackson.core.io.NumberOutput;
 import dev.pressmark.core.bundle.ScoredRows;
+import dev.pressmark.core.io.DoubleDigits;
 import java.util.ArrayList;
 import java.util.List;
 import org.apache.spark.sql.Row;
@@ -15,10 +15,10 @@ import org.apache.spark.sql.RowFactory;
  * --data} writes for the same row (its {@code CsvRowFormat}), with the version after it:
  *
  * <ul>
- *   <li>numbers in the shortest digits that read back as the same double (Jackson's
- *       {@code NumberOutput}, Giulietti's Schubfach), in {@link Double#toString(double)}'s
- *       layout; JDK 17's own {@code Double.toString}, which Spark's CSV writer calls, is several
- *       times slower and sometimes writes a digit more;
+ *   <li>numbers in the shortest digits that read back as the same double ({@link DoubleDigits},
+ *       Giulietti's Schubfach, the digits of Jackson's writer), in
+ *       {@link Double#toString(double)}'s layout; JDK 17's own {@code Double.toString}, which
+ *       Spark's CSV writer calls, is several times slower and sometimes writes a digit more;
  *   <li>RFC 4180 quoting by the rule of Jackson's CSV writer with its default settings
  *       ({@code CsvEncoder}): a value longer than {@value #MAX_QUOTE_CHECK_CHARS} chars is quoted,
  *       a shorter one when it holds a char below {@code '-'} (separator, quote, line break, space,
@@ -78,6 +78,7 @@ final class CsvLineLayout implements ScoredLayout {
     @Override
     public Row row(Row input, ScoredRows scored, int k) {
         StringBuilder line = new StringBuilder(LINE_CHARS_GUESS);
+        byte[] digits = new byte[DoubleDigits.MAX_BYTES];
         for (int c = 0; c < input.length(); c++) {
             field(line, input.isNullAt(c) ? null : input.get(c).toString());
         }
@@ -87,9 +88,9 @@ final class CsvLineLayout implements ScoredLayout {
             }
         } else {
             field(line, labels.get(scored.label(k)));
-            field(line, NumberOutput.toString(scored.score(k), true));
+            number(line, scored.score(k), digits);
             for (int l = 0; probabilities && l < labels.size(); l++) {
-                field(line, NumberOutput.toString(scored.probability(k, l), true));
+                number(line, scored.probability(k, l), digits);
             }
             field(line, version);
         }
@@ -112,6 +113,15 @@ final class CsvLineLayout implements ScoredLayout {
             }
             line.append(value, from, value.length()).append("\",");
         }
+    }
+
+    /** Appends {@code value}'s shortest digits, which never need quotes, and the separator. */
+    private static void number(StringBuilder line, double value, byte[] digits) {
+        int length = DoubleDigits.write(value, digits, 0);
+        for (int i = 0; i < length; i++) {
+            line.append((char) digits[i]);
+        }
+        line.append(',');
     }
 
     /** {@code line} without the separator after its last field. */
