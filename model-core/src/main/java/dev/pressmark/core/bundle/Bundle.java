@@ -12,7 +12,6 @@ import dev.pressmark.core.feature.SparseMatrix;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.Comparator;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -39,6 +38,7 @@ public final class Bundle {
     private final TextPipeline pipeline;
     private final ModelWeights model;
     private final LinearClassifier classifier;
+    private final InterleavedWeights interleaved;
     private final JsonNode profile;
     private final ThreadLocal<Scratch> scratch;
 
@@ -50,6 +50,11 @@ public final class Bundle {
         this.pipeline = pipeline;
         this.model = model;
         this.classifier = model.classifier();
+        if (pipeline.features().featureCount() != model.weights().numFeatures()) {
+            throw new IllegalArgumentException(pipeline.features().featureCount() + " features but weights for "
+                    + model.weights().numFeatures());
+        }
+        this.interleaved = new InterleavedWeights(model.weights());
         this.profile = profile;
         this.scratch = ThreadLocal.withInitial(() -> new Scratch(pipeline));
     }
@@ -218,19 +223,11 @@ public final class Bundle {
         requirePositive(maxTokensPerField);
         List<String[]> rows = rows(items);
         Scratch scratch = this.scratch.get();
-        SparseMatrix.Builder builder = SparseMatrix.builder(pipeline.features().featureCount());
-        int[] unknown = new int[rows.size()];
-        int[] cut = new int[rows.size()];
-        for (int i = 0; i < rows.size(); i++) {
-            int length = scratch.encoder.encode(rows.get(i), maxTokensPerField, scratch.cols, scratch.vals);
-            builder.addRow(Arrays.copyOf(scratch.cols, length), Arrays.copyOf(scratch.vals, length));
-            unknown[i] = scratch.encoder.unknownTokens();
-            cut[i] = scratch.encoder.droppedTokens();
-        }
-        SparseMatrix x = builder.build();
         List<Prediction> predictions = new ArrayList<>(rows.size());
         for (int i = 0; i < rows.size(); i++) {
-            predictions.add(prediction(x, i, unknown[i], cut[i]));
+            int length = scratch.encoder.encode(rows.get(i), maxTokensPerField, scratch.cols, scratch.vals);
+            predictions.add(prediction(scratch.cols, scratch.vals, length, scratch.encoder.unknownTokens(),
+                    scratch.encoder.droppedTokens()));
         }
         return predictions;
     }
@@ -250,23 +247,19 @@ public final class Bundle {
                     + " labels " + (hasProbabilities() ? "with" : "without") + " probabilities");
         }
         int fields = pipeline.columns().size();
-        Scratch scratch = this.scratch.get();
-        SparseMatrix.Builder builder = SparseMatrix.builder(pipeline.features().featureCount());
         for (int i = 0; i < rows.size(); i++) {
-            String[] row = rows.get(i);
-            if (row.length != fields) {
-                throw new IllegalArgumentException("row " + i + " has " + row.length + " texts; this model reads " + fields);
+            if (rows.get(i).length != fields) {
+                throw new IllegalArgumentException("row " + i + " has " + rows.get(i).length + " texts; this model reads " + fields);
             }
-            int length = scratch.encoder.encode(row, maxTokensPerField, scratch.cols, scratch.vals);
-            builder.addRow(Arrays.copyOf(scratch.cols, length), Arrays.copyOf(scratch.vals, length));
-            out.unknownTokens[i] = scratch.encoder.unknownTokens();
-            out.truncatedTokens[i] = scratch.encoder.droppedTokens();
         }
-        SparseMatrix x = builder.build();
+        Scratch scratch = this.scratch.get();
         double[] scores = new double[model.weights().numScores()];
         double[] p = new double[hasProbabilities() ? labels.size() : 0];
         for (int i = 0; i < rows.size(); i++) {
-            int predicted = decide(x, i, scores, p);
+            int length = scratch.encoder.encode(rows.get(i), maxTokensPerField, scratch.cols, scratch.vals);
+            out.unknownTokens[i] = scratch.encoder.unknownTokens();
+            out.truncatedTokens[i] = scratch.encoder.droppedTokens();
+            int predicted = decide(scratch.cols, scratch.vals, length, scores, p);
             out.label[i] = predicted;
             out.score[i] = scoreOf(scores, predicted);
             System.arraycopy(p, 0, out.probabilities, i * p.length, p.length);
@@ -322,7 +315,14 @@ public final class Bundle {
         List<List<List<String>>> tokens = cutTokens.rows();
         int[] cut = cutTokens.dropped();
         SparseMatrix x = pipeline.features().transform(tokens);
-        Prediction prediction = prediction(x, 0, pipeline.unknownTokens(tokens.get(0)), cut[0]);
+        int length = x.rowEnd(0) - x.rowStart(0);
+        int[] cols = new int[length];
+        double[] vals = new double[length];
+        for (int at = 0; at < length; at++) {
+            cols[at] = x.column(x.rowStart(0) + at);
+            vals[at] = x.value(x.rowStart(0) + at);
+        }
+        Prediction prediction = prediction(cols, vals, length, pipeline.unknownTokens(tokens.get(0)), cut[0]);
         LinearWeights weights = model.weights();
         int predicted = labels.indexOf(prediction.label());
         int score = weights.numScores() == 1 ? 0 : predicted;
@@ -337,10 +337,10 @@ public final class Bundle {
         return new Explanation(prediction, sign * weights.intercept(score), all.subList(0, Math.min(k, all.size())), all.size());
     }
 
-    private Prediction prediction(SparseMatrix x, int row, int unknownTokens, int truncatedTokens) {
+    private Prediction prediction(int[] cols, double[] vals, int length, int unknownTokens, int truncatedTokens) {
         double[] scores = new double[model.weights().numScores()];
         double[] p = classifier instanceof ProbabilisticClassifier ? new double[labels.size()] : null;
-        int predicted = decide(x, row, scores, p);
+        int predicted = decide(cols, vals, length, scores, p);
         Map<String, Double> probabilities = null;
         if (p != null) {
             probabilities = new LinkedHashMap<>();
@@ -352,18 +352,19 @@ public final class Bundle {
     }
 
     /**
-     * Writes the decision values of {@code row} into {@code scores} and, when the model gives them,
-     * its probabilities into {@code probabilities}; returns the predicted label's index. The one
-     * place both {@link #predict} and {@link #score} decide, so that they agree bit for bit.
+     * Writes the decision values of the feature row {@code cols}, {@code vals} ({@code length}
+     * entries) into {@code scores} and, when the model gives them, its probabilities into
+     * {@code probabilities}; returns the predicted label's index. The one place {@link #predict},
+     * {@link #score} and {@link #explain} decide, so that they agree bit for bit. The dot products
+     * are taken once, over the interleaved weights, and the label and probabilities come from them,
+     * the same bits as the classifier's own {@code predict} and {@code probabilities} give.
      */
-    private int decide(SparseMatrix x, int row, double[] scores, double[] probabilities) {
-        LinearWeights weights = model.weights();
-        weights.decisionValues(x, row, scores);
-        int predicted = weights.predict(x, row);
+    private int decide(int[] cols, double[] vals, int length, double[] scores, double[] probabilities) {
+        interleaved.decisionValues(cols, vals, length, scores);
         if (classifier instanceof ProbabilisticClassifier probabilistic) {
-            probabilistic.probabilities(x, row, probabilities);
+            probabilistic.probabilitiesOf(scores, probabilities);
         }
-        return predicted;
+        return InterleavedWeights.predicted(scores);
     }
 
     /** The decision value for the predicted label: a binary model's margin signed towards it. */

@@ -1,6 +1,5 @@
 package dev.pressmark.core.classify;
 
-import dev.pressmark.core.feature.SparseMatrix;
 import java.util.List;
 import java.util.Objects;
 
@@ -32,12 +31,10 @@ public record CalibratedClassifier<M extends LinearClassifier>(M model, List<Pla
     }
 
     @Override
-    public void probabilities(SparseMatrix x, int row, double[] out) {
-        LinearWeights weights = model.weights();
-        double[] logits = new double[weights.numScores()];
-        weights.decisionValues(x, row, logits);
+    public void probabilitiesOf(double[] decisionValues, double[] out) {
+        double[] logits = new double[decisionValues.length];
         for (int k = 0; k < logits.length; k++) {
-            logits[k] = scalings.get(k).logit(logits[k]);
+            logits[k] = scalings.get(k).logit(decisionValues[k]);
         }
         Logistic.probabilities(logits, logits.length, out);
     }

@@ -1,7 +1,5 @@
 package dev.pressmark.core.classify;
 
-import dev.pressmark.core.feature.SparseMatrix;
-
 /** The logistic function and its relatives in forms that neither overflow nor cancel. */
 final class Logistic {
 
@@ -33,12 +31,6 @@ final class Logistic {
      * versus rest) each class gets {@code sigmoid(t[k])}, normalised so that the K sum to 1, the
      * normalisation done on logarithms so that it survives every class being very unlikely.
      */
-    static void probabilities(LinearWeights weights, SparseMatrix x, int row, double[] out) {
-        double[] logits = new double[weights.numScores()];
-        weights.decisionValues(x, row, logits);
-        probabilities(logits, logits.length, out);
-    }
-
     static void probabilities(double[] logits, int scores, double[] out) {
         if (scores == 1) {
             out[1] = sigmoid(logits[0]);

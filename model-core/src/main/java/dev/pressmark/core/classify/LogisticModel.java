@@ -1,6 +1,5 @@
 package dev.pressmark.core.classify;
 
-import dev.pressmark.core.feature.SparseMatrix;
 import java.util.Optional;
 
 /**
@@ -31,8 +30,8 @@ public final class LogisticModel implements ProbabilisticClassifier {
     }
 
     @Override
-    public void probabilities(SparseMatrix x, int row, double[] out) {
-        Logistic.probabilities(weights, x, row, out);
+    public void probabilitiesOf(double[] decisionValues, double[] out) {
+        Logistic.probabilities(decisionValues, decisionValues.length, out);
     }
 
     public LogisticConfig config() {

@@ -1,6 +1,5 @@
 package dev.pressmark.core.classify;
 
-import dev.pressmark.core.feature.SparseMatrix;
 import java.util.Objects;
 
 /**
@@ -16,7 +15,7 @@ public record StoredLogisticModel(LinearWeights weights) implements Probabilisti
     }
 
     @Override
-    public void probabilities(SparseMatrix x, int row, double[] out) {
-        Logistic.probabilities(weights, x, row, out);
+    public void probabilitiesOf(double[] decisionValues, double[] out) {
+        Logistic.probabilities(decisionValues, decisionValues.length, out);
     }
 }

@@ -5,7 +5,24 @@ import java.util.Arrays;
 /** The numeric loops of weighting and scaling, over primitive arrays. */
 final class FeatureKernels {
 
+    /** Counts below this take their sublinear weight from {@link #SUBLINEAR}. */
+    private static final int SUBLINEAR_TABLE = 256;
+    /** {@code 1 + ln c} for {@code c < SUBLINEAR_TABLE}, computed by the same {@link Math#log}, so the same bits. */
+    private static final double[] SUBLINEAR = sublinearTable();
+
     private FeatureKernels() {
+    }
+
+    private static double[] sublinearTable() {
+        double[] table = new double[SUBLINEAR_TABLE];
+        for (int c = 1; c < SUBLINEAR_TABLE; c++) {
+            table[c] = sublinear(c);
+        }
+        return table;
+    }
+
+    private static double sublinear(int count) {
+        return 1.0 + Math.log(count);
     }
 
     /** {@code ln((1 + n) / (1 + df)) + 1}; see {@link Weighting#TFIDF}. */
@@ -18,6 +35,11 @@ final class FeatureKernels {
      * {@code vals[k]}, reading its occurrence count from {@code counts[cols[k]]} and setting that
      * count back to 0, so that the dense scratch is clean for the next row.
      *
+     * <p>Most features of a short row occur once, so the weighted counts and their quotients by
+     * the row's length repeat from feature to feature: the logarithms of small counts come from a
+     * table, and a quotient is taken again only when the value before it differs. Every value is
+     * still the same operation on the same operands, so the same bits.
+     *
      * @param sublinear count {@code c} as {@code 1 + ln c} (scikit-learn's {@code sublinear_tf})
      * @param rowTokens the number of tokens in the row, selected or not; &gt; 0 whenever
      *     {@code length} is
@@ -28,18 +50,15 @@ final class FeatureKernels {
         double tokens = rowTokens;
         for (int k = 0; k < length; k++) {
             int c = counts[cols[k]];
-            vals[k] = sublinear ? 1.0 + Math.log(c) : c;
+            vals[k] = !sublinear ? c : c < SUBLINEAR_TABLE ? SUBLINEAR[c] : sublinear(c);
         }
         switch (weighting) {
             case COUNT -> { }
-            case TF -> {
-                for (int k = 0; k < length; k++) {
-                    vals[k] /= tokens;
-                }
-            }
+            case TF -> dividePerValue(vals, length, tokens);
             case TFIDF -> {
+                dividePerValue(vals, length, tokens);
                 for (int k = 0; k < length; k++) {
-                    vals[k] = vals[k] / tokens * idf[cols[k]];
+                    vals[k] *= idf[cols[k]];
                 }
             }
             case BINARY -> {
@@ -50,6 +69,24 @@ final class FeatureKernels {
             default -> throw new IllegalArgumentException("unknown weighting " + weighting);
         }
         clear(counts, cols, length);
+    }
+
+    /**
+     * {@code vals[k] /= tokens} for the first {@code length} entries, dividing only when the value
+     * differs from the one before: the values are weighted counts, positive and finite, so equal
+     * values are equal bits and give equal quotients.
+     */
+    private static void dividePerValue(double[] vals, int length, double tokens) {
+        double last = Double.NaN;
+        double quotient = Double.NaN;
+        for (int k = 0; k < length; k++) {
+            double v = vals[k];
+            if (v != last) {
+                last = v;
+                quotient = v / tokens;
+            }
+            vals[k] = quotient;
+        }
     }
 
     /** Sets {@code counts[cols[k]]} to 0 for the first {@code length} entries of {@code cols}. */
