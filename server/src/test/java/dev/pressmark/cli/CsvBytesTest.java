@@ -57,7 +57,7 @@ class CsvBytesTest {
     Arbitrary<Double> doubles() {
         return Arbitraries.oneOf(
                 Arbitraries.longs().map(Double::longBitsToDouble),
-                Arbitraries.doubles().between(0, 1),
+                Arbitraries.doubles().between(0, 1).ofScale(17),
                 Arbitraries.of(-Double.MIN_NORMAL, -Double.MAX_VALUE, Double.MIN_VALUE, -0.0, Double.NaN,
                         Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY, -2.2250738585072014E-308, 1e-7, 1e21));
     }

@@ -90,8 +90,8 @@ class DoubleDigitsTest {
     Arbitrary<Double> doubles() {
         return Arbitraries.oneOf(
                 Arbitraries.longs().map(Double::longBitsToDouble),
-                Arbitraries.doubles().between(0, 1),
-                Arbitraries.doubles().between(-1e9, 1e9),
+                Arbitraries.doubles().between(0, 1).ofScale(17),
+                Arbitraries.doubles().between(-1e9, 1e9).ofScale(8),
                 Arbitraries.longs().between(-(1L << 53), 1L << 53).map(Long::doubleValue));
     }
 
