@@ -16,6 +16,8 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
 import java.util.SplittableRandom;
+import dev.pressmark.core.evaluate.Resampling;
+import net.jqwik.api.Assume;
 import net.jqwik.api.ForAll;
 import net.jqwik.api.Property;
 import net.jqwik.api.constraints.IntRange;
@@ -141,11 +143,25 @@ class DuplicateTextsTest {
                 .isEqualTo(inTest.entrySet().stream().filter(e -> inTrain.containsKey(e.getKey())).mapToInt(Map.Entry::getValue).sum());
     }
 
+    /**
+     * The run on random rows; a draw where some label has fewer groups than folds is refused by
+     * the run, rightly ({@code folds-exceed-class-groups}, tested on its own), and is not a case for
+     * these properties, so it is rejected and another drawn.
+     */
+    private static TrainingRun.Result runOrReject(TrainConfig config, LabelledData data) {
+        try {
+            return new TrainingRun(config, data).run(Progress.NONE);
+        } catch (PressmarkException e) {
+            Assume.that(!Resampling.FOLDS_EXCEED_CLASS_GROUPS.equals(e.code()));
+            throw e;
+        }
+    }
+
     @Property(tries = 25)
     void group_never_puts_one_text_on_both_sides_or_in_two_folds(
             @ForAll long seed, @ForAll @IntRange(min = 60, max = 160) int count) {
         LabelledData data = rows(seed, count, 30, false);
-        TrainingRun.Result result = new TrainingRun(config("{text: [title], duplicates: group}"), data).run(Progress.NONE);
+        TrainingRun.Result result = runOrReject(config("{text: [title], duplicates: group}"), data);
         Map<String, Integer> placeOfText = new HashMap<>();
         for (int row = 0; row < data.rows(); row++) {
             int place = result.foldOfRow()[row];
@@ -161,7 +177,7 @@ class DuplicateTextsTest {
             @ForAll long seed, @ForAll @IntRange(min = 60, max = 160) int count) {
         LabelledData data = rows(seed, count, 40, true);
         TrainConfig config = config("{text: [title], group: seller, duplicates: group}");
-        TrainingRun.Result result = new TrainingRun(config, data).run(Progress.NONE);
+        TrainingRun.Result result = runOrReject(config, data);
         Map<String, Integer> placeOfKey = new HashMap<>();
         for (int row = 0; row < data.rows(); row++) {
             int place = result.foldOfRow()[row];
