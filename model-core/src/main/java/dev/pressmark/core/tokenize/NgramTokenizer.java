@@ -41,38 +41,59 @@ public final class NgramTokenizer implements Tokenizer {
         return n;
     }
 
+    /**
+     * Hands over the same tokens as {@link #tokenize}, in the same order, without a string each: the
+     * unigrams are copied once into one buffer, joined by {@link #JOIN}, so every n-gram of
+     * consecutive unigrams is already a span of that buffer.
+     */
     @Override
     public int scan(String text, int maxTokens, Spans sink) {
         if (n == 1) {
             return tokens.scan(text, maxTokens, sink);
         }
-        List<String> unigrams = tokens.tokenize(text);
-        StringBuilder gram = new StringBuilder();
+        Joined unigrams = new Joined(text.length());
+        tokens.scan(text, Integer.MAX_VALUE, unigrams);
         int emitted = 0;
         int total = 0;
-        for (int i = 0; i < unigrams.size(); i++) {
+        for (int i = 0; i < unigrams.count; i++) {
             for (int order = 1; order <= n && order <= i + 1; order++) {
                 total++;
                 if (emitted == maxTokens) {
                     continue;
                 }
                 emitted++;
-                if (order == 1) {
-                    String unigram = unigrams.get(i);
-                    sink.token(unigram, 0, unigram.length());
-                    continue;
-                }
-                gram.setLength(0);
-                for (int t = i - order + 1; t <= i; t++) {
-                    if (t > i - order + 1) {
-                        gram.append(JOIN);
-                    }
-                    gram.append(unigrams.get(t));
-                }
-                sink.token(gram, 0, gram.length());
+                sink.token(unigrams.buffer, unigrams.starts[i - order + 1], unigrams.ends[i]);
             }
         }
         return total - emitted;
+    }
+
+    /** The unigrams of a text end to end in one buffer, one {@link #JOIN} between each two, with their bounds. */
+    private static final class Joined implements Spans {
+
+        final StringBuilder buffer;
+        int[] starts = new int[16];
+        int[] ends = new int[16];
+        int count;
+
+        Joined(int capacity) {
+            buffer = new StringBuilder(capacity + 16);
+        }
+
+        @Override
+        public void token(CharSequence chars, int start, int end) {
+            if (count == starts.length) {
+                starts = java.util.Arrays.copyOf(starts, 2 * count);
+                ends = java.util.Arrays.copyOf(ends, 2 * count);
+            }
+            if (count > 0) {
+                buffer.append(JOIN);
+            }
+            starts[count] = buffer.length();
+            buffer.append(chars, start, end);
+            ends[count] = buffer.length();
+            count++;
+        }
     }
 
     @Override
