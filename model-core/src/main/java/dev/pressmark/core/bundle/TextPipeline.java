@@ -25,10 +25,16 @@ public final class TextPipeline {
     private final List<TokenizerSpec> views;
     private final Tokenizer tokenizer;
     private final FeatureSpace features;
-    /** Per text column and view, the features of that view's tokens; built on first use. */
-    private volatile SpanIndex[][] spanIndex;
-    /** Per text column and WordPiece view, the feature of each vocabulary id; built with {@link #spanIndex}. */
-    private volatile int[][][] featureOfId;
+    /** The tables a row encoder looks features up in; built once, on first use. */
+    private volatile Lookups lookups;
+    private final Object lookupsLock = new Object();
+
+    /**
+     * @param index per text column and view, the features of that view's tokens
+     * @param featureOfId per text column and WordPiece view, the feature of each vocabulary id
+     */
+    private record Lookups(SpanIndex[][] index, int[][][] featureOfId) {
+    }
 
     public TextPipeline(List<TokenizerSpec> views, Tokenizer tokenizer, FeatureSpace features) {
         this.views = List.copyOf(views);
@@ -54,19 +60,28 @@ public final class TextPipeline {
     /** A new encoder of rows of text straight into feature rows; for one thread at a time. */
     public RowEncoder rowEncoder() {
         List<Tokenizer> viewTokenizers = viewTokenizers();
-        int[][][] ids = featureOfId;
-        SpanIndex[][] index = spanIndex;
-        if (ids == null || index == null) {
-            index = buildSpanIndex();
-            ids = featuresOfIds(viewTokenizers, index);
-            spanIndex = index;
-            featureOfId = ids;
-        }
+        Lookups tables = lookups(viewTokenizers);
         boolean[] wordPiece = new boolean[views.size()];
         for (int v = 0; v < wordPiece.length; v++) {
             wordPiece[v] = views.get(v).isWordPiece();
         }
-        return new RowEncoder(features.encoder(), viewTokenizers, index, ids, wordPiece);
+        return new RowEncoder(features.encoder(), viewTokenizers, tables.index(), tables.featureOfId(), wordPiece);
+    }
+
+    /** The lookup tables, built by the first caller; threads that ask meanwhile wait rather than build them again. */
+    private Lookups lookups(List<Tokenizer> viewTokenizers) {
+        Lookups built = lookups;
+        if (built == null) {
+            synchronized (lookupsLock) {
+                built = lookups;
+                if (built == null) {
+                    SpanIndex[][] index = buildSpanIndex();
+                    built = new Lookups(index, featuresOfIds(viewTokenizers, index));
+                    lookups = built;
+                }
+            }
+        }
+        return built;
     }
 
     /**
