@@ -1,5 +1,6 @@
 package dev.pressmark.cli;
 
+import dev.pressmark.core.io.CsvQuoting;
 import dev.pressmark.core.io.DoubleDigits;
 import java.util.Arrays;
 
@@ -8,18 +9,13 @@ import java.util.Arrays;
  * (jackson-dataformat-csv 2.x, {@code CsvEncoder}: comma, double quote, line feed, no escape
  * character), so that {@code predict} writes the same bytes as it did through Jackson, without a
  * char buffer and a writer between the values and the bytes. {@code CsvBytesTest} checks the bytes
- * against Jackson's own writer.
- *
- * <p>Jackson's rule: a value longer than {@value #MAX_QUOTE_CHECK_CHARS} chars is quoted; a shorter
- * one is quoted when it holds a char below {@code '-'} (the separator, the quote, the line break,
- * space, control characters) or a backslash. A quoted value doubles its quotes.
+ * against Jackson's own writer. Which values are quoted is {@link CsvQuoting}'s rule, shared with
+ * the Spark job's CSV lines; a quoted value doubles its quotes.
  */
 final class CsvBytes {
 
-    /** Jackson's {@code CsvEncoder}: values longer than this are quoted without looking at them. */
-    static final int MAX_QUOTE_CHECK_CHARS = 24;
-    /** Jackson's {@code CsvEncoder}: one above the highest of separator, quote and line break. */
-    private static final char MIN_SAFE_CHAR = ',' + 1;
+    /** Values longer than this are quoted without being looked at ({@link CsvQuoting}). */
+    static final int MAX_QUOTE_CHECK_CHARS = CsvQuoting.MAX_QUOTE_CHECK_CHARS;
 
     private byte[] bytes;
     private int size;
@@ -36,7 +32,7 @@ final class CsvBytes {
             bytes[size++] = ',';
         }
         rowStarted = true;
-        if (needsQuotes(value)) {
+        if (CsvQuoting.needsQuotes(value)) {
             quoted(value);
         } else {
             utf8(value);
@@ -70,19 +66,6 @@ final class CsvBytes {
         return Arrays.copyOf(bytes, size);
     }
 
-    static boolean needsQuotes(String value) {
-        int length = value.length();
-        if (length > MAX_QUOTE_CHECK_CHARS) {
-            return true;
-        }
-        for (int i = 0; i < length; i++) {
-            char c = value.charAt(i);
-            if (c < MIN_SAFE_CHAR || c == '\\') {
-                return true;
-            }
-        }
-        return false;
-    }
 
     private void quoted(String value) {
         ensure(1);

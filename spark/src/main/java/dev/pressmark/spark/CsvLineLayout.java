@@ -1,6 +1,7 @@
 package dev.pressmark.spark;
 
 import dev.pressmark.core.bundle.ScoredRows;
+import dev.pressmark.core.io.CsvQuoting;
 import dev.pressmark.core.io.DoubleDigits;
 import java.util.ArrayList;
 import java.util.List;
@@ -20,9 +21,8 @@ import org.apache.spark.sql.RowFactory;
  *       {@link Double#toString(double)}'s layout; JDK 17's own {@code Double.toString}, which
  *       Spark's CSV writer calls, is several times slower and sometimes writes a digit more;
  *   <li>RFC 4180 quoting by the rule of Jackson's CSV writer with its default settings
- *       ({@code CsvEncoder}): a value longer than {@value #MAX_QUOTE_CHECK_CHARS} chars is quoted,
- *       a shorter one when it holds a char below {@code '-'} (separator, quote, line break, space,
- *       control characters) or a backslash; a quoted value doubles its quotes.
+ *       ({@link CsvQuoting}, shared with {@code predict --data}); a quoted value doubles its
+ *       quotes.
  * </ul>
  *
  * A null value (a null input cell; the prediction of a row with a null text) is an empty field,
@@ -31,10 +31,8 @@ import org.apache.spark.sql.RowFactory;
  */
 final class CsvLineLayout implements ScoredLayout {
 
-    /** Jackson's {@code CsvEncoder}: values longer than this are quoted without looking at them. */
-    static final int MAX_QUOTE_CHECK_CHARS = 24;
-    /** Jackson's {@code CsvEncoder}: one above the highest of separator, quote and line break. */
-    private static final char MIN_SAFE_CHAR = ',' + 1;
+    /** Values longer than this are quoted without being looked at ({@link CsvQuoting}). */
+    static final int MAX_QUOTE_CHECK_CHARS = CsvQuoting.MAX_QUOTE_CHECK_CHARS;
     /** A first guess at a line's chars; the builder grows if short. */
     private static final int LINE_CHARS_GUESS = 160;
     private static final long serialVersionUID = 1L;
@@ -101,7 +99,7 @@ final class CsvLineLayout implements ScoredLayout {
     private static void field(StringBuilder line, String value) {
         if (value == null) {
             line.append(',');
-        } else if (!needsQuotes(value)) {
+        } else if (!CsvQuoting.needsQuotes(value)) {
             line.append(value).append(',');
         } else {
             line.append('"');
@@ -127,19 +125,5 @@ final class CsvLineLayout implements ScoredLayout {
     /** {@code line} without the separator after its last field. */
     private static String ended(StringBuilder line) {
         return line.substring(0, line.length() - 1);
-    }
-
-    static boolean needsQuotes(String value) {
-        int length = value.length();
-        if (length > MAX_QUOTE_CHECK_CHARS) {
-            return true;
-        }
-        for (int i = 0; i < length; i++) {
-            char c = value.charAt(i);
-            if (c < MIN_SAFE_CHAR || c == '\\') {
-                return true;
-            }
-        }
-        return false;
     }
 }
