@@ -364,7 +364,7 @@ public final class Bundle {
         if (classifier instanceof ProbabilisticClassifier probabilistic) {
             probabilistic.probabilitiesOf(scores, probabilities);
         }
-        return InterleavedWeights.predicted(scores);
+        return LinearWeights.classOf(scores);
     }
 
     /** The decision value for the predicted label: a binary model's margin signed towards it. */

@@ -50,23 +50,4 @@ final class InterleavedWeights {
             out[k] += biasTerms[k];
         }
     }
-
-    /**
-     * The class {@link LinearWeights#predict} gives for a row of these decision values: class 1
-     * when the single score is positive, class 0 otherwise; else the first highest score's class.
-     */
-    static int predicted(double[] decisionValues) {
-        if (decisionValues.length == 1) {
-            return decisionValues[0] > 0.0 ? 1 : 0;
-        }
-        int best = 0;
-        double bestValue = Double.NEGATIVE_INFINITY;
-        for (int k = 0; k < decisionValues.length; k++) {
-            if (decisionValues[k] > bestValue) {
-                best = k;
-                bestValue = decisionValues[k];
-            }
-        }
-        return best;
-    }
 }

@@ -129,17 +129,25 @@ public final class LinearWeights {
 
     /** Class 1 when the single score is positive, class 0 otherwise; else the highest score's class. */
     public int predict(SparseMatrix x, int row) {
-        requireColumns(x);
-        if (w.length == 1) {
-            return Rows.dot(x, row, w[0], bias) > 0.0 ? 1 : 0;
+        double[] values = new double[w.length];
+        decisionValues(x, row, values);
+        return classOf(values);
+    }
+
+    /**
+     * The class a row with these decision values ({@link #decisionValues}) is given: class 1 when
+     * the single score is positive, class 0 otherwise; else the first highest score's class.
+     */
+    public static int classOf(double[] decisionValues) {
+        if (decisionValues.length == 1) {
+            return decisionValues[0] > 0.0 ? 1 : 0;
         }
         int best = 0;
         double bestValue = Double.NEGATIVE_INFINITY;
-        for (int k = 0; k < w.length; k++) {
-            double value = Rows.dot(x, row, w[k], bias);
-            if (value > bestValue) {
+        for (int k = 0; k < decisionValues.length; k++) {
+            if (decisionValues[k] > bestValue) {
                 best = k;
-                bestValue = value;
+                bestValue = decisionValues[k];
             }
         }
         return best;

@@ -58,7 +58,7 @@ class InterleavedWeightsTest {
             double[] expected = new double[scores];
             weights.decisionValues(x, i, expected);
             assertThat(bits(scoresOut)).as("row %d", i).isEqualTo(bits(expected));
-            assertThat(InterleavedWeights.predicted(scoresOut)).isEqualTo(weights.predict(x, i));
+            assertThat(LinearWeights.classOf(scoresOut)).isEqualTo(weights.predict(x, i));
             for (ProbabilisticClassifier classifier : List.of(calibrated, logistic)) {
                 double[] p = new double[classes];
                 classifier.probabilitiesOf(scoresOut, p);
