@@ -45,7 +45,7 @@ final class IndexSort {
 
     /** Sorts {@code indices[0, length)}, distinct and each in {@code [0, featureCount)}, into increasing order. */
     void sort(int[] indices, int length) {
-        if (summary.length <= length) {
+        if (usesBitset(length)) {
             bitsetSort(indices, length);
         } else if (length <= RADIX_FROM) {
             Arrays.sort(indices, 0, length);
