@@ -32,10 +32,7 @@ final class CsvRowFormat implements RowFormat {
         this.probabilities = probabilities;
         CsvSchema.Builder schema = CsvSchema.builder();
         inputColumns.forEach(schema::addColumn);
-        schema.addColumn("label").addColumn("score");
-        if (probabilities) {
-            labels.forEach(label -> schema.addColumn("p:" + label));
-        }
+        ScoredRows.tableColumns(labels, probabilities).forEach(schema::addColumn);
         CsvSchema built = schema.build();
         this.headed = CSV.writer(built.withHeader());
     }

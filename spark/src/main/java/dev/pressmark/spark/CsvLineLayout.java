@@ -58,12 +58,7 @@ final class CsvLineLayout implements ScoredLayout {
 
     /** The columns the prediction adds after the input's, in order. */
     static List<String> predictionColumns(List<String> labels, boolean probabilities) {
-        List<String> names = new ArrayList<>();
-        names.add(PredictionColumn.LABEL);
-        names.add(PredictionColumn.SCORE);
-        if (probabilities) {
-            labels.forEach(label -> names.add("p:" + label));
-        }
+        List<String> names = new ArrayList<>(ScoredRows.tableColumns(labels, probabilities));
         names.add(PredictionColumn.VERSION);
         return names;
     }

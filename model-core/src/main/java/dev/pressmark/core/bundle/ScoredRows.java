@@ -1,5 +1,8 @@
 package dev.pressmark.core.bundle;
 
+import java.util.ArrayList;
+import java.util.List;
+
 /**
  * Caller-owned buffers that {@link Bundle#score} fills for a batch of rows: per row the predicted
  * label's index, its score, the token counts and, when the model gives them, one probability per
@@ -7,6 +10,9 @@ package dev.pressmark.core.bundle;
  * {@link Prediction} per row. Not thread-safe: one per thread.
  */
 public final class ScoredRows {
+
+    /** The column of a label's probability in a scored table: {@code p:} and the label. */
+    public static final String PROBABILITY_PREFIX = "p:";
 
     private final int capacity;
     private final int labels;
@@ -33,6 +39,21 @@ public final class ScoredRows {
         this.unknownTokens = new int[capacity];
         this.truncatedTokens = new int[capacity];
         this.probabilities = new double[withProbabilities ? Math.multiplyExact(capacity, labels) : 0];
+    }
+
+    /**
+     * The columns a scored table adds after the input's, in order: {@code label}, {@code score} and,
+     * with probabilities, {@code p:<label>} per label; {@code predict --data}'s CSV and the Spark
+     * job's CSV lines both name them so.
+     */
+    public static List<String> tableColumns(List<String> labels, boolean withProbabilities) {
+        List<String> names = new ArrayList<>(2 + labels.size());
+        names.add("label");
+        names.add("score");
+        if (withProbabilities) {
+            labels.forEach(label -> names.add(PROBABILITY_PREFIX + label));
+        }
+        return names;
     }
 
     public int capacity() {
