@@ -161,20 +161,10 @@ class CaseWeightPropertiesTest {
             for (int k = 0; k < a.length; k++) {
                 assertThat(a[k]).isCloseTo(b[k], within(DECISION));
             }
-            if (clearWinner(a)) {
+            if (DecisionMargins.clearWinner(a, DECISION)) {
                 assertThat(p[i]).as("prediction for test row %d", i).isEqualTo(q[i]);
             }
         }
-    }
-
-    /** Whether the top decision value beats the next (or 0, for one score) by more than the slack. */
-    private static boolean clearWinner(double[] values) {
-        if (values.length == 1) {
-            return Math.abs(values[0]) > 2 * DECISION;
-        }
-        double[] sorted = values.clone();
-        Arrays.sort(sorted);
-        return sorted[sorted.length - 1] - sorted[sorted.length - 2] > 2 * DECISION;
     }
 
     private static int[] select(int[] values, int[] rows) {

@@ -4,6 +4,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
 import dev.pressmark.core.Progress;
+import dev.pressmark.core.classify.DecisionMargins;
 import dev.pressmark.core.classify.LinearClassifier;
 import dev.pressmark.core.evaluate.Metric;
 import dev.pressmark.core.feature.SparseMatrix;
@@ -105,7 +106,7 @@ class WeightedRunPropertiesTest {
             for (int k = 0; k < a[i].length; k++) {
                 assertThat(a[i][k]).as("test row %d, score %d", i, k).isCloseTo(b[i][k], within(DECISION));
             }
-            clear &= clearWinner(a[i]);
+            clear &= DecisionMargins.clearWinner(a[i], DECISION);
         }
         if (clear) {
             for (Metric metric : weighted.test().overall().metrics()) {
@@ -123,15 +124,5 @@ class WeightedRunPropertiesTest {
             out[i] = model.decisionValues(x, i);
         }
         return out;
-    }
-
-    /** Whether the top decision value beats the next (or 0, for one score) by more than the slack. */
-    private static boolean clearWinner(double[] values) {
-        if (values.length == 1) {
-            return Math.abs(values[0]) > 2 * DECISION;
-        }
-        double[] sorted = values.clone();
-        Arrays.sort(sorted);
-        return sorted[sorted.length - 1] - sorted[sorted.length - 2] > 2 * DECISION;
     }
 }
